@@ -1,0 +1,60 @@
+// Hedgeleaf core: command dispatch (see engine.hpp).
+#include "engine.hpp"
+
+#include "pricer.hpp"
+#include "trade.hpp"
+
+#include <functional>
+#include <map>
+
+namespace hedgeleaf {
+
+namespace {
+using command_fn = std::function<json(const trade&)>;
+
+const std::map<std::string, command_fn>& commands() {
+    static const std::map<std::string, command_fn> table = {
+        {"price", [](const trade& t) { return price_result_json(t, price_trade(t)); }},
+    };
+    return table;
+}
+}  // namespace
+
+const char* engine_version() { return "0.1.0"; }
+
+std::vector<std::string> command_names() {
+    std::vector<std::string> names;
+    for (const auto& [name, fn] : commands()) names.push_back(name);
+    return names;
+}
+
+json run_command(const std::string& command, const json& document) {
+    const auto it = commands().find(command);
+    if (it == commands().end()) {
+        std::string list;
+        for (const auto& n : command_names()) list += (list.empty() ? "" : ", ") + n;
+        fail("", "unknown command \"" + command.substr(0, 40) + "\" (one of " + list + ")");
+    }
+    const trade t = parse_trade(document);
+    json result = it->second(t);
+    result["engine_version"] = engine_version();
+    return result;
+}
+
+std::string run_command_text(const std::string& command, const std::string& text) {
+    try {
+        if (text.size() > max_document_bytes)
+            fail("", "the trade document is " + std::to_string(text.size()) + " bytes, at most " +
+                         std::to_string(max_document_bytes));
+        const json doc = parse_json_text(text);
+        return json{{"ok", true}, {"result", run_command(command, doc)}}.dump(-1, ' ', false, json::error_handler_t::replace);
+    } catch (const input_error& e) {
+        return json{{"ok", false}, {"error", {{"field", e.field()}, {"message", e.what()}}}}.dump(-1, ' ', false, json::error_handler_t::replace);
+    } catch (const std::bad_alloc&) {
+        return json{{"ok", false}, {"error", {{"field", ""}, {"message", "out of memory: reduce lattice.steps or paths"}}}}.dump(-1, ' ', false, json::error_handler_t::replace);
+    } catch (const std::exception& e) {
+        return json{{"ok", false}, {"error", {{"field", ""}, {"message", std::string("internal error: ") + e.what()}}}}.dump(-1, ' ', false, json::error_handler_t::replace);
+    }
+}
+
+}  // namespace hedgeleaf

@@ -1,0 +1,32 @@
+// Hedgeleaf core: the commands shared by the CLI and the WebAssembly module.
+//
+// Each command takes a trade document and returns a JSON result; bad input
+// throws input_error. run_command_text wraps that in one envelope for callers
+// that cannot catch C++ exceptions (the module):
+//   {"ok": true,  "result": {...}}
+//   {"ok": false, "error": {"field": "market.volatility", "message": "market.volatility: must be > 0, got -0.2"}}
+#pragma once
+
+#include "json_read.hpp"
+
+#include <string>
+#include <vector>
+
+namespace hedgeleaf {
+
+/// Engine version shown on quote sheets and in results.
+const char* engine_version();
+
+/// Names of the commands run_command accepts.
+std::vector<std::string> command_names();
+
+/// Run `command` ("price", "hedge", ...) on a trade document. Throws input_error.
+json run_command(const std::string& command, const json& document);
+
+/// Text in, envelope text out; never throws.
+std::string run_command_text(const std::string& command, const std::string& text);
+
+/// Largest trade document accepted, in bytes.
+inline constexpr std::size_t max_document_bytes = 1 << 20;
+
+}  // namespace hedgeleaf

@@ -1,0 +1,34 @@
+// Hedgeleaf core: the one error type for bad input.
+//
+// Every rejected input travels as an input_error carrying the field path
+// (e.g. "market.volatility") and a message that starts with that path, so the
+// CLI, the WebAssembly module and the page all show the same sentence.
+#pragma once
+
+#include <stdexcept>
+#include <string>
+
+namespace hedgeleaf {
+
+/// Bad input: `field` is the JSON path of the offending value, `what()` is
+/// "<field>: <problem>".
+class input_error : public std::runtime_error {
+public:
+    input_error(const std::string& field, const std::string& problem)
+        : std::runtime_error(field.empty() ? problem : field + ": " + problem), field_(field) {}
+    /// JSON path of the offending input ("" when the whole document is at fault).
+    const std::string& field() const noexcept { return field_; }
+
+private:
+    std::string field_;
+};
+
+/// Throw an input_error; the single funnel for validation failures.
+[[noreturn]] inline void fail(const std::string& field, const std::string& problem) {
+    throw input_error(field, problem);
+}
+
+/// Shortest round-trip text of a number, for messages ("got -0.2").
+std::string format_number(double x);
+
+}  // namespace hedgeleaf

@@ -1,0 +1,186 @@
+// Hedgeleaf core: strict JSON field reading (see json_read.hpp).
+#include "json_read.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+
+namespace hedgeleaf {
+
+std::string format_number(double x) {
+    if (std::isnan(x)) return "NaN";
+    if (std::isinf(x)) return x > 0 ? "infinity" : "-infinity";
+    char buf[40];
+    for (int precision = 6; precision <= 17; ++precision) {
+        std::snprintf(buf, sizeof buf, "%.*g", precision, x);
+        if (std::strtod(buf, nullptr) == x) break;
+    }
+    return buf;
+}
+
+std::string describe(const json& value) {
+    switch (value.type()) {
+        case json::value_t::null: return "null";
+        case json::value_t::boolean: return value.get<bool>() ? "true" : "false";
+        case json::value_t::string: {
+            const auto& s = value.get_ref<const std::string&>();
+            std::string shown = s.size() > 40 ? s.substr(0, 40) + "..." : s;
+            return "string \"" + shown + "\"";
+        }
+        case json::value_t::array: return "a list";
+        case json::value_t::object: return "an object";
+        case json::value_t::number_integer:
+        case json::value_t::number_unsigned:
+        case json::value_t::number_float: return format_number(value.get<double>());
+        default: return "an unreadable value";
+    }
+}
+
+std::string join_path(const std::string& parent, const std::string& key) {
+    return parent.empty() ? key : parent + "." + key;
+}
+
+std::string index_path(const std::string& parent, std::size_t index) {
+    return parent + "[" + std::to_string(index) + "]";
+}
+
+double as_number(const json& value, const std::string& path) {
+    if (!value.is_number()) fail(path, "must be a number, got " + describe(value));
+    const double x = value.get<double>();
+    if (!std::isfinite(x)) fail(path, "must be a finite number, got " + format_number(x));
+    return x;
+}
+
+field_reader::field_reader(const json& object, std::string path) : object_(object), path_(std::move(path)) {
+    if (!object_.is_object())
+        fail(path_, "must be an object {...}, got " + describe(object_));
+}
+
+bool field_reader::has(const std::string& key) const {
+    return object_.contains(key) && !object_.at(key).is_null();
+}
+
+const json& field_reader::raw(const std::string& key) {
+    seen_.insert(key);
+    if (!object_.contains(key)) fail(child(key), "is required but missing");
+    return object_.at(key);
+}
+
+const json* field_reader::raw_optional(const std::string& key) {
+    seen_.insert(key);
+    if (!has(key)) return nullptr;
+    return &object_.at(key);
+}
+
+double field_reader::number(const std::string& key) { return as_number(raw(key), child(key)); }
+
+std::optional<double> field_reader::number_optional(const std::string& key) {
+    const json* v = raw_optional(key);
+    if (!v) return std::nullopt;
+    return as_number(*v, child(key));
+}
+
+double field_reader::number_or(const std::string& key, double fallback) {
+    return number_optional(key).value_or(fallback);
+}
+
+long field_reader::integer_or(const std::string& key, long fallback, long lo, long hi) {
+    const json* v = raw_optional(key);
+    if (!v) return fallback;
+    const double x = as_number(*v, child(key));
+    if (x != std::floor(x)) fail(child(key), "must be a whole number, got " + format_number(x));
+    if (x < static_cast<double>(lo) || x > static_cast<double>(hi))
+        fail(child(key), "must be between " + std::to_string(lo) + " and " + std::to_string(hi) +
+                             ", got " + format_number(x));
+    return static_cast<long>(x);
+}
+
+std::string field_reader::text(const std::string& key, std::size_t max_length) {
+    const json& v = raw(key);
+    if (!v.is_string()) fail(child(key), "must be text, got " + describe(v));
+    const auto& s = v.get_ref<const std::string&>();
+    if (s.size() > max_length)
+        fail(child(key), "is too long (" + std::to_string(s.size()) + " characters, at most " +
+                             std::to_string(max_length) + ")");
+    return s;
+}
+
+std::optional<std::string> field_reader::text_optional(const std::string& key, std::size_t max_length) {
+    seen_.insert(key);
+    if (!has(key)) return std::nullopt;
+    return text(key, max_length);
+}
+
+bool field_reader::boolean_or(const std::string& key, bool fallback) {
+    const json* v = raw_optional(key);
+    if (!v) return fallback;
+    if (!v->is_boolean()) fail(child(key), "must be true or false, got " + describe(*v));
+    return v->get<bool>();
+}
+
+std::string field_reader::choice(const std::string& key, const std::vector<std::string>& choices) {
+    const json& v = raw(key);
+    std::string list;
+    for (const auto& c : choices) list += (list.empty() ? "" : ", ") + c;
+    if (!v.is_string()) fail(child(key), "must be one of " + list + ", got " + describe(v));
+    const auto& s = v.get_ref<const std::string&>();
+    if (std::find(choices.begin(), choices.end(), s) == choices.end())
+        fail(child(key), "must be one of " + list + ", got " + describe(v));
+    return s;
+}
+
+std::string field_reader::choice_or(const std::string& key, const std::vector<std::string>& choices,
+                                    const std::string& fallback) {
+    seen_.insert(key);
+    if (!has(key)) return fallback;
+    return choice(key, choices);
+}
+
+namespace {
+// Edit distance, for the did-you-mean hint on unknown fields.
+std::size_t distance(const std::string& a, const std::string& b) {
+    std::vector<std::size_t> row(b.size() + 1);
+    for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
+    for (std::size_t i = 1; i <= a.size(); ++i) {
+        std::size_t diag = row[0];
+        row[0] = i;
+        for (std::size_t j = 1; j <= b.size(); ++j) {
+            const std::size_t up = row[j];
+            row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] == b[j - 1] ? 0 : 1)});
+            diag = up;
+        }
+    }
+    return row[b.size()];
+}
+}  // namespace
+
+void field_reader::finish() const {
+    for (auto it = object_.begin(); it != object_.end(); ++it) {
+        if (seen_.count(it.key())) continue;
+        std::string key = it.key().size() > 60 ? it.key().substr(0, 60) + "..." : it.key();
+        std::string hint;
+        std::size_t best = 3;
+        for (const auto& known : seen_) {
+            const std::size_t d = distance(it.key(), known);
+            if (d < best) { best = d; hint = known; }
+        }
+        fail(join_path(path_, key),
+             "unknown field" + (hint.empty() ? std::string() : " (did you mean \"" + hint + "\"?)"));
+    }
+}
+
+void require_positive(double value, const std::string& path) {
+    if (!(value > 0)) fail(path, "must be > 0, got " + format_number(value));
+}
+void require_non_negative(double value, const std::string& path) {
+    if (!(value >= 0)) fail(path, "must be >= 0, got " + format_number(value));
+}
+void require_at_most(double value, double limit, const std::string& path) {
+    if (!(value <= limit)) fail(path, "must be <= " + format_number(limit) + ", got " + format_number(value));
+}
+void require_at_least(double value, double limit, const std::string& path) {
+    if (!(value >= limit)) fail(path, "must be >= " + format_number(limit) + ", got " + format_number(value));
+}
+
+}  // namespace hedgeleaf

@@ -1,0 +1,75 @@
+// Hedgeleaf core: recombining binomial lattices and backward induction.
+//
+// The lattice runs on the diffusing part of spot, S* = spot - PV(cash dividends
+// before expiry) (escrowed-dividend convention); a node's full spot is S* plus
+// the PV of the dividends still to come. One step multiplies S* by `up` or
+// `down`; the risk-neutral probability comes from the growth factor over one
+// step, p = (growth - down) / (up - down), which needs 0 < down < growth < up.
+#pragma once
+
+#include "closed_form.hpp"
+#include "trade.hpp"
+
+#include <vector>
+
+namespace hedgeleaf {
+
+/// The parameters of one lattice step.
+struct lattice_step {
+    double dt = 0;        ///< years per step
+    double up = 0;        ///< S* multiplier on an up move
+    double down = 0;      ///< S* multiplier on a down move
+    double growth = 0;    ///< exp((rate - carry_yield) * dt): forward growth of S* over a step
+    double discount = 0;  ///< exp(-rate * dt)
+    double p_up = 0;      ///< (growth - down) / (up - down)
+};
+
+/// Steps actually used for a method: Leisen-Reimer needs an odd count.
+int effective_steps(lattice_method method, int steps);
+/// Default steps for a method when the trade gives none.
+int default_steps(lattice_method method);
+
+/// The diffusing spot S* at valuation (spot minus PV of dividends up to `expiry`).
+double diffusing_spot(const market_data& market, double expiry);
+
+/// Build the step for `method` with `steps` steps to `expiry`. `strike` centres
+/// Leisen-Reimer. Throws input_error naming the inputs if 0 < d < growth < u fails.
+lattice_step make_step(lattice_method method, const market_data& market, double strike, double expiry, int steps);
+
+/// Which steps allow early exercise (size steps+1; the last step always pays).
+std::vector<char> exercise_steps(const option_leg& leg, int steps, double dt);
+
+/// Value of a leg if exercised (or paid) at full spot s.
+double exercise_value(const option_leg& leg, double s);
+
+/// Value and lattice Greeks (delta, gamma, theta; vega and rho left 0) from one backward induction.
+struct induction_result {
+    double value = 0;
+    double delta = 0;
+    double gamma = 0;
+    double theta = 0;
+};
+
+/// One backward induction of `leg` on `steps` steps with O(steps) memory.
+induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps);
+
+/// A lattice price with Greeks and an error estimate.
+struct lattice_price {
+    double premium = 0;
+    greeks sensitivities;       ///< delta, gamma, theta from the lattice; vega, rho by central differences
+    double error_estimate = 0;  ///< |extrapolated - fine| (or the estimated error of the fine leg)
+    int steps = 0;              ///< fine steps
+    int coarse_steps = 0;       ///< steps of the second Richardson leg
+    bool extrapolated = false;
+};
+
+/// Bump sizes for the sensitivities taken by re-pricing (documented in the README).
+inline constexpr double vega_bump = 0.005;  ///< +-0.5 volatility point (halved below vol 0.01)
+inline constexpr double rho_bump = 0.0005;  ///< +-5 basis points
+
+/// Price (fine and coarse leg, Richardson when asked), lattice Greeks, no bumps.
+lattice_price price_lattice_only(const market_data& market, const option_leg& leg, const lattice_settings& settings);
+/// As price_lattice_only plus vega and rho by central differences.
+lattice_price price_on_lattice(const market_data& market, const option_leg& leg, const lattice_settings& settings);
+
+}  // namespace hedgeleaf

@@ -1,0 +1,97 @@
+// hedgeleaf: the command-line front end over the same core as the page.
+//
+//   hedgeleaf <command> FILE|- [--table | --csv]
+//
+// Exit codes: 0 done, 2 bad input (one line on stderr naming the field), 1 other failure.
+#include "engine.hpp"
+#include "table.hpp"
+#include "trade.hpp"
+
+#include <fstream>
+#include <iostream>
+#include <iterator>
+#include <sstream>
+#include <string>
+
+namespace {
+
+using hedgeleaf::json;
+
+int usage(std::ostream& out, int code) {
+    out << "usage: hedgeleaf <command> FILE|- [--table | --csv]\n"
+           "commands:";
+    for (const auto& name : hedgeleaf::command_names()) out << " " << name;
+    out << "\n  FILE is a trade document (JSON); - reads standard input.\n"
+           "  --table prints for a human, --csv prints the result's rows for a spreadsheet.\n"
+           "  hedgeleaf --version prints the engine version.\n";
+    return code;
+}
+
+bool read_input(const std::string& path, std::string& text) {
+    if (path == "-") {
+        text.assign(std::istreambuf_iterator<char>(std::cin), std::istreambuf_iterator<char>());
+        return true;
+    }
+    std::ifstream in(path, std::ios::binary);
+    if (!in) return false;
+    std::ostringstream buf;
+    buf << in.rdbuf();
+    text = buf.str();
+    return true;
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    if (argc == 2 && std::string(argv[1]) == "--version") {
+        std::cout << "hedgeleaf " << hedgeleaf::engine_version() << "\n";
+        return 0;
+    }
+    if (argc == 2 && (std::string(argv[1]) == "--help" || std::string(argv[1]) == "-h")) return usage(std::cout, 0);
+    if (argc < 3 || argc > 4) return usage(std::cerr, 2);
+    const std::string command = argv[1];
+    const std::string path = argv[2];
+    std::string format = "json";
+    if (argc == 4) {
+        const std::string flag = argv[3];
+        if (flag == "--table") format = "table";
+        else if (flag == "--csv") format = "csv";
+        else {
+            std::cerr << "hedgeleaf: unknown option " << flag << " (use --table or --csv)\n";
+            return 2;
+        }
+    }
+    std::string text;
+    if (!read_input(path, text)) {
+        std::cerr << "hedgeleaf: cannot read " << path << "\n";
+        return 2;
+    }
+    try {
+        if (text.size() > hedgeleaf::max_document_bytes)
+            hedgeleaf::fail("", "the trade document is " + std::to_string(text.size()) + " bytes, at most " +
+                                    std::to_string(hedgeleaf::max_document_bytes));
+        const json result = hedgeleaf::run_command(command, hedgeleaf::parse_json_text(text));
+        if (format == "table") {
+            std::cout << hedgeleaf::cli::render_table(result);
+        } else if (format == "csv") {
+            const std::string csv = hedgeleaf::cli::render_csv(result);
+            if (csv.empty()) {
+                std::cerr << "hedgeleaf: the " << command << " result has no rows to write as CSV (use --table)\n";
+                return 2;
+            }
+            std::cout << csv;
+        } else {
+            std::cout << result.dump(2, ' ', false, json::error_handler_t::replace) << "\n";
+        }
+        return 0;
+    } catch (const hedgeleaf::input_error& e) {
+        std::cerr << e.what() << "\n";  // the same "<field>: <problem>" line the page shows
+        return 2;
+    } catch (const std::bad_alloc&) {
+        std::cerr << "hedgeleaf: out of memory (reduce lattice.steps or paths)\n";
+        return 1;
+    } catch (const std::exception& e) {
+        std::cerr << "hedgeleaf: internal error: " << e.what() << "\n";
+        return 1;
+    }
+}
