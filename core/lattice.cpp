@@ -19,27 +19,6 @@ double peizer_pratt(double z, int n) {
 
 bool is_vanilla(payoff_kind k) { return k == payoff_kind::call || k == payoff_kind::put; }
 
-// Log-spot beyond which lattice nodes are clamped: far past any probability mass
-// the price can feel, and well inside double range.
-constexpr double log_clamp = 600.0;
-
-// Full spots of row n: S*_0 u^i d^(n-i) + pv for i = 0..n, computed in log space
-// every 64 nodes and by running product in between (bounded rounding drift).
-void row_spots(double log_s0, double log_u, double log_d, int n, double pv, double* out) {
-    const double log_start = log_s0 + n * log_d;
-    const double log_ratio = log_u - log_d;
-    for (int i = 0; i <= n;) {
-        const double log_s = std::clamp(log_start + i * log_ratio, -log_clamp, log_clamp);
-        double s = std::exp(log_s);
-        const double ratio = std::exp(log_ratio);
-        const int end = std::min(n, i + 63);
-        for (; i <= end; ++i) {
-            out[i] = s + pv;
-            s = std::min(s * ratio, 1e260);
-        }
-    }
-}
-
 struct richardson {
     double weight_fine;  // extrapolated = w * fine + (1 - w) * coarse
 };
@@ -51,6 +30,15 @@ richardson weights(int fine, int coarse, int order) {
 }
 
 }  // namespace
+
+bool early_exercise_can_pay(const market_data& m, const option_leg& leg) {
+    // Without cash dividends, C >= S e^{-qT} - K e^{-rT} > S - K when q <= 0 <= r, so a call
+    // is never exercised early; likewise a put when r <= 0 <= q (Merton, 1973).
+    if (!m.dividends.empty()) return true;
+    if (leg.type == payoff_kind::call) return !(m.carry_yield <= 0 && m.rate >= 0);
+    if (leg.type == payoff_kind::put) return !(m.rate <= 0 && m.carry_yield >= 0);
+    return true;
+}
 
 int effective_steps(lattice_method method, int steps) {
     if (method == lattice_method::leisen_reimer && steps % 2 == 0) return steps + 1;
@@ -140,40 +128,181 @@ double exercise_value(const option_leg& leg, double s) {
     return 0;
 }
 
+namespace {
+
+// The sweep is compiled twice on x86-64 Linux with GCC: for AVX2+FMA (x86-64-v3)
+// and for the baseline; the loader picks one at start-up (ifunc). Elsewhere,
+// including WebAssembly, it is compiled once with the build's own flags.
+#if defined(__x86_64__) && defined(__linux__) && defined(__GNUC__) && !defined(__clang__)
+#define HEDGELEAF_SWEEP_CLONES __attribute__((target_clones("arch=x86-64-v3", "default")))
+#else
+#define HEDGELEAF_SWEEP_CLONES
+#endif
+
+// Powers of the up/down ratio are clamped here (log scale): nodes that far from
+// spot carry no probability mass, and the clamp keeps every product of a row
+// factor and a power finite (spot <= 1e9, row factors within e^+-100 of spot).
+constexpr double log_power_clamp = 500.0;
+
+// Everything one backward induction needs. Node (n, i) has diffusing spot
+// S*_0 u^i d^(n-i) = factor_n * powers[i - centre_n], where powers[k] = (u/d)^k
+// for k in [-steps, steps] and centre_n is the node nearest S*_0, so the factor
+// stays near S*_0 and one table serves every row: no running product per node.
+struct sweep {
+    double* v = nullptr;             // row values, size steps + 1
+    const double* powers = nullptr;  // points at k = 0 of the 2 steps + 1 table
+    const char* allowed = nullptr;   // exercise allowed at row n
+    const market_data* market = nullptr;
+    const option_leg* leg = nullptr;
+    int steps = 0;
+    double pu = 0, pd = 0;  // discounted up and down probabilities
+    double log_s0 = 0, log_d = 0, log_ratio = 0, dt = 0;
+    bool early = false, has_dividends = false;
+    double row1[2] = {0, 0}, row2[3] = {0, 0, 0};
+};
+
+int row_centre(const sweep& w, int n) {
+    const double h = std::round(-n * w.log_d / w.log_ratio);
+    return static_cast<int>(std::clamp(h, 0.0, static_cast<double>(n)));
+}
+
+// Row factor for centre h: S*_0 d^n (u/d)^h.
+double row_factor(const sweep& w, int n, int h) {
+    return std::exp(std::clamp(w.log_s0 + n * w.log_d + h * w.log_ratio, -700.0, 700.0));
+}
+
+// powers[k] = (u/d)^k for |k| <= steps: exp every 32 entries, products between
+// (bounded rounding drift), then the clamp.
+void fill_powers(double log_ratio, int steps, double* table) {
+    const double ratio = std::exp(log_ratio);
+    const double lo = std::exp(-log_power_clamp), hi = std::exp(log_power_clamp);
+    for (int k = -steps; k <= steps;) {
+        double p = std::exp(std::clamp(k * log_ratio, -log_power_clamp, log_power_clamp));
+        const int end = std::min(steps, k + 31);
+        for (; k <= end; ++k) {
+            table[k + steps] = std::clamp(p, lo, hi);
+            p = std::min(p * ratio, hi);
+        }
+    }
+}
+
+// First index i in [0, count) with factor * r[i] >= level (count if none); r increases.
+int first_at_or_above(const double* r, int count, double factor, double level) {
+    return static_cast<int>(std::lower_bound(r, r + count, level, [factor](double x, double lv) { return factor * x < lv; }) - r);
+}
+// First index i in [0, count) with factor * r[i] > level.
+int first_above(const double* r, int count, double factor, double level) {
+    return static_cast<int>(std::upper_bound(r, r + count, level, [factor](double lv, double x) { return lv < factor * x; }) - r);
+}
+
+// The hot loops. Each node depends only on the row below, so the loops carry no
+// dependency from node to node and the compiler vectorises them; the exercise
+// value is one multiply-add on a precomputed power. In place, left to right:
+// v[i] is overwritten only after v[i] and v[i + 1] are read.
+inline void continue_range(double* __restrict v, int from, int to, double pu, double pd) {
+    for (int i = from; i < to; ++i) v[i] = pu * v[i + 1] + pd * v[i];
+}
+inline void put_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
+                      double level, double factor) {
+    for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], level - factor * r[i]);
+}
+inline void call_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
+                       double level, double factor) {
+    for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], factor * r[i] - level);
+}
+
+// One exercise row. A put's exercise value is positive only below strike - pv
+// (and the continuation is never negative), so the max runs only there; a
+// call's only above. Other payoffs take the general per-node path.
+void exercise_row(sweep& w, int n) {
+    const int h = row_centre(w, n);
+    const double factor = row_factor(w, n, h);
+    const double* r = w.powers - h;  // r[i]: power for node i of row n
+    const double pv = w.has_dividends ? w.market->dividend_pv(n * w.dt, w.leg->expiry) : 0.0;
+    const double level = w.leg->strike - pv;  // exercise pays strike - S* - pv (put) or the negative (call)
+    double* v = w.v;
+    switch (w.leg->type) {
+        case payoff_kind::put: {
+            const int m = first_at_or_above(r, n + 1, factor, level);
+            put_range(v, r, 0, m, w.pu, w.pd, level, factor);
+            continue_range(v, m, n + 1, w.pu, w.pd);
+            return;
+        }
+        case payoff_kind::call: {
+            const int m = first_above(r, n + 1, factor, level);
+            continue_range(v, 0, m, w.pu, w.pd);
+            call_range(v, r, m, n + 1, w.pu, w.pd, level, factor);
+            return;
+        }
+        default:
+            for (int i = 0; i <= n; ++i)
+                v[i] = std::max(w.pu * v[i + 1] + w.pd * v[i], exercise_value(*w.leg, factor * r[i] + pv));
+    }
+}
+
+// The whole backward induction: one call per price (V8 tiers a function up
+// between calls, not inside a long one).
+HEDGELEAF_SWEEP_CLONES void run_sweep(sweep& w) {
+    for (int n = w.steps - 1; n >= 0; --n) {
+        if (w.early && w.allowed[n]) {
+            exercise_row(w, n);
+        } else {
+            continue_range(w.v, 0, n + 1, w.pu, w.pd);
+        }
+        if (n == 2) std::copy(w.v, w.v + 3, w.row2);
+        if (n == 1) std::copy(w.v, w.v + 2, w.row1);
+    }
+}
+
+// One buffer per thread, grown when needed and reused by every price: the
+// induction allocates nothing once warm.
+std::vector<double>& scratch(std::size_t size) {
+    thread_local std::vector<double> buffer;
+    if (buffer.size() < size) buffer.resize(size);
+    return buffer;
+}
+
+}  // namespace
+
 induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps) {
     const int n_steps = effective_steps(method, steps);
     const double T = leg.expiry;
     const lattice_step st = make_step(method, market, leg.strike, T, n_steps);
     const double s0 = diffusing_spot(market, T);
-    const double log_s0 = std::log(s0), log_u = std::log(st.up), log_d = std::log(st.down);
     const std::vector<char> allowed = exercise_steps(leg, n_steps, st.dt);
-    const bool has_dividends = !market.dividends.empty();
-    const bool early = leg.exercise != exercise_style::european;
+    const std::size_t width = static_cast<std::size_t>(n_steps) + 1;
+    std::vector<double>& buffer = scratch(width + 2 * width);
 
-    std::vector<double> v(static_cast<std::size_t>(n_steps) + 1);
-    std::vector<double> spots(static_cast<std::size_t>(n_steps) + 1);
-    row_spots(log_s0, log_u, log_d, n_steps, 0.0, spots.data());
-    for (int i = 0; i <= n_steps; ++i) v[i] = exercise_value(leg, spots[i]);
+    sweep w;
+    w.v = buffer.data();
+    w.powers = buffer.data() + width + n_steps;
+    w.allowed = allowed.data();
+    w.market = &market;
+    w.leg = &leg;
+    w.steps = n_steps;
+    w.pu = st.discount * st.p_up;
+    w.pd = st.discount * (1 - st.p_up);
+    w.log_s0 = std::log(s0);
+    w.log_d = std::log(st.down);
+    w.log_ratio = std::log(st.up) - w.log_d;
+    w.dt = st.dt;
+    w.early = leg.exercise != exercise_style::european;
+    w.has_dividends = !market.dividends.empty();
+    fill_powers(w.log_ratio, n_steps, buffer.data() + width);
 
-    const double pu = st.discount * st.p_up;
-    const double pd = st.discount * (1 - st.p_up);
-    double row1[2] = {0, 0}, row2[3] = {0, 0, 0};
-    if (n_steps == 1) { row1[0] = v[0]; row1[1] = v[1]; }
-    if (n_steps == 2) { row2[0] = v[0]; row2[1] = v[1]; row2[2] = v[2]; }
-    for (int n = n_steps - 1; n >= 0; --n) {
-        double* row = v.data();
-        for (int i = 0; i <= n; ++i) row[i] = pu * row[i + 1] + pd * row[i];
-        if (early && allowed[static_cast<std::size_t>(n)]) {
-            const double pv = has_dividends ? market.dividend_pv(n * st.dt, T) : 0.0;
-            row_spots(log_s0, log_u, log_d, n, pv, spots.data());
-            for (int i = 0; i <= n; ++i) row[i] = std::max(row[i], exercise_value(leg, spots[i]));
-        }
-        if (n == 2) { row2[0] = row[0]; row2[1] = row[1]; row2[2] = row[2]; }
-        if (n == 1) { row1[0] = row[0]; row1[1] = row[1]; }
+    {  // the payoff row at expiry (no dividends left to add)
+        const int h = row_centre(w, n_steps);
+        const double factor = row_factor(w, n_steps, h);
+        for (int i = 0; i <= n_steps; ++i) w.v[i] = exercise_value(leg, factor * w.powers[i - h]);
     }
+    if (n_steps == 1) std::copy(w.v, w.v + 2, w.row1);
+    if (n_steps == 2) std::copy(w.v, w.v + 3, w.row2);
+    run_sweep(w);
+    const double* row1 = w.row1;
+    const double* row2 = w.row2;
 
     induction_result out;
-    out.value = v[0];
+    out.value = w.v[0];
     const double su = s0 * st.up, sd = s0 * st.down;
     out.delta = (row1[1] - row1[0]) / (su - sd);
     double v_at_s0_later;  // value at today's S* one or two steps later
@@ -216,8 +345,8 @@ lattice_price price_lattice_only(const market_data& market, const option_leg& le
     const induction_result c = induce(market, leg, method, coarse);
     // Leisen-Reimer converges at second order for European vanillas; early
     // exercise and digitals bring first-order terms.
-    const int order = (method == lattice_method::leisen_reimer && leg.exercise == exercise_style::european &&
-                       is_vanilla(leg.type)) ? 2 : 1;
+    const bool early_may_pay = leg.exercise != exercise_style::european && early_exercise_can_pay(market, leg);
+    const int order = (method == lattice_method::leisen_reimer && !early_may_pay && is_vanilla(leg.type)) ? 2 : 1;
     out.steps = fine;
     out.coarse_steps = coarse;
     if (settings.extrapolate && can_extrapolate) {

@@ -39,6 +39,10 @@ lattice_step make_step(lattice_method method, const market_data& market, double 
 /// Which steps allow early exercise (size steps+1; the last step always pays).
 std::vector<char> exercise_steps(const option_leg& leg, int steps, double dt);
 
+/// False when early exercise can never beat holding (American call with no dividends and
+/// carry_yield <= 0 <= rate; put with rate <= 0 <= carry_yield): the leg is then European in value.
+bool early_exercise_can_pay(const market_data& market, const option_leg& leg);
+
 /// Value of a leg if exercised (or paid) at full spot s.
 double exercise_value(const option_leg& leg, double s);
 
