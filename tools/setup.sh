@@ -13,10 +13,13 @@ jobs=2
 say() { printf '\n== %s\n' "$*"; }
 
 install_packages() {
-    local wanted=(cmake g++ make emscripten nlohmann-json3-dev catch2 libboost-dev nodejs npm chromium
-                  clang libclang-rt-14-dev python3 python3-scipy python3-mpmath)
+    local wanted=(cmake g++ make emscripten nlohmann-json3-dev catch2 libboost-dev chromium
+                  clang libclang-rt-14-dev python3 python3-scipy python3-mpmath python3-jsonschema)
     local missing=()
     for p in "${wanted[@]}"; do dpkg -s "$p" >/dev/null 2>&1 || missing+=("$p"); done
+    # Node.js may come from another package source (with npm inside); only add Debian's when absent.
+    command -v node >/dev/null 2>&1 || missing+=(nodejs)
+    command -v npm >/dev/null 2>&1 || missing+=(npm)
     if [ ${#missing[@]} -gt 0 ]; then
         say "installing Debian packages: ${missing[*]}"
         local sudo=""; [ "$(id -u)" -eq 0 ] || sudo=sudo
