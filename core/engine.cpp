@@ -2,6 +2,7 @@
 #include "engine.hpp"
 
 #include "pricer.hpp"
+#include "solver.hpp"
 #include "trade.hpp"
 
 #include <functional>
@@ -15,6 +16,7 @@ using command_fn = std::function<json(const trade&)>;
 const std::map<std::string, command_fn>& commands() {
     static const std::map<std::string, command_fn> table = {
         {"price", [](const trade& t) { return price_result_json(t, price_trade(t)); }},
+        {"solve", solve_json},
     };
     return table;
 }
