@@ -1,7 +1,10 @@
 // Hedgeleaf core: command dispatch (see engine.hpp).
 #include "engine.hpp"
 
+#include "hedge.hpp"
 #include "pricer.hpp"
+#include "replication.hpp"
+#include "simulate.hpp"
 #include "solver.hpp"
 #include "trade.hpp"
 
@@ -16,6 +19,9 @@ using command_fn = std::function<json(const trade&)>;
 const std::map<std::string, command_fn>& commands() {
     static const std::map<std::string, command_fn> table = {
         {"price", [](const trade& t) { return price_result_json(t, price_trade(t)); }},
+        {"hedge", hedge_command},
+        {"simulate", simulate_command},
+        {"tree", tree_command},
         {"solve", solve_json},
     };
     return table;

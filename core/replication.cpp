@@ -1,0 +1,355 @@
+// Hedgeleaf core: the replicating portfolio on one lattice (see replication.hpp).
+#include "replication.hpp"
+
+#include "hedge.hpp"
+
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+
+namespace hedgeleaf {
+
+namespace {
+
+// Strike that centres a Leisen-Reimer lattice shared by several legs: the first
+// option leg's (the other methods ignore it).
+double centre_strike(const trade& t) {
+    for (const auto& leg : t.legs)
+        if (leg.type != payoff_kind::stock) return leg.strike;
+    return t.market.spot;
+}
+
+// One leg's backward induction on the shared lattice, visiting every level from
+// the leg's expiry step down to 0 with that level's values and events.
+template <class Visit>
+void induce_leg(const trade_lattice& lat, std::size_t k, Visit&& visit) {
+    const option_leg& leg = lat.source->legs[k];
+    const int m = lat.last_step[k];
+    std::vector<double> row(static_cast<std::size_t>(m) + 1);
+    std::vector<char> event(static_cast<std::size_t>(m) + 1, static_cast<char>(node_event::expiry));
+    const bool stock = leg.type == payoff_kind::stock;
+    for (int j = 0; j <= m; ++j) row[j] = stock ? lat.spot(m, j) : exercise_value(leg, lat.spot(m, j));
+    visit(m, row, event);
+    const double pu = lat.step.discount * lat.step.p_up;
+    const double pd = lat.step.discount * (1 - lat.step.p_up);
+    const std::vector<char>& allowed = lat.allowed[k];
+    for (int n = m - 1; n >= 0; --n) {
+        for (int j = 0; j <= n; ++j) {
+            event[j] = static_cast<char>(node_event::none);
+            if (stock) {
+                row[j] = lat.spot(n, j);  // a share is worth its spot; its income goes to its holder
+                continue;
+            }
+            const double wait = pu * row[j + 1] + pd * row[j];
+            row[j] = wait;
+            if (allowed[static_cast<std::size_t>(n)]) {
+                const double now = exercise_value(leg, lat.spot(n, j));
+                if (now > wait) {
+                    row[j] = now;
+                    event[j] = static_cast<char>(node_event::early_exercise);
+                }
+            }
+        }
+        visit(n, row, event);
+    }
+}
+
+// A leg's replicating shares and cash at (n, j) from its values at the two children.
+// A share leg's claim includes the income its holder receives over the step.
+void leg_hedge(const trade_lattice& lat, std::size_t k, int n, int j, double v_down, double v_up, double& shares,
+               double& cash) {
+    const double inc = lat.income(n, j);
+    const bool stock = lat.source->legs[k].type == payoff_kind::stock;
+    const double x_up = v_up + (stock ? inc : 0.0);
+    const double x_down = v_down + (stock ? inc : 0.0);
+    const double s_up = lat.spot(n + 1, j + 1), s_down = lat.spot(n + 1, j);
+    shares = (x_up - x_down) / (s_up - s_down);
+    cash = (x_up - shares * (s_up + inc)) * lat.step.discount;
+}
+
+}  // namespace
+
+std::string to_string(node_event e) {
+    switch (e) {
+        case node_event::none: return "none";
+        case node_event::early_exercise: return "early";
+        case node_event::expiry: return "expiry";
+    }
+    return "none";
+}
+
+trade_lattice::trade_lattice(const trade& t, int n_steps) : source(&t), steps(n_steps) {
+    const double T = t.final_expiry();
+    step = make_step(t.lattice.method, t.market, centre_strike(t), T, steps);
+    s0 = diffusing_spot(t.market, T);
+    for (std::size_t k = 0; k < t.legs.size(); ++k) {
+        const option_leg& leg = t.legs[k];
+        int m = steps;
+        if (leg.type != payoff_kind::stock) {
+            m = static_cast<int>(std::clamp<long>(std::lround(leg.expiry / step.dt), 1, steps));
+            if (std::fabs(m * step.dt - leg.expiry) > 1e-9 * T)
+                notes.push_back("legs[" + std::to_string(k) + "] expires at " + format_number(leg.expiry) +
+                                " years, between lattice steps; it pays at step " + std::to_string(m) + " (" +
+                                format_number(m * step.dt) + " years)");
+        }
+        last_step.push_back(m);
+        allowed.push_back(exercise_steps(leg, m, step.dt));
+    }
+}
+
+double trade_lattice::diffusing(int n, int j) const {
+    return s0 * std::exp(j * std::log(step.up) + (n - j) * std::log(step.down));
+}
+
+double trade_lattice::spot(int n, int j) const {
+    const double pv = source->market.dividends.empty() ? 0.0 : source->market.dividend_pv(time(n), time(steps));
+    return diffusing(n, j) + pv;
+}
+
+double trade_lattice::income(int n, int j) const {
+    const market_data& m = source->market;
+    const double growth_r = std::exp(m.rate * step.dt);
+    double inc = diffusing(n, j) * (growth_r - step.growth);  // carry yield earned on S*
+    if (!m.dividends.empty()) inc += m.dividend_pv(time(n), time(n + 1)) * growth_r;
+    return inc;
+}
+
+std::vector<tree_node> tree_window(const trade_lattice& lat, int from_step, int to_step) {
+    const trade& t = *lat.source;
+    const int last_needed = std::min(to_step + 1, lat.steps);
+    const int levels = last_needed - from_step + 1;
+    // Per leg, per level in [from_step, last_needed]: values and events.
+    std::vector<std::vector<std::vector<double>>> values(t.legs.size(), std::vector<std::vector<double>>(levels));
+    std::vector<std::vector<std::vector<char>>> events(t.legs.size(), std::vector<std::vector<char>>(levels));
+    for (std::size_t k = 0; k < t.legs.size(); ++k)
+        induce_leg(lat, k, [&](int n, const std::vector<double>& row, const std::vector<char>& ev) {
+            if (n < from_step || n > last_needed) return;
+            values[k][n - from_step].assign(row.begin(), row.begin() + n + 1);
+            events[k][n - from_step].assign(ev.begin(), ev.begin() + n + 1);
+        });
+
+    std::vector<tree_node> out;
+    for (int n = from_step; n <= to_step; ++n) {
+        for (int j = 0; j <= n; ++j) {
+            tree_node node;
+            node.step = n;
+            node.index = j;
+            node.spot = lat.spot(n, j);
+            node.income = n < lat.steps ? lat.income(n, j) : 0.0;
+            bool early = false, expiry = false;
+            for (std::size_t k = 0; k < t.legs.size(); ++k) {
+                if (n > lat.last_step[k]) continue;  // paid out earlier
+                const double q = t.legs[k].quantity;
+                const double v = values[k][n - from_step][j];
+                const auto ev = static_cast<node_event>(events[k][n - from_step][j]);
+                node.value += q * v;
+                if (ev != node_event::none) {
+                    node.paid += q * v;
+                    early = early || ev == node_event::early_exercise;
+                    expiry = expiry || ev == node_event::expiry;
+                    continue;
+                }
+                double shares, cash;
+                const auto& next = values[k][n + 1 - from_step];
+                leg_hedge(lat, k, n, j, next[j], next[j + 1], shares, cash);
+                node.shares += q * shares;
+                node.cash += q * cash;
+            }
+            node.event = early ? node_event::early_exercise : (expiry ? node_event::expiry : node_event::none);
+            out.push_back(node);
+        }
+    }
+    return out;
+}
+
+std::vector<int> parse_moves(const std::string& moves, const std::string& field) {
+    std::vector<int> out;
+    for (std::size_t i = 0; i < moves.size(); ++i) {
+        const char c = static_cast<char>(std::toupper(static_cast<unsigned char>(moves[i])));
+        if (c == 'U') out.push_back(1);
+        else if (c == 'D') out.push_back(0);
+        else if (c == ' ' || c == ',' || c == '-') continue;  // readable separators: "UUD DU"
+        else
+            fail(field, "moves are U (up) or D (down); character " + std::to_string(i + 1) + " is \"" +
+                            std::string(1, moves[i]) + "\"");
+    }
+    if (out.empty()) fail(field, "must hold at least one move (U or D)");
+    return out;
+}
+
+std::vector<int> moves_from_nodes(const std::vector<int>& nodes, const std::string& field) {
+    if (nodes.size() < 2) fail(field, "must list at least two node indices, starting with 0");
+    if (nodes[0] != 0) fail(index_path(field, 0), "must be 0 (the valuation node), got " + std::to_string(nodes[0]));
+    std::vector<int> out;
+    for (std::size_t i = 1; i < nodes.size(); ++i) {
+        const int d = nodes[i] - nodes[i - 1];
+        if (d != 0 && d != 1)
+            fail(index_path(field, i), "must be the previous index (down) or one more (up), got " +
+                                           std::to_string(nodes[i]) + " after " + std::to_string(nodes[i - 1]));
+        out.push_back(d);
+    }
+    return out;
+}
+
+std::string moves_text(const std::vector<int>& moves) {
+    std::string s;
+    for (int m : moves) s += m ? 'U' : 'D';
+    return s;
+}
+
+std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int>& moves) {
+    const trade& t = *lat.source;
+    const int length = static_cast<int>(moves.size());
+    if (length > lat.steps)
+        fail("hedge.path.moves", "has " + std::to_string(length) + " moves, the lattice has " +
+                                     std::to_string(lat.steps) + " steps");
+    std::vector<int> index(static_cast<std::size_t>(length) + 1, 0);
+    for (int n = 0; n < length; ++n) index[n + 1] = index[n] + moves[n];
+
+    // Per leg and level: the value on the path, its event, and the two children of the path node.
+    struct level_info {
+        double here = 0, down = 0, up = 0;
+        node_event event = node_event::none;
+    };
+    std::vector<std::vector<level_info>> info(t.legs.size(), std::vector<level_info>(lat.steps + 1));
+    for (std::size_t k = 0; k < t.legs.size(); ++k)
+        induce_leg(lat, k, [&](int n, const std::vector<double>& row, const std::vector<char>& ev) {
+            if (n <= length) {
+                info[k][n].here = row[index[n]];
+                info[k][n].event = static_cast<node_event>(ev[index[n]]);
+            }
+            if (n >= 1 && n - 1 <= length) {
+                info[k][n - 1].down = row[index[n - 1]];
+                info[k][n - 1].up = row[index[n - 1] + 1];
+            }
+        });
+
+    std::vector<char> alive(t.legs.size(), 1);
+    std::vector<path_step> out;
+    double carried = 0;
+    for (int n = 0; n <= length; ++n) {
+        path_step ps;
+        tree_node& node = ps.node;
+        node.step = n;
+        node.index = index[n];
+        node.spot = lat.spot(n, index[n]);
+        node.income = n < lat.steps ? lat.income(n, index[n]) : 0.0;
+        bool early = false, expiry = false, any_alive = false;
+        for (std::size_t k = 0; k < t.legs.size(); ++k) {
+            if (!alive[k]) continue;
+            const double q = t.legs[k].quantity;
+            const level_info& li = info[k][n];
+            node.value += q * li.here;
+            if (li.event != node_event::none) {
+                node.paid += q * li.here;
+                early = early || li.event == node_event::early_exercise;
+                expiry = expiry || li.event == node_event::expiry;
+                alive[k] = 0;
+                continue;
+            }
+            any_alive = true;
+            double shares, cash;
+            leg_hedge(lat, k, n, index[n], li.down, li.up, shares, cash);
+            node.shares += q * shares;
+            node.cash += q * cash;
+        }
+        node.event = early ? node_event::early_exercise : (expiry ? node_event::expiry : node_event::none);
+        ps.carried = n == 0 ? node.value : carried;
+        out.push_back(ps);
+        if (!any_alive || n == length) break;
+        const int j_next = index[n + 1];
+        carried = node.shares * (lat.spot(n + 1, j_next) + node.income) + node.cash / lat.step.discount;
+    }
+    return out;
+}
+
+leg_value_table leg_values(const trade_lattice& lat, std::size_t leg) {
+    leg_value_table table;
+    table.value.resize(static_cast<std::size_t>(lat.steps) + 1);
+    table.exercised.resize(static_cast<std::size_t>(lat.steps) + 1);
+    induce_leg(lat, leg, [&](int n, const std::vector<double>& row, const std::vector<char>& ev) {
+        table.value[n].assign(row.begin(), row.begin() + n + 1);
+        table.exercised[n].resize(static_cast<std::size_t>(n) + 1);
+        for (int j = 0; j <= n; ++j)
+            table.exercised[n][j] = static_cast<node_event>(ev[j]) == node_event::early_exercise;
+    });
+    return table;
+}
+
+namespace {
+json node_json(const tree_node& node, double dt) {
+    return json{{"step", node.step},       {"index", node.index},   {"time_years", node.step * dt},
+                {"spot", node.spot},       {"value", node.value},   {"paid", node.paid},
+                {"shares", node.shares},   {"cash", node.cash},     {"event", to_string(node.event)},
+                {"check", node.check()}};
+}
+}  // namespace
+
+json tree_command(const trade& t) {
+    const hedge_settings hs = read_hedge_settings(t);
+    const bool lattice_path = hs.path.kind == path_kind::lattice;
+    int steps = hs.tree.steps;
+    if (steps == 0) steps = lattice_path ? static_cast<int>(hs.path.moves.size()) : default_tree_steps;
+    if (lattice_path && static_cast<int>(hs.path.moves.size()) > steps)
+        fail("hedge.path.moves", "has " + std::to_string(hs.path.moves.size()) + " moves, more than hedge.tree.steps " +
+                                     std::to_string(steps));
+    const trade_lattice lat(t, steps);
+
+    // The window: as asked, or as many whole levels from from_step as the node cap allows.
+    const int from = hs.tree.from_step;
+    if (from > steps) fail("hedge.tree.from_step", "must be <= the tree's steps " + std::to_string(steps) + ", got " + std::to_string(from));
+    const auto nodes_between = [](long a, long b) { return (b + 1) * (b + 2) / 2 - a * (a + 1) / 2; };
+    int to = hs.tree.to_step >= 0 ? hs.tree.to_step : steps;
+    std::vector<std::string> notes = lat.notes;
+    if (to > steps) fail("hedge.tree.to_step", "must be <= the tree's steps " + std::to_string(steps) + ", got " + std::to_string(to));
+    if (to < from) fail("hedge.tree.to_step", "must be >= hedge.tree.from_step " + std::to_string(from) + ", got " + std::to_string(to));
+    if (nodes_between(from, to) > max_tree_nodes) {
+        if (hs.tree.to_step >= 0)
+            fail("hedge.tree.to_step", "steps " + std::to_string(from) + " to " + std::to_string(to) + " hold " +
+                                           std::to_string(nodes_between(from, to)) + " nodes, at most " +
+                                           std::to_string(max_tree_nodes) + " are listed; narrow the window");
+        while (nodes_between(from, to) > max_tree_nodes) --to;
+        notes.push_back("steps " + std::to_string(from) + " to " + std::to_string(to) + " of " + std::to_string(steps) +
+                        " listed (at most " + std::to_string(max_tree_nodes) +
+                        " nodes); set hedge.tree.from_step and to_step for other levels");
+    }
+
+    json nodes = json::array();
+    for (const auto& node : tree_window(lat, from, to)) nodes.push_back(node_json(node, lat.step.dt));
+
+    json path = nullptr;
+    if (lattice_path) {
+        json rows = json::array();
+        for (const auto& ps : walk_path(lat, hs.path.moves)) {
+            json row = node_json(ps.node, lat.step.dt);
+            row["carried"] = ps.carried;
+            row["error"] = ps.carried - ps.node.value;
+            rows.push_back(row);
+        }
+        path = json{{"moves", moves_text(hs.path.moves)}, {"rows", rows}};
+    }
+    const double q = t.signed_quantity();
+    return json{
+        {"steps", steps},
+        {"method", to_string(t.lattice.method)},
+        {"dt_years", lat.step.dt},
+        {"up", lat.step.up},
+        {"down", lat.step.down},
+        {"p_up", lat.step.p_up},
+        {"discount", lat.step.discount},
+        {"from_step", from},
+        {"to_step", to},
+        {"nodes", nodes},
+        {"path", path},
+        {"premium", nodes.empty() || from > 0 ? json(nullptr) : json(nodes[0]["value"])},
+        {"position", {{"quantity", t.quantity}, {"side", t.client_sells ? "sell" : "buy"}, {"signed_quantity", q}}},
+        {"view",
+         "Per unit of the trade held long (legs with their signed quantities). value = the legs still running, "
+         "including what they pay at the node (paid); shares and cash replicate value - paid until the next step; "
+         "check = shares*spot + cash - (value - paid). The desk that sold the client the trade holds signed_quantity "
+         "times these shares and cash."},
+        {"notes", notes},
+    };
+}
+
+}  // namespace hedgeleaf
