@@ -138,6 +138,12 @@ namespace {
 #else
 #define HEDGELEAF_SWEEP_CLONES
 #endif
+// The row loops must be inlined into each clone to get its instruction set.
+#if defined(__GNUC__)
+#define HEDGELEAF_ROW_INLINE [[gnu::always_inline]] inline
+#else
+#define HEDGELEAF_ROW_INLINE inline
+#endif
 
 // Powers of the up/down ratio are clamped here (log scale): nodes that far from
 // spot carry no probability mass, and the clamp keeps every product of a row
@@ -199,14 +205,14 @@ int first_above(const double* r, int count, double factor, double level) {
 // dependency from node to node and the compiler vectorises them; the exercise
 // value is one multiply-add on a precomputed power. In place, left to right:
 // v[i] is overwritten only after v[i] and v[i + 1] are read.
-inline void continue_range(double* __restrict v, int from, int to, double pu, double pd) {
+HEDGELEAF_ROW_INLINE void continue_range(double* __restrict v, int from, int to, double pu, double pd) {
     for (int i = from; i < to; ++i) v[i] = pu * v[i + 1] + pd * v[i];
 }
-inline void put_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
+HEDGELEAF_ROW_INLINE void put_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
                       double level, double factor) {
     for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], level - factor * r[i]);
 }
-inline void call_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
+HEDGELEAF_ROW_INLINE void call_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
                        double level, double factor) {
     for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], factor * r[i] - level);
 }
@@ -214,7 +220,7 @@ inline void call_range(double* __restrict v, const double* __restrict r, int fro
 // One exercise row. A put's exercise value is positive only below strike - pv
 // (and the continuation is never negative), so the max runs only there; a
 // call's only above. Other payoffs take the general per-node path.
-void exercise_row(sweep& w, int n) {
+HEDGELEAF_ROW_INLINE void exercise_row(sweep& w, int n) {
     const int h = row_centre(w, n);
     const double factor = row_factor(w, n, h);
     const double* r = w.powers - h;  // r[i]: power for node i of row n

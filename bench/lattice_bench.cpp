@@ -1,0 +1,194 @@
+// Hedgeleaf benchmark: speed of the backward induction, natively.
+//
+// Prints node updates per second and reference cycles per node of the kernel
+// in core/lattice.cpp and of the usual loop (bench/usual_loop.hpp) at 1,000,
+// 10,000 and 50,000 steps, European and American; the latency of one dependent
+// multiply on this machine (what bounds the usual loop); and the peak resident
+// memory of one 1,000 / 10,000 / 50,000-step price, each in its own process.
+// Usage: lattice_bench            all figures
+//        lattice_bench --rss N    (internal) price once at N steps, print peak RSS in KiB
+#include "bench_common.hpp"
+#include "lattice.hpp"
+#include "usual_loop.hpp"
+
+#include <sys/resource.h>
+#include <unistd.h>
+
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <string>
+#include <vector>
+
+using namespace hedgeleaf;
+using namespace hedgeleaf::bench;
+
+namespace {
+
+market_data bench_market() {
+    market_data m;
+    m.spot = 100;
+    m.volatility = 0.25;
+    m.rate = 0.05;
+    m.carry_yield = 0.01;
+    return m;
+}
+
+option_leg bench_put(exercise_style style) {
+    option_leg leg;
+    leg.type = payoff_kind::put;
+    leg.strike = 100;
+    leg.expiry = 1.0;
+    leg.exercise = style;
+    return leg;
+}
+
+struct timing {
+    double seconds_per_price = 0;  // thread CPU seconds
+    double value = 0;
+};
+
+// Repeat `price` until it has used `budget` CPU seconds (after one warm-up call
+// when a call is shorter than the budget); the mean CPU time per call.
+template <class F>
+timing time_prices(F&& price, double budget) {
+    timing t;
+    double start = cpu_seconds();
+    t.value = price();
+    const double first = cpu_seconds() - start;
+    if (first >= budget) {
+        t.seconds_per_price = first;
+        return t;
+    }
+    int calls = 0;
+    double elapsed = 0;
+    start = cpu_seconds();
+    while (elapsed < budget) {
+        t.value = price();
+        ++calls;
+        elapsed = cpu_seconds() - start;
+    }
+    t.seconds_per_price = elapsed / calls;
+    return t;
+}
+
+// CPU seconds of one multiply that waits for the previous one: the bound on a
+// loop whose nodes are chained by s *= ratio.
+double dependent_multiply_seconds() {
+    volatile double seed = 1.0000001;
+    double s = 1.0;
+    const double r = seed;
+    const long count = 200'000'000;
+    const double start = cpu_seconds();
+    for (long i = 0; i < count; ++i) s *= r;
+    const double elapsed = cpu_seconds() - start;
+    volatile double sink = s;
+    (void)sink;
+    return elapsed / count;
+}
+
+// TSC ticks per second, from the steady clock over a quarter of a second.
+double tsc_rate() {
+    const double s0 = now_seconds();
+    const std::uint64_t c0 = tsc();
+    while (now_seconds() - s0 < 0.25) {}
+    return static_cast<double>(tsc() - c0) / (now_seconds() - s0);
+}
+
+long peak_rss_kib() {
+    rusage usage{};
+    getrusage(RUSAGE_SELF, &usage);
+    return usage.ru_maxrss;
+}
+
+// One American put priced with default method and extrapolation at `steps` (0: no price).
+int rss_child(int steps) {
+    if (steps > 0) {
+        lattice_settings s;
+        s.steps = steps;
+        const lattice_price p = price_lattice_only(bench_market(), bench_put(exercise_style::american), s);
+        if (!std::isfinite(p.premium)) return 1;
+    }
+    std::printf("%ld\n", peak_rss_kib());
+    return 0;
+}
+
+// This program's own path (popen runs a shell, whose /proc/self/exe is the shell).
+std::string self_path() {
+    char buf[4096];
+    const ssize_t n = readlink("/proc/self/exe", buf, sizeof buf - 1);
+    return n > 0 ? std::string(buf, static_cast<std::size_t>(n)) : std::string("lattice_bench");
+}
+
+long rss_of_child(int steps) {
+    const std::string command = "'" + self_path() + "' --rss " + std::to_string(steps);
+    FILE* pipe = popen(command.c_str(), "r");
+    if (!pipe) return -1;
+    long kib = -1;
+    if (std::fscanf(pipe, "%ld", &kib) != 1) kib = -1;
+    pclose(pipe);
+    return kib;
+}
+
+const char* clone_in_use() {
+#if defined(__x86_64__) && defined(__linux__) && defined(__GNUC__) && !defined(__clang__)
+    __builtin_cpu_init();
+    return __builtin_cpu_supports("x86-64-v3") ? "x86-64-v3 (AVX2+FMA)" : "baseline x86-64 (SSE2)";
+#else
+    return "single build";
+#endif
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    if (argc == 3 && std::string(argv[1]) == "--rss") return rss_child(std::atoi(argv[2]));
+
+    const double rate = tsc_rate();
+    std::printf("# Native backward induction (bench/lattice_bench.cpp)\n");
+    std::printf("cpu: %s\n", cpu_name().c_str());
+    std::printf("time-stamp counter: %.3f GHz (reference cycles: the TSC ticks at the nominal rate; "
+                "the core may run faster under turbo)\n", rate / 1e9);
+    std::printf("sweep code path: %s\n", clone_in_use());
+    const double chain = dependent_multiply_seconds() * rate;
+    std::printf("one dependent double multiply (s *= r chain): %.2f reference cycles; it takes 4 core cycles on "
+                "recent Intel and AMD cores (vendor latency tables), so the core clock is about %.2f GHz\n",
+                chain, 4 / chain * rate / 1e9);
+    std::printf("times are CPU time of the benchmark thread; cycles = CPU time x TSC rate\n\n");
+
+    std::printf("%-9s %6s  %-8s %14s %16s %12s %10s\n", "exercise", "steps", "loop", "time/price ms", "node updates/s",
+                "cycles/node", "speed-up");
+    const market_data m = bench_market();
+    std::vector<double> buffer;
+    for (const exercise_style style : {exercise_style::european, exercise_style::american}) {
+        const option_leg leg = bench_put(style);
+        for (const int steps : {1000, 10000, 50000}) {
+            const double nodes = node_updates(steps);
+            const timing usual = time_prices(
+                [&] { return usual_induce(m, leg, lattice_method::crr, steps, buffer); }, 0.3);
+            const timing kernel = time_prices([&] { return induce(m, leg, lattice_method::crr, steps).value; }, 0.3);
+            const double diff = std::fabs(usual.value - kernel.value) / std::fabs(kernel.value);
+            for (const auto& [name, t] : {std::pair{"usual", usual}, std::pair{"kernel", kernel}}) {
+                std::printf("%-9s %6d  %-8s %14.3f %16.3e %12.3f %10.2f\n", to_string(style).c_str(), steps, name,
+                            t.seconds_per_price * 1e3, nodes / t.seconds_per_price, t.seconds_per_price * rate / nodes,
+                            usual.seconds_per_price / t.seconds_per_price);
+            }
+            if (diff > 1e-9) std::printf("  WARNING: values differ by %.2e relative\n", diff);
+        }
+    }
+    std::printf("(CRR lattice, put, spot 100, strike 100, vol 25 %%, rate 5 %%, carry 1 %%, 1 year; "
+                "kernel = hedgeleaf::induce incl. its set-up; speed-up = usual time / this time)\n\n");
+
+    std::printf("# Memory: one American put, default method with extrapolation (fine + coarse lattice), "
+                "peak resident set of a fresh process\n");
+    const long base = rss_of_child(0);
+    std::printf("%8s %14s %16s\n", "steps", "peak RSS KiB", "above empty KiB");
+    std::printf("%8s %14ld %16s\n", "none", base, "-");
+    for (const int steps : {1000, 10000, 25000, 50000}) {
+        const long kib = rss_of_child(steps);
+        std::printf("%8d %14ld %16ld\n", steps, kib, kib - base);
+    }
+    std::printf("(an N x N grid at 50,000 steps would need %.1f GiB; the kernel keeps one row of values, "
+                "a table of 2N+1 powers and N+1 exercise flags)\n", node_updates(50000) * 8 / (1 << 30));
+    return 0;
+}
