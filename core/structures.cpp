@@ -78,7 +78,7 @@ std::vector<option_leg> expand_structure(const json& node, const time_reader& ti
     json common = json::object();
     for (const char* key : {"expiry_years", "expiry_date", "exercise"})
         if (r.has(key)) common[key] = r.raw(key);
-    if (common.value("exercise", "") == "bermudan")
+    if (common.contains("exercise") && common["exercise"] == "bermudan")  // any type: read_option_leg names a non-string
         fail(r.child("exercise"), "structures are european or american; give bermudan options as legs");
     common["type"] = "call";
     common["strike"] = strikes.front();
