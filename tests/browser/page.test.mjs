@@ -1,0 +1,156 @@
+// Browser tests of the built page, dist/hedgeleaf.html, opened from file:// in
+// Debian's Chromium through playwright-core, with the network switched off.
+// Few and real: opens offline, the example's premium equals the CLI's, a bad
+// volatility shows the engine's message, no request leaves the page, export ->
+// import round trip, the print view carries the cautions, a clean console.
+import assert from 'node:assert/strict';
+import { execFileSync } from 'node:child_process';
+import { existsSync, readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
+import { after, before, test } from 'node:test';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
+const pagePath = join(root, 'dist/hedgeleaf.html');
+const pageUrl = pathToFileURL(pagePath).href;
+const require = createRequire(join(root, 'web/package.json'));
+const { chromium } = require('playwright-core');
+const cli = process.env.HEDGELEAF_CLI ?? join(root, 'build/native/hedgeleaf');
+const exampleText = readFileSync(join(root, 'examples/american-put.json'), 'utf8');
+const linkTo = (text) => `${pageUrl}#trade=${Buffer.from(text).toString('base64url')}`;
+
+let browser;
+let context;
+const problems = [];  // console errors and requests that are not the page itself
+const requests = [];
+
+before(async () => {
+  assert.ok(existsSync(pagePath), 'build the page first: node web/build.mjs');
+  browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
+      '--disable-sync', '--no-first-run'],
+  });
+  context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
+  await context.setOffline(true);
+  context.on('request', (request) => {
+    const url = request.url();
+    requests.push(url);
+    // the page file itself, and the in-memory Blob the engine worker starts from
+    if (url.split('#')[0] !== pageUrl && !url.startsWith('blob:')) problems.push(`request: ${url}`);
+  });
+});
+
+after(async () => {
+  await browser?.close();
+});
+
+async function open(url = linkTo(exampleText)) {
+  const page = await context.newPage();
+  page.on('console', (message) => {
+    if (message.type() === 'error' || message.type() === 'warning') problems.push(`console ${message.type()}: ${message.text()}`);
+  });
+  page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
+  await page.goto(url);
+  await premiumShown(page);
+  return page;
+}
+
+/**
+ * Poll `fn` in the page until it returns something truthy. (page.waitForFunction
+ * compiles its predicate with eval, which the page's CSP rightly refuses.)
+ */
+async function until(page, fn, arg, timeout = 20000) {
+  const end = Date.now() + timeout;
+  for (;;) {
+    const value = await page.evaluate(fn, arg);
+    if (value) return value;
+    if (Date.now() > end) throw new Error(`timed out waiting for ${fn}`);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+}
+
+async function premiumShown(page) {
+  return Number(await until(page, () => document.querySelector('[data-result="premium"]')?.dataset.value));
+}
+
+/** The premium the CLI prints for the example (the module, if no native build is around). */
+async function cliPremium(text) {
+  if (existsSync(cli)) return JSON.parse(execFileSync(cli, ['price', '-'], { input: text, encoding: 'utf8' })).premium;
+  const { loadEngine } = await import('../../web/src/engine.js');
+  const engine = await loadEngine(createRequire(import.meta.url)(join(root, 'build/wasm/hedgeleaf.js')));
+  return engine.run('price', text).premium;
+}
+
+test('opens from file:// offline and prices the example as the CLI does', async () => {
+  const page = await open();
+  const premium = await premiumShown(page);
+  const expected = await cliPremium(exampleText);
+  assert.ok(Math.abs(premium - expected) <= 1e-9 * expected, `page ${premium}, CLI ${expected}`);  // same tolerance as the module tests
+  assert.equal(await page.textContent('[data-result="premium"]'), premium.toFixed(4));
+  assert.match(await page.textContent('[data-result="premium-total"]'), /^\d{1,3}(,\d{3})+\.\d\d$/);
+  for (const name of ['delta', 'gamma', 'theta', 'vega', 'rho', 'closed-form-premium', 'error-estimate', 'premium-total']) {
+    assert.ok(await page.getAttribute(`[data-result="${name}"]`, 'data-value'), `${name} has no value`);
+  }
+  await page.close();
+});
+
+test('a bad volatility shows the engine message beside the field; the last result stays, greyed', async () => {
+  const page = await open();
+  const before = await page.textContent('[data-result="premium"]');
+  await page.fill('[data-path="market.volatility"]', '-20');
+  const error = page.locator('[data-error="market.volatility"]');
+  await error.filter({ hasText: 'must be' }).waitFor({ timeout: 10000 });
+  assert.equal(await error.textContent(), 'market.volatility: must be > 0, got -0.2');
+  assert.equal(await page.getAttribute('[data-path="market.volatility"]', 'aria-invalid'), 'true');
+  assert.equal(await page.textContent('[data-result="premium"]'), before);
+  assert.match(await page.getAttribute('.headline', 'class'), /stale/);
+  await page.fill('[data-path="market.volatility"]', '31');
+  await until(page, () => !document.querySelector('.headline').classList.contains('stale'));
+  assert.equal(await error.textContent(), '');
+  await page.close();
+});
+
+test('export then import gives back the same trade; a bad file is refused', async () => {
+  const page = await open();
+  const premium = await premiumShown(page);
+  const [download] = await Promise.all([page.waitForEvent('download'), page.click('#action-export')]);
+  const saved = readFileSync(await download.path(), 'utf8');
+  assert.deepEqual(JSON.parse(saved), JSON.parse(exampleText));
+
+  await page.fill('[data-path="option.strike"]', '50');
+  await until(page, (p) => Number(document.querySelector('[data-result="premium"]').dataset.value) !== p, premium);
+  await page.setInputFiles('#import-file', { name: 'bad.json', mimeType: 'application/json', buffer: Buffer.from('{"market": {"spot": -1}}') });
+  await page.locator('#notice').filter({ hasText: 'was not opened' }).waitFor();
+  assert.match(await page.textContent('#notice'), /market\.spot: must be > 0, got -1/);
+  assert.equal(await page.inputValue('[data-path="option.strike"]'), '50');
+
+  await page.setInputFiles('#import-file', { name: 'back.json', mimeType: 'application/json', buffer: Buffer.from(saved) });
+  await until(page, (p) => Number(document.querySelector('[data-result="premium"]').dataset.value) === p, premium);
+  assert.equal(await page.inputValue('[data-path="option.strike"]'), '46');
+  await page.close();
+});
+
+test('the print view is the quote sheet, with the cautions', async () => {
+  const page = await open();
+  await page.emulateMedia({ media: 'print' });
+  const sheet = page.locator('#quote-sheet');
+  assert.ok(await sheet.isVisible());
+  assert.ok(!(await page.locator('#terms').isVisible()));
+  const text = await sheet.innerText();
+  for (const phrase of ['Indicative only', 'not an offer', 'not investment advice', 'constant volatility', 'without frictions',
+    'sales rules', 'Input fingerprint', 'Valued at', 'Engine']) {
+    assert.ok(text.includes(phrase), `the sheet lacks "${phrase}"`);
+  }
+  assert.match(text, /Premium per unit\s+3\.\d{4}/);
+  assert.match(text, /Input fingerprint\s+[0-9a-f]{12}/);
+  const pdf = await page.pdf({ format: 'A4' });
+  assert.ok(pdf.length > 10000);
+  await page.close();
+});
+
+test('nothing but the page was requested and the console stayed clean', () => {
+  assert.ok(requests.some((url) => url.startsWith(pageUrl)));
+  assert.deepEqual(problems, []);
+});

@@ -1,0 +1,35 @@
+// Hedgeleaf module: the Embind glue between JavaScript and core/engine.hpp.
+//
+// JSON text in, JSON text out (the envelope documented in hedgeleaf.d.ts), so the
+// page owns plain strings and never has a C++ handle to .delete(). Every C++
+// exception is caught inside run_command_text; nothing throws across this line.
+#include "engine.hpp"
+
+#include <emscripten/bind.h>
+
+#include <string>
+
+namespace {
+
+/// Run one engine command on a trade document; returns the envelope text.
+std::string run(const std::string& command, const std::string& trade_json) {
+    return hedgeleaf::run_command_text(command, trade_json);
+}
+
+/// Engine version printed on quote sheets.
+std::string version() { return hedgeleaf::engine_version(); }
+
+/// The command names the engine accepts, comma separated (the page enables features by them).
+std::string commands() {
+    std::string list;
+    for (const auto& name : hedgeleaf::command_names()) list += (list.empty() ? "" : ",") + name;
+    return list;
+}
+
+}  // namespace
+
+EMSCRIPTEN_BINDINGS(hedgeleaf) {
+    emscripten::function("run", &run);
+    emscripten::function("version", &version);
+    emscripten::function("commands", &commands);
+}

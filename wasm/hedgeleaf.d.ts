@@ -1,0 +1,112 @@
+// Hedgeleaf module: the JavaScript-facing contract of build/wasm/hedgeleaf.js.
+//
+// One file (the wasm is inlined, -sSINGLE_FILE=1) loaded unchanged by the page,
+// its Web Workers and the Node tests. It needs no eval (CSP: 'wasm-unsafe-eval'
+// is enough) and no file system or network.
+//
+// Usage (web/src/engine.js wraps this behind one memoised promise):
+//   const module = await createHedgeleaf({ onAbort });
+//   const envelope = JSON.parse(module.run("price", tradeJsonText));
+//   if (envelope.ok) use(envelope.result); else show(envelope.error.field, envelope.error.message);
+
+/** Creates the runtime; resolves once the wasm is compiled and ready. */
+export default function createHedgeleaf(options?: {
+  /** Called if the runtime aborts (a bug, or memory exhausted); the module is dead afterwards. */
+  onAbort?: (what: unknown) => void;
+  print?: (text: string) => void;
+  printErr?: (text: string) => void;
+}): Promise<HedgeleafModule>;
+
+export interface HedgeleafModule {
+  /**
+   * Run one engine command on a trade document (the JSON text the CLI reads).
+   * Never throws for bad input: every C++ exception is caught in
+   * core/engine.cpp's run_command_text and returned as an Envelope text.
+   * Documents over 1 MiB are refused with a message.
+   */
+  run(command: CommandName, tradeJson: string): string;
+  /** Engine version, e.g. "0.1.0" (also in every result as engine_version). */
+  version(): string;
+  /** The commands this build accepts, comma separated, e.g. "hedge,price,tree". */
+  commands(): string;
+}
+
+/** Commands of core/engine.cpp; commands() says which this build has. */
+export type CommandName = "price" | "hedge" | "tree" | "simulate" | "solve" | "ladder" | "profile";
+
+/** What run() returns, as JSON text. */
+export type Envelope<R = PriceResult> =
+  | { ok: true; result: R }
+  | { ok: false; error: EngineError };
+
+/**
+ * A refused input. `field` is the JSON path of the offending value in the trade
+ * document ("market.volatility", "legs[1].strike", "" for the whole document);
+ * `message` always starts with that path: "market.volatility: must be > 0, got -0.2".
+ * The CLI prints the same message on stderr and exits 2.
+ */
+export interface EngineError {
+  field: string;
+  message: string;
+}
+
+// ---------------------------------------------------------------------------
+// Units everywhere: spot, strike, premium in price units per share; volatility,
+// rates and yields as decimals a year (0.25 = 25 %), continuously compounded;
+// times in years ACT/365F from valuation_date. Greeks per unit: delta dV/dS,
+// gamma d2V/dS2, theta dV/dt per YEAR of calendar time (divide by 365 for a
+// day), vega per 1.00 of volatility, rho per 1.00 of rate (divide by 100 for a
+// point). Quantities: + = client buys.
+
+/** Trade document (the file the CLI reads); the full format is in the README. */
+export interface TradeDocument {
+  valuation_date?: string;               // YYYY-MM-DD; lets other fields be dates
+  market: {
+    spot: number;                        // > 0
+    volatility: number;                  // decimal, > 0, <= 5
+    rate: number;                        // decimal, -1..1
+    carry_yield?: number;                // decimal, -1..1, default 0
+    dividends?: { date?: string; time_years?: number; amount: number }[];
+  };
+  option?: OptionTerms;                  // exactly one of option, legs, structure
+  legs?: (OptionTerms & { quantity: number })[] | { type: "stock"; quantity: number }[];
+  structure?: {
+    shape: "call-spread" | "put-spread" | "collar" | "risk-reversal" | "straddle" | "strangle" | "seagull" | "covered-call";
+    strikes: number[];                   // ascending
+    expiry_years?: number; expiry_date?: string;
+    exercise?: "european" | "american";
+  };
+  quantity?: number;                     // > 0, default 1
+  side?: "buy" | "sell";                 // the client's side, default buy
+  lattice?: { method?: "leisen-reimer" | "crr" | "jarrow-rudd" | "tian"; steps?: number; extrapolate?: boolean };
+  // Sections read by their own commands (see the README): quote, hedge, simulate, solve, ladder, profile.
+  [section: string]: unknown;
+}
+
+export interface OptionTerms {
+  type: "call" | "put" | "digital-call" | "digital-put";
+  strike: number;
+  expiry_years?: number; expiry_date?: string;   // exactly one
+  exercise?: "european" | "american" | "bermudan";
+  exercise_dates?: string[]; exercise_years?: number[];  // bermudan only
+  payout?: number;                                // digitals only, default 1
+}
+
+export interface Greeks { delta: number; gamma: number; theta: number; vega: number; rho: number }
+
+/** Result of "price". */
+export interface PriceResult {
+  premium: number;                       // per unit, net of legs, lattice value
+  greeks: Greeks;                        // per unit
+  closed_form: { premium: number; greeks: Greeks };  // European closed-form reference
+  early_exercise_premium: number | null; // premium - closed_form.premium; null when all legs are European
+  lattice: { method: string; steps: number; coarse_steps: number; extrapolated: boolean; error_estimate: number };
+  replication: { spot: number; shares: number; cash: number; value: number };  // per unit: shares*spot + cash = value
+  position: { quantity: number; side: "buy" | "sell"; premium: number; greeks: Greeks };  // signed by side
+  legs: { type: string; quantity: number; premium: number; greeks: Greeks; closed_form_premium: number;
+          error_estimate: number; strike?: number; expiry_years?: number; exercise?: string }[];
+  spot: number;
+  expiry_years: number;
+  engine_version: string;
+  [more: string]: unknown;               // e.g. client_price when the trade has a quote section
+}

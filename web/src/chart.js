@@ -1,0 +1,102 @@
+// Hedgeleaf page: small line charts drawn as SVG (no library).
+//
+// Colours come from classes in style.css (CSP allows no inline styles); text
+// is set with textContent only.
+import { formatNumber } from './format.js';
+
+const svgNs = 'http://www.w3.org/2000/svg';
+
+function el(name, attrs = {}, text) {
+  const node = document.createElementNS(svgNs, name);
+  for (const [key, value] of Object.entries(attrs)) node.setAttribute(key, String(value));
+  if (text !== undefined) node.textContent = text;
+  return node;
+}
+
+/** About `count` round tick values covering [lo, hi]. */
+export function ticks(lo, hi, count = 5) {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / count;
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * power).find((s) => s >= raw) ?? raw;
+  const out = [];
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(12)));
+  return out;
+}
+
+function digitsFor(values) {
+  const span = Math.max(...values) - Math.min(...values);
+  return span >= 50 ? 0 : span >= 5 ? 1 : span >= 0.5 ? 2 : 3;
+}
+
+/**
+ * Draw a chart into `host`.
+ * series: [{points: [[x, y], ...], kind: "value"|"payoff"|"portfolio"|..., label, dots?}]
+ * marks:  [{x, label, kind}] vertical markers (e.g. break-even, spot)
+ */
+export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', height = 280 }) {
+  const width = 640;
+  const pad = { left: 64, right: 16, top: 14, bottom: 44 };
+  const xs = series.flatMap((s) => s.points.map((p) => p[0])).concat(marks.map((m) => m.x));
+  const ys = series.flatMap((s) => s.points.map((p) => p[1]));
+  const svg = el('svg', { viewBox: `0 0 ${width} ${height}`, class: 'chart-svg', focusable: 'false', 'aria-hidden': 'true' });
+  host.replaceChildren(svg);
+  if (xs.length === 0 || ys.length === 0) return;
+  let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
+  let [y0, y1] = [Math.min(...ys, 0), Math.max(...ys, 0)];
+  if (x1 === x0) [x0, x1] = [x0 - 1, x1 + 1];
+  if (y1 === y0) [y0, y1] = [y0 - 1, y1 + 1];
+  const margin = (y1 - y0) * 0.06;
+  y0 -= margin;
+  y1 += margin;
+  const sx = (x) => pad.left + ((x - x0) / (x1 - x0)) * (width - pad.left - pad.right);
+  const sy = (y) => height - pad.bottom - ((y - y0) / (y1 - y0)) * (height - pad.top - pad.bottom);
+
+  const grid = el('g', { class: 'chart-grid' });
+  const yTicks = ticks(y0, y1, 5);
+  const yDigits = digitsFor(yTicks.length > 1 ? yTicks : [y0, y1]);
+  for (const t of yTicks) {
+    grid.append(el('line', { x1: pad.left, x2: width - pad.right, y1: sy(t), y2: sy(t), class: t === 0 ? 'zero' : '' }));
+    grid.append(el('text', { x: pad.left - 6, y: sy(t) + 4, 'text-anchor': 'end' }, formatNumber(t, yDigits)));
+  }
+  const xTicks = ticks(x0, x1, 6);
+  const xDigits = digitsFor(xTicks.length > 1 ? xTicks : [x0, x1]);
+  for (const t of xTicks) {
+    grid.append(el('line', { x1: sx(t), x2: sx(t), y1: pad.top, y2: height - pad.bottom, class: 'vertical' }));
+    grid.append(el('text', { x: sx(t), y: height - pad.bottom + 16, 'text-anchor': 'middle' }, formatNumber(t, xDigits)));
+  }
+  grid.append(el('text', { x: (pad.left + width - pad.right) / 2, y: height - 6, 'text-anchor': 'middle', class: 'axis-label' }, xLabel));
+  grid.append(el('text', { x: 12, y: (pad.top + height - pad.bottom) / 2, 'text-anchor': 'middle', class: 'axis-label',
+    transform: `rotate(-90 12 ${(pad.top + height - pad.bottom) / 2})` }, yLabel));
+  svg.append(grid);
+
+  for (const mark of marks) {
+    const g = el('g', { class: `chart-mark ${mark.kind || ''}` });
+    g.append(el('line', { x1: sx(mark.x), x2: sx(mark.x), y1: pad.top, y2: height - pad.bottom }));
+    g.append(el('text', { x: sx(mark.x) + 4, y: pad.top + 10 + (mark.row || 0) * 13 }, mark.label));
+    svg.append(g);
+  }
+  for (const s of series) {
+    if (s.points.length === 0) continue;
+    const d = s.points.map((p, i) => `${i ? 'L' : 'M'}${sx(p[0]).toFixed(1)},${sy(p[1]).toFixed(1)}`).join('');
+    const g = el('g', { class: `chart-series ${s.kind}` });
+    g.append(el('path', { d }));
+    if (s.dots) for (const p of s.points) g.append(el('circle', { cx: sx(p[0]), cy: sy(p[1]), r: 3 }));
+    svg.append(g);
+  }
+  const legend = document.createElement('p');
+  legend.className = 'chart-legend';
+  for (const s of series.filter((x) => x.label)) {
+    const item = document.createElement('span');
+    item.className = `legend-item ${s.kind}`;
+    item.textContent = s.label;
+    legend.append(item);
+  }
+  for (const mark of marks.filter((m) => m.legend)) {
+    const item = document.createElement('span');
+    item.className = `legend-item mark ${mark.kind}`;
+    item.textContent = mark.legend;
+    legend.append(item);
+  }
+  host.append(legend);
+}

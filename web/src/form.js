@@ -1,0 +1,244 @@
+// Hedgeleaf page: the trade-terms form, bound field by field to the document.
+//
+// The trade document is the page's one source of truth. Every input names the
+// path it writes (data-path) and how to read it (data-kind); typing writes that
+// one value into the document, so parts of a file the form does not show
+// (hedge, simulate and solve sections, extra legs) pass through untouched.
+// Unreadable text goes to the engine as typed, and the engine names the field.
+import { addYears, isIsoDate, yearsBetween } from './dates.js';
+import { inputText, parseNumber, parsePercent, parseTenor, percentText } from './format.js';
+import { getPath, setPath } from './paths.js';
+
+/** Shapes with their strike count and a plain description. */
+export const shapes = {
+  'call-spread': [2, 'Buy a call at the lower strike, sell one at the higher.'],
+  'put-spread': [2, 'Buy a put at the higher strike, sell one at the lower.'],
+  collar: [2, 'Buy a put at the lower strike, sell a call at the higher (on shares held).'],
+  'risk-reversal': [2, 'Buy a call at the higher strike, sell a put at the lower.'],
+  straddle: [1, 'Buy a call and a put at the same strike.'],
+  strangle: [2, 'Buy a put at the lower strike and a call at the higher.'],
+  seagull: [3, 'Sell a put at the lowest strike, buy a call at the middle, sell a call at the highest.'],
+  'covered-call': [1, 'Hold the share, sell a call.'],
+};
+
+/** Which key holds the contract: "option", "structure" or "legs". */
+export function contractKey(doc) {
+  if (doc.legs !== undefined) return 'legs';
+  if (doc.structure !== undefined) return 'structure';
+  return 'option';
+}
+
+/** Read an input's value as the document stores it (undefined = remove the field). */
+export function readInput(input) {
+  const kind = input.dataset.kind;
+  if (kind === 'bool') {
+    const fallback = input.dataset.default === 'true';
+    return input.checked === fallback ? undefined : input.checked;
+  }
+  if (kind === 'radio') return input.checked ? input.value : undefined;
+  const text = input.value;
+  if (kind === 'text') return text.trim() === '' ? undefined : text;
+  if (kind === 'choice') return text === '' ? undefined : text;
+  if (kind === 'date') return text === '' ? undefined : text;
+  const value = kind === 'percent' ? parsePercent(text) : kind === 'tenor' ? parseTenor(text) : parseNumber(text);
+  return value === null ? undefined : value;
+}
+
+/** Show a document value in an input. */
+export function showInput(input, value) {
+  const kind = input.dataset.kind;
+  if (kind === 'bool') input.checked = value === undefined ? input.dataset.default === 'true' : value === true;
+  else if (kind === 'radio') input.checked = value === input.value;
+  else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
+  else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
+  else if (kind === 'tenor') input.value = value === undefined ? '' : String(value);
+  else if (kind === 'choice') input.value = value === undefined ? (input.querySelector('option[value=""]') ? '' : input.options[0].value) : value;
+  else input.value = value ?? '';
+}
+
+/** "2027-03-15" or "0.25" -> {key, value} for a field that takes a date or years. */
+export function readWhen(text, dateKey, yearsKey) {
+  const trimmed = text.trim();
+  if (trimmed === '') return { key: dateKey, value: undefined };
+  if (isIsoDate(trimmed)) return { key: dateKey, value: trimmed };
+  const number = parseTenor(trimmed);
+  return typeof number === 'number' ? { key: yearsKey, value: number } : { key: dateKey, value: trimmed };
+}
+
+/** "2027-01-15, 2027-03-15" or "0.25 0.5" -> {key, value} for Bermudan exercise dates. */
+export function readDateList(text) {
+  const items = text.split(/[\s,;]+/).filter(Boolean);
+  if (items.length === 0) return { key: 'exercise_dates', value: undefined };
+  if (items.every(isIsoDate)) return { key: 'exercise_dates', value: items };
+  const numbers = items.map(parseNumber);
+  if (numbers.every((n) => typeof n === 'number')) return { key: 'exercise_years', value: numbers };
+  return { key: 'exercise_dates', value: items };
+}
+
+/** Where the shared expiry and exercise fields live: "option" or "structure" (null for legs). */
+function sharedBase(doc) {
+  const key = contractKey(doc);
+  return key === 'legs' ? null : key;
+}
+
+/** Write one bound input into the document. Returns the path written (for its error span). */
+export function writeInput(doc, input) {
+  const role = input.dataset.role;
+  if (!role) {
+    setPath(doc, input.dataset.path, readInput(input));
+    return input.dataset.path;
+  }
+  const base = input.dataset.base ?? sharedBase(doc);
+  if (!base) return '';
+  if (role === 'expiry-date' || role === 'expiry-tenor') {
+    const dateMode = role === 'expiry-date';
+    setPath(doc, `${base}.${dateMode ? 'expiry_years' : 'expiry_date'}`, undefined);
+    setPath(doc, `${base}.${dateMode ? 'expiry_date' : 'expiry_years'}`, readInput(input));
+    return `${base}.${dateMode ? 'expiry_date' : 'expiry_years'}`;
+  }
+  if (role === 'exercise') {
+    const value = readInput(input);
+    setPath(doc, `${base}.exercise`, value === 'european' ? undefined : value);
+    if (value !== 'bermudan') {
+      setPath(doc, `${base}.exercise_dates`, undefined);
+      setPath(doc, `${base}.exercise_years`, undefined);
+    }
+    return `${base}.exercise`;
+  }
+  if (role === 'exercise-dates') {
+    const { key, value } = readDateList(input.value);
+    setPath(doc, `${base}.exercise_dates`, undefined);
+    setPath(doc, `${base}.exercise_years`, undefined);
+    setPath(doc, `${base}.${key}`, value);
+    return `${base}.${key}`;
+  }
+  if (role === 'when') {
+    const [dateKey, yearsKey] = input.dataset.keys.split(',');
+    const { key, value } = readWhen(input.value, dateKey, yearsKey);
+    setPath(doc, `${base}.${dateKey}`, undefined);
+    setPath(doc, `${base}.${yearsKey}`, undefined);
+    setPath(doc, `${base}.${key}`, value);
+    return `${base}.${key}`;
+  }
+  return '';
+}
+
+/** The path an input's error span listens to, given the document as it stands. */
+export function errorPathOf(doc, input) {
+  const role = input.dataset.role;
+  if (!role) return input.dataset.path;
+  const base = input.dataset.base ?? sharedBase(doc);
+  if (!base) return '';
+  if (role === 'expiry-date') return `${base}.expiry_date`;
+  if (role === 'expiry-tenor') return `${base}.expiry_years`;
+  if (role === 'exercise') return `${base}.exercise`;
+  if (role === 'exercise-dates') return `${base}.${getPath(doc, `${base}.exercise_years`) !== undefined ? 'exercise_years' : 'exercise_dates'}`;
+  if (role === 'when') {
+    const [dateKey, yearsKey] = input.dataset.keys.split(',');
+    return `${base}.${getPath(doc, `${base}.${yearsKey}`) !== undefined ? yearsKey : dateKey}`;
+  }
+  return '';
+}
+
+/** Show the document's value in one input. */
+export function fillInput(doc, input) {
+  const role = input.dataset.role;
+  if (!role) {
+    showInput(input, getPath(doc, input.dataset.path));
+    return;
+  }
+  const base = input.dataset.base ?? sharedBase(doc);
+  if (!base) return;
+  if (role === 'expiry-date') input.value = getPath(doc, `${base}.expiry_date`) ?? '';
+  else if (role === 'expiry-tenor') input.value = getPath(doc, `${base}.expiry_years`) ?? '';
+  else if (role === 'exercise') input.value = getPath(doc, `${base}.exercise`) ?? 'european';
+  else if (role === 'exercise-dates') {
+    const list = getPath(doc, `${base}.exercise_dates`) ?? getPath(doc, `${base}.exercise_years`) ?? [];
+    input.value = Array.isArray(list) ? list.join(', ') : String(list);
+  } else if (role === 'when') {
+    const [dateKey, yearsKey] = input.dataset.keys.split(',');
+    input.value = getPath(doc, `${base}.${dateKey}`) ?? getPath(doc, `${base}.${yearsKey}`) ?? '';
+  }
+}
+
+/** The expiry of the contract as a date or years, whichever the document uses. */
+export function contractExpiry(doc) {
+  const key = contractKey(doc);
+  const holder = key === 'legs' ? (doc.legs || []).find((leg) => leg && leg.type !== 'stock') : doc[key];
+  if (!holder) return {};
+  return holder.expiry_date !== undefined ? { expiry_date: holder.expiry_date } : { expiry_years: holder.expiry_years };
+}
+
+/** Switch the expiry between a date and a tenor, converting the value when it can. */
+export function switchExpiryMode(doc, mode) {
+  const base = sharedBase(doc);
+  if (!base || !doc[base]) return;
+  const holder = doc[base];
+  if (mode === 'tenor' && holder.expiry_date !== undefined) {
+    const years = yearsBetween(doc.valuation_date, holder.expiry_date);
+    delete holder.expiry_date;
+    if (years !== null) holder.expiry_years = Number(years.toFixed(4));
+  } else if (mode === 'date' && holder.expiry_years !== undefined) {
+    const day = addYears(doc.valuation_date, holder.expiry_years);
+    delete holder.expiry_years;
+    if (day) holder.expiry_date = day;
+  }
+}
+
+/** Round a strike suggestion to a tidy number near `x`. */
+function tidy(x) {
+  if (!(x > 0)) return 100;
+  const step = 10 ** Math.floor(Math.log10(x)) / 10;
+  return Number((Math.round(x / step) * step).toPrecision(6));
+}
+
+/**
+ * Change the contract to `shape` ("option", "legs" or a structure shape), keeping
+ * expiry, exercise and strikes where they carry over. `lastLegs` are the result
+ * legs of the last good price (for turning a structure into editable legs).
+ */
+export function changeShape(doc, shape, lastLegs) {
+  const from = contractKey(doc);
+  const current = from === 'legs' ? null : doc[from];
+  const expiry = contractExpiry(doc);
+  const spot = typeof doc.market?.spot === 'number' ? doc.market.spot : 100;
+  const strikes = from === 'structure' ? [...(current.strikes || [])]
+    : from === 'option' ? [current?.strike] : (doc.legs || []).filter((l) => l.strike !== undefined).map((l) => l.strike);
+  let exercise = from === 'legs' ? (doc.legs || []).find((l) => l.exercise)?.exercise : current?.exercise;
+  let next;
+  if (shape === 'option') {
+    const type = from === 'option' ? current.type : (doc.legs || []).find((l) => l.type && l.type !== 'stock')?.type ?? 'call';
+    next = { type, strike: strikes.find((k) => typeof k === 'number') ?? tidy(spot), ...expiry };
+    if (exercise && exercise !== 'european') next.exercise = exercise;
+    if (from === 'option') next = { ...current };
+  } else if (shape === 'legs') {
+    let legs;
+    if (from === 'option') legs = [{ ...current, quantity: 1 }];
+    else if (Array.isArray(lastLegs) && lastLegs.length) {
+      legs = lastLegs.map((l) => (l.type === 'stock' ? { type: 'stock', quantity: l.quantity }
+        : { type: l.type, strike: l.strike, ...expiry, ...(l.exercise !== 'european' ? { exercise: l.exercise } : {}), quantity: l.quantity }));
+    } else legs = [{ type: 'call', strike: tidy(spot), ...expiry, quantity: 1 }];
+    next = legs;
+  } else {
+    const count = shapes[shape][0];
+    let list = strikes.filter((k) => typeof k === 'number').sort((a, b) => a - b);
+    if (list.length !== count) {
+      const centre = list.length ? list[Math.floor(list.length / 2)] : spot;
+      list = count === 1 ? [tidy(centre)] : count === 2 ? [tidy(centre * 0.95), tidy(centre * 1.05)] : [tidy(centre * 0.9), tidy(centre), tidy(centre * 1.1)];
+    }
+    if (exercise === 'bermudan') exercise = 'american';
+    next = { shape, strikes: list, ...expiry };
+    if (exercise && exercise !== 'european') next.exercise = exercise;
+  }
+  // rebuild so the contract key keeps its place after market in the file
+  const target = shape === 'option' || shape === 'legs' ? shape : 'structure';
+  const rebuilt = {};
+  for (const [key, value] of Object.entries(doc)) {
+    if (key === 'option' || key === 'structure' || key === 'legs') {
+      if (!(target in rebuilt)) rebuilt[target] = next;
+    } else rebuilt[key] = value;
+  }
+  if (!(target in rebuilt)) rebuilt[target] = next;
+  for (const key of Object.keys(doc)) delete doc[key];
+  Object.assign(doc, rebuilt);
+}
