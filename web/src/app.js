@@ -23,6 +23,7 @@ import { simulatePanel } from './simulate.js';
 
 const $ = (id) => document.getElementById(id);
 const form = $('terms');
+const scope = document.querySelector('main');  // the terms form and the hedge and simulation cards
 
 /** Everything the page knows; the trade document is the source of truth. */
 const state = {
@@ -98,7 +99,7 @@ function attachError(input) {
 }
 
 function syncErrorPaths() {
-  for (const input of form.querySelectorAll('[data-path], [data-role]')) {
+  for (const input of scope.querySelectorAll('[data-path], [data-role]')) {
     attachError(input);
     if (input.errorNode) input.errorNode.dataset.error = errorPathOf(state.doc, input);
   }
@@ -108,6 +109,8 @@ function fillForm() {
   renderContract();
   renderDividends();
   for (const input of form.querySelectorAll('[data-path], [data-role]')) fillInput(state.doc, input);
+  hedge.render();
+  simulate.render();
   const mode = contractExpiry(state.doc).expiry_years !== undefined ? 'tenor' : 'date';
   for (const radio of form.querySelectorAll('input[name="expiry-mode"]')) radio.checked = radio.value === mode;
   updateVisibility();
@@ -479,8 +482,13 @@ function initialTrade() {
   return { doc: JSON.parse($('example-trade').textContent) };
 }
 
-const hedge = hedgePanel({ live, state, showError, clearErrors, setStale, changed, notice });
-const simulate = simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed });
+/** Error lines for inputs a card has just drawn. */
+function bindControls() {
+  syncErrorPaths();
+}
+
+const hedge = hedgePanel({ live, state, showError, setStale, changed, bindControls });
+const simulate = simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed, bindControls });
 
 function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`;
@@ -489,14 +497,14 @@ function start() {
   const first = initialTrade();
   state.doc = first.doc;
   if (first.message) notice(first.message);
-  fillForm();
   hedge.setup();
   simulate.setup();
-  form.addEventListener('input', onInput);
-  form.addEventListener('change', (event) => {
+  fillForm();
+  scope.addEventListener('input', onInput);
+  scope.addEventListener('change', (event) => {
     if (event.target.tagName === 'SELECT' || event.target.type === 'checkbox' || event.target.type === 'radio' || event.target.type === 'date') onInput(event);
   });
-  form.addEventListener('focusout', onBlur);
+  scope.addEventListener('focusout', onBlur);
   form.addEventListener('submit', (event) => event.preventDefault());
   $('shape').addEventListener('change', (event) => {
     changeShape(state.doc, event.target.value, state.price?.legs);

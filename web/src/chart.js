@@ -73,7 +73,8 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
   for (const mark of marks) {
     const g = el('g', { class: `chart-mark ${mark.kind || ''}` });
     g.append(el('line', { x1: sx(mark.x), x2: sx(mark.x), y1: pad.top, y2: height - pad.bottom }));
-    g.append(el('text', { x: sx(mark.x) + 4, y: pad.top + 10 + (mark.row || 0) * 13 }, mark.label));
+    const labelY = mark.kind === 'spot' ? height - pad.bottom - 5 : pad.top + 10 + (mark.row || 0) * 13;
+    g.append(el('text', { x: sx(mark.x) + 4, y: labelY }, mark.label));
     svg.append(g);
   }
   for (const s of series) {

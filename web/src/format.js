@@ -28,6 +28,7 @@ export function smartDigits(value, significant = 4, min = 2) {
 
 /** Format keeping significant figures for small numbers (gamma, error estimates). */
 export function formatSmart(value, significant = 4, min = 2) {
+  if (Number.isFinite(value) && Math.abs(value) < 5e-9) return formatNumber(0, min);  // rounding noise, not a figure
   return formatNumber(value, smartDigits(value, significant, min));
 }
 
