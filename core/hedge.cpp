@@ -65,7 +65,9 @@ std::vector<double> read_times(const json& list, const std::string& path, const 
         const double x = as_dates ? times.from_date_text(list[i], p) : as_number(list[i], p);
         if (!(x > 0)) fail(p, as_dates ? "must be after valuation_date" : "must be > 0, got " + format_number(x));
         if (x > T + time_tolerance)
-            fail(p, "must be on or before the final expiry (" + format_number(T) + " years), got " + format_number(x) + " years");
+            fail(p, as_dates ? "must be on or before the final expiry " + to_iso(add_days(*t.valuation_date, std::lround(T * 365))) +
+                                   ", got " + list[i].get<std::string>()
+                             : "must be on or before the final expiry " + format_number(T) + " years, got " + format_number(x));
         out.push_back(x);
     }
     return out;
@@ -255,6 +257,8 @@ std::vector<mark> price_marks(const trade& t, const hedge_settings& hs, std::vec
             const option_leg& leg = t.legs[i];
             const double q = leg.quantity;
             if (leg.type == payoff_kind::stock) {
+                if (k > 0)  // the share leg's dividends and carry since the last date go to its holder
+                    mk.paid += q * share_income(t.market, marks.back().diffusing, marks.back().time, mk.time);
                 if (final_date) {
                     mk.paid += q * mk.spot;  // the share is delivered with the trade's end
                     alive[i] = 0;

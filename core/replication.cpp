@@ -226,7 +226,7 @@ std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int
 
     std::vector<char> alive(t.legs.size(), 1);
     std::vector<path_step> out;
-    double carried = 0;
+    double carried = 0, income_before = 0;
     for (int n = 0; n <= length; ++n) {
         path_step ps;
         tree_node& node = ps.node;
@@ -239,6 +239,11 @@ std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int
             if (!alive[k]) continue;
             const double q = t.legs[k].quantity;
             const level_info& li = info[k][n];
+            if (t.legs[k].type == payoff_kind::stock && n > 0) {
+                // A share leg's dividends and carry over the last step are paid to its holder.
+                node.value += q * income_before;
+                node.paid += q * income_before;
+            }
             node.value += q * li.here;
             if (li.event != node_event::none) {
                 node.paid += q * li.here;
@@ -258,6 +263,7 @@ std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int
         out.push_back(ps);
         if (!any_alive || n == length) break;
         const int j_next = index[n + 1];
+        income_before = node.income;
         carried = node.shares * (lat.spot(n + 1, j_next) + node.income) + node.cash / lat.step.discount;
     }
     return out;

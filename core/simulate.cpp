@@ -190,8 +190,9 @@ simulation run_simulation(const trade& t, const simulate_settings& st) {
         work += static_cast<double>(st.paths) * static_cast<double>(dates.back().size() - 1);
     }
     if (work > max_path_rebalancings)
-        fail("simulate.paths", "paths x rebalancings over all frequencies is " + format_number(work) + ", at most " +
-                                   format_number(max_path_rebalancings) + "; use fewer paths or rebalance less often");
+        fail("simulate.paths", "paths x rebalancings over all frequencies is " + std::to_string(static_cast<long long>(work)) +
+                                   ", at most " + std::to_string(static_cast<long long>(max_path_rebalancings)) +
+                                   "; use fewer paths or rebalance less often");
     std::sort(grid.begin(), grid.end());
     grid.erase(std::unique(grid.begin(), grid.end(), [](double a, double b) { return std::fabs(a - b) <= time_tolerance; }),
                grid.end());
@@ -357,6 +358,8 @@ simulation run_simulation(const trade& t, const simulate_settings& st) {
                     const option_leg& leg = t.legs[i];
                     const double q = leg.quantity;
                     if (leg.type == payoff_kind::stock) {
+                        if (k > 0)  // its dividends and carry go to the holder
+                            paid += q * (plan.carry[k] * s_star[plan.grid[k - 1]] + plan.dividends[k]);
                         if (k + 1 == K) {
                             paid += q * spot;
                             alive[i] = 0;
