@@ -513,7 +513,8 @@ hedge_schedule build_hedge(const trade& t, const hedge_settings& hs) {
             row.interest = (cash_before_costs - cost_account) * (growth - 1);
             cash_before_costs *= growth;
             cost_account *= growth;
-            row.dividends = shares * share_income(m, prev.diffusing, prev.time, mk.time);
+            const double income = share_income(m, prev.diffusing, prev.time, mk.time);
+            if (income != 0 && shares != 0) row.dividends = shares * income;  // (no -0 in the table)
             cash_before_costs += row.dividends;
         }
         if (!mk.last) {
@@ -602,8 +603,23 @@ json hedge_result_json(const trade& t, const hedge_settings& hs, const hedge_sch
                                     (early ? ", " + to_string(t.lattice.method) + " lattice with " +
                                                  std::to_string(hs.lattice_steps) + " steps for American/Bermudan legs"
                                            : "");
+    // Column order for CSV and tables; the table leaves out the columns that say nothing for this trade.
+    const json columns = {"date", "years", "event", "spot", "option_value", "paid", "delta", "shares_held",
+                          "shares_traded", "trade_cash_flow", "cash", "interest", "dividends", "cost",
+                          "portfolio_value", "tracking_error", "desk_shares", "desk_pnl"};
+    json table_columns = json::array();
+    for (const auto& c : columns) {
+        const std::string name = c.get<std::string>();
+        if (name == "years" || name == "trade_cash_flow" || name == "desk_shares") continue;
+        if ((name == "paid" && tot.paid == 0) || (name == "dividends" && tot.dividends == 0) || (name == "cost" && tot.costs == 0))
+            continue;
+        if (name == "date" && !t.valuation_date) table_columns.push_back("years");
+        else table_columns.push_back(name);
+    }
     return json{
         {"rows", rows},
+        {"columns", columns},
+        {"table_columns", table_columns},
         {"totals",
          {{"premium", tot.premium},
           {"payoff", tot.payoff},

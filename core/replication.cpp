@@ -82,6 +82,9 @@ trade_lattice::trade_lattice(const trade& t, int n_steps) : source(&t), steps(n_
     const double T = t.final_expiry();
     step = make_step(t.lattice.method, t.market, centre_strike(t), T, steps);
     s0 = diffusing_spot(t.market, T);
+    if (t.lattice.method == lattice_method::leisen_reimer && steps % 2 == 0)
+        notes.push_back("a leisen-reimer lattice is centred for an odd number of steps; with " + std::to_string(steps) +
+                        " its values are rougher (use " + std::to_string(steps + 1) + " steps or lattice.method crr)");
     for (std::size_t k = 0; k < t.legs.size(); ++k) {
         const option_leg& leg = t.legs[k];
         int m = steps;

@@ -30,7 +30,7 @@ inline constexpr int max_tree_steps = 5000;
 /// Most nodes listed in one tree result.
 inline constexpr int max_tree_nodes = 2000;
 /// Steps of the tree view when the trade names none.
-inline constexpr int default_tree_steps = 6;
+inline constexpr int default_tree_steps = 7;
 
 /// What happens to the trade at a node.
 enum class node_event { none, early_exercise, expiry };

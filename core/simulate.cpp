@@ -505,8 +505,16 @@ json simulate_result_json(const trade& t, const simulate_settings& st, const sim
             : "closed-form delta for European legs; for the others, delta and exercise from a " +
                   to_string(t.lattice.method) + " lattice of " + std::to_string(sim.lattice_steps) +
                   " steps, interpolated between its nodes at the nearest step";
+    const json columns = {"frequency", "rebalancings", "mean", "sd", "sd_standard_error", "p01", "p05", "p50", "p95", "p99",
+                          "min", "max", "mean_costs", "derman_kamal_sd", "desk_mean", "desk_sd"};
+    json table_columns = {"frequency", "rebalancings", "mean", "sd", "p01", "p05", "p50", "p95", "p99"};
+    if (single_vanilla) table_columns.push_back("derman_kamal_sd");
+    if (st.cost_bp > 0) table_columns.push_back("mean_costs");
+    table_columns.push_back("desk_mean");
     return json{
         {"rows", rows},
+        {"columns", columns},
+        {"table_columns", table_columns},
         {"histogram", {{"edges", sim.edges}, {"series", series}}},
         {"premium", sim.premium},
         {"paths", st.paths},

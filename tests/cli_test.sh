@@ -22,5 +22,31 @@ check "missing file exits 2" '[ $code -eq 2 ]'
 err=$("$cli" nosuchcommand "$root/examples/american-put.json" 2>&1 >/dev/null); code=$?
 check "unknown command exits 2" '[ $code -eq 2 ]'
 
+# hedge, simulate and tree (core/hedge, core/simulate, core/replication)
+ex="$root/examples/hedge-explicit-spots.json"
+out=$("$cli" hedge "$ex"); code=$?
+check "hedge exits 0" '[ $code -eq 0 ]'
+check "hedge prints rows and totals" 'echo "$out" | grep -q "\"rows\"" && echo "$out" | grep -q "\"replication_error\""'
+out=$("$cli" hedge "$ex" --table); code=$?
+check "hedge --table exits 0" '[ $code -eq 0 ]'
+check "hedge --table shows the schedule in column order" 'echo "$out" | grep -Eq "^ +date +event +spot +option_value +delta"'
+check "hedge --table shows the expiry row" 'echo "$out" | grep -Eq "2027-03-01 +expiry +52.400000 +2.400000"'
+out=$("$cli" hedge "$ex" --csv); code=$?
+check "hedge --csv exits 0" '[ $code -eq 0 ]'
+check "hedge --csv header" '[ "$(echo "$out" | head -1)" = "date,years,event,spot,option_value,paid,delta,shares_held,shares_traded,trade_cash_flow,cash,interest,dividends,cost,portfolio_value,tracking_error,desk_shares,desk_pnl" ]'
+check "hedge --csv has one line per date" '[ $(echo "$out" | wc -l) -eq 6 ]'
+bad='{"market":{"spot":48,"volatility":0.25,"rate":0.03},"option":{"type":"call","strike":48,"expiry_years":0.5},"hedge":{"rebalance":{"every":0}}}'
+err=$(echo "$bad" | "$cli" hedge - 2>&1 >/dev/null); code=$?
+check "bad hedge field exits 2" '[ $code -eq 2 ]'
+check "bad hedge field message" '[ "$err" = "hedge.rebalance.every: must be between 1 and 1000, got 0" ]'
+check "bad hedge field one line" '[ $(echo "$err" | wc -l) -eq 1 ]'
+out=$("$cli" simulate "$root/examples/hedge-scenario.json"); code=$?
+check "simulate exits 0" '[ $code -eq 0 ]'
+check "simulate prints a histogram" 'echo "$out" | grep -q "\"histogram\""'
+check "simulate --csv has a row per frequency" '[ $("$cli" simulate "$root/examples/hedge-scenario.json" --csv | wc -l) -eq 4 ]'
+out=$("$cli" tree "$root/examples/hedge-tree-path.json"); code=$?
+check "tree exits 0" '[ $code -eq 0 ]'
+check "tree shows the path" 'echo "$out" | grep -q "\"moves\": \"DDUDDDD\""'
+
 echo "cli: $passes passed, $fails failed"
 [ $fails -eq 0 ]

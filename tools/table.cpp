@@ -36,8 +36,15 @@ bool is_flat(const json& row) {
     return std::none_of(row.begin(), row.end(), [](const json& e) { return e.is_object() || e.is_array(); });
 }
 
-std::vector<std::string> columns_of(const json& rows) {
+// Columns of a row list: those named in `order` (a result's "columns" or
+// "table_columns" list) first, in that order, then any others as met. With
+// `only`, just the named ones (the table's narrower view).
+std::vector<std::string> columns_of(const json& rows, const json* order = nullptr, bool only = false) {
     std::vector<std::string> cols;
+    if (order && order->is_array())
+        for (const auto& c : *order)
+            if (c.is_string()) cols.push_back(c.get<std::string>());
+    if (only && !cols.empty()) return cols;
     for (const auto& row : rows)
         for (auto it = row.begin(); it != row.end(); ++it)
             if (!it->is_object() && !it->is_array() && std::find(cols.begin(), cols.end(), it.key()) == cols.end())
@@ -45,8 +52,8 @@ std::vector<std::string> columns_of(const json& rows) {
     return cols;
 }
 
-void render_rows(std::ostringstream& out, const json& rows, const std::string& indent) {
-    const auto cols = columns_of(rows);
+void render_rows(std::ostringstream& out, const json& rows, const std::string& indent, const json* order = nullptr) {
+    const auto cols = columns_of(rows, order, true);
     std::vector<std::size_t> width(cols.size());
     for (std::size_t c = 0; c < cols.size(); ++c) {
         width[c] = cols[c].size();
@@ -71,14 +78,20 @@ void render_rows(std::ostringstream& out, const json& rows, const std::string& i
 void render(std::ostringstream& out, const json& v, const std::string& indent) {
     std::size_t key_width = 0;
     for (auto it = v.begin(); it != v.end(); ++it) key_width = std::max(key_width, it.key().size());
+    // A result may name the order of its "rows" columns ("columns") and the ones a table shows ("table_columns").
+    const bool has_rows = v.contains("rows");
+    const json* order = has_rows && v.contains("table_columns") ? &v.at("table_columns")
+                        : has_rows && v.contains("columns")     ? &v.at("columns")
+                                                                : nullptr;
     for (auto it = v.begin(); it != v.end(); ++it) {
         const json& x = *it;
+        if (has_rows && (it.key() == "columns" || it.key() == "table_columns")) continue;
         if (x.is_object()) {
             out << indent << it.key() << "\n";
             render(out, x, indent + "  ");
         } else if (is_row_list(x) && std::all_of(x.begin(), x.end(), is_flat)) {
             out << indent << it.key() << "\n";
-            render_rows(out, x, indent + "  ");
+            render_rows(out, x, indent + "  ", it.key() == "rows" ? order : nullptr);
         } else if (is_row_list(x)) {
             for (std::size_t i = 0; i < x.size(); ++i) {
                 out << indent << it.key() << "[" << i << "]\n";
@@ -120,7 +133,8 @@ std::string render_csv(const json& result) {
     const json* rows = find_rows(result);
     if (!rows) return "";
     std::ostringstream out;
-    const auto cols = columns_of(*rows);
+    const auto cols = columns_of(*rows, result.contains("rows") && rows == &result.at("rows") && result.contains("columns")
+                                        ? &result.at("columns") : nullptr);
     for (std::size_t c = 0; c < cols.size(); ++c) out << (c ? "," : "") << csv_field(cols[c]);
     out << "\n";
     for (const auto& row : *rows) {
