@@ -15,10 +15,10 @@
 
 namespace hedgeleaf::bench {
 
-// The same code-generation choice as the kernel's sweep (core/lattice.cpp): an
-// AVX2+FMA clone and a baseline clone on x86-64 Linux with GCC.
+// The same code-generation choice as the kernel's sweep (core/lattice.cpp):
+// AVX-512, AVX2+FMA and baseline clones on x86-64 Linux with GCC.
 #if defined(__x86_64__) && defined(__linux__) && defined(__GNUC__) && !defined(__clang__)
-#define HEDGELEAF_BENCH_CLONES __attribute__((target_clones("arch=x86-64-v3", "default")))
+#define HEDGELEAF_BENCH_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))
 #else
 #define HEDGELEAF_BENCH_CLONES
 #endif

@@ -3,6 +3,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
+#if defined(__SSE__) || defined(__x86_64__)
+#include <xmmintrin.h>
+#endif
 
 namespace hedgeleaf {
 
@@ -130,11 +134,12 @@ double exercise_value(const option_leg& leg, double s) {
 
 namespace {
 
-// The sweep is compiled twice on x86-64 Linux with GCC: for AVX2+FMA (x86-64-v3)
-// and for the baseline; the loader picks one at start-up (ifunc). Elsewhere,
+// The sweep is compiled three times on x86-64 Linux with GCC: for AVX-512
+// (x86-64-v4), AVX2+FMA (x86-64-v3) and the baseline; the loader picks one at
+// start-up (ifunc). Elsewhere,
 // including WebAssembly, it is compiled once with the build's own flags.
 #if defined(__x86_64__) && defined(__linux__) && defined(__GNUC__) && !defined(__clang__)
-#define HEDGELEAF_SWEEP_CLONES __attribute__((target_clones("arch=x86-64-v3", "default")))
+#define HEDGELEAF_SWEEP_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))
 #else
 #define HEDGELEAF_SWEEP_CLONES
 #endif
@@ -156,13 +161,14 @@ constexpr double log_power_clamp = 500.0;
 // stays near S*_0 and one table serves every row: no running product per node.
 struct sweep {
     double* v = nullptr;             // row values, size steps + 1
-    const double* powers = nullptr;  // points at k = 0 of the 2 steps + 1 table
+    const double* powers = nullptr;  // points at k = 0 of the table (k in [-centre_steps, steps - centre_steps])
     const char* allowed = nullptr;   // exercise allowed at row n
     const market_data* market = nullptr;
     const option_leg* leg = nullptr;
     int steps = 0;
     double pu = 0, pd = 0;  // discounted up and down probabilities
     double log_s0 = 0, log_d = 0, log_ratio = 0, dt = 0;
+    double inv_up = 0, inv_down = 0;  // 1/u and 1/d
     bool early = false, has_dividends = false;
     double row1[2] = {0, 0}, row2[3] = {0, 0, 0};
 };
@@ -177,16 +183,16 @@ double row_factor(const sweep& w, int n, int h) {
     return std::exp(std::clamp(w.log_s0 + n * w.log_d + h * w.log_ratio, -700.0, 700.0));
 }
 
-// powers[k] = (u/d)^k for |k| <= steps: exp every 32 entries, products between
-// (bounded rounding drift), then the clamp.
-void fill_powers(double log_ratio, int steps, double* table) {
+// table[j] = (u/d)^(first + j) for j = 0..count-1: exp every 32 entries,
+// products between (bounded rounding drift), then the clamp.
+void fill_powers(double log_ratio, int first, int count, double* table) {
     const double ratio = std::exp(log_ratio);
     const double lo = std::exp(-log_power_clamp), hi = std::exp(log_power_clamp);
-    for (int k = -steps; k <= steps;) {
-        double p = std::exp(std::clamp(k * log_ratio, -log_power_clamp, log_power_clamp));
-        const int end = std::min(steps, k + 31);
-        for (; k <= end; ++k) {
-            table[k + steps] = std::clamp(p, lo, hi);
+    for (int j = 0; j < count;) {
+        double p = std::exp(std::clamp((first + j) * log_ratio, -log_power_clamp, log_power_clamp));
+        const int end = std::min(count, j + 32);
+        for (; j < end; ++j) {
+            table[j] = std::clamp(p, lo, hi);
             p = std::min(p * ratio, hi);
         }
     }
@@ -217,46 +223,128 @@ HEDGELEAF_ROW_INLINE void call_range(double* __restrict v, const double* __restr
     for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], factor * r[i] - level);
 }
 
-// One exercise row. A put's exercise value is positive only below strike - pv
-// (and the continuation is never negative), so the max runs only there; a
-// call's only above. Other payoffs take the general per-node path.
-HEDGELEAF_ROW_INLINE void exercise_row(sweep& w, int n) {
+// How a row treats early exercise, planned once per row before its tiles run.
+enum class row_rule : unsigned char { hold, put, call, general };
+
+struct row_plan {
+    row_rule rule = row_rule::hold;
+    int split = 0;             // put: exercise can pay in [0, split); call: in [split, n]
+    double factor = 0;         // node i's diffusing spot is factor * r[i]
+    double level = 0;          // strike - pv of the dividends still to come
+    double pv = 0;
+    const double* r = nullptr;
+};
+
+// Row factors and exercise boundaries move by at most a node per row, so they
+// are carried from row to row instead of recomputed (an exp and a search per
+// row cost as much as a few hundred node updates).
+struct row_tracker {
+    int n = -1, centre = 0, put_split = -1, call_split = -1;
+    double factor = 0;
+};
+
+void plan_row(const sweep& w, int n, row_plan& plan, row_tracker& track) {
+    plan = row_plan{};
+    if (!(w.early && w.allowed[n])) return;
     const int h = row_centre(w, n);
-    const double factor = row_factor(w, n, h);
-    const double* r = w.powers - h;  // r[i]: power for node i of row n
-    const double pv = w.has_dividends ? w.market->dividend_pv(n * w.dt, w.leg->expiry) : 0.0;
-    const double level = w.leg->strike - pv;  // exercise pays strike - S* - pv (put) or the negative (call)
-    double* v = w.v;
-    switch (w.leg->type) {
-        case payoff_kind::put: {
-            const int m = first_at_or_above(r, n + 1, factor, level);
-            put_range(v, r, 0, m, w.pu, w.pd, level, factor);
-            continue_range(v, m, n + 1, w.pu, w.pd);
-            return;
-        }
-        case payoff_kind::call: {
-            const int m = first_above(r, n + 1, factor, level);
-            continue_range(v, 0, m, w.pu, w.pd);
-            call_range(v, r, m, n + 1, w.pu, w.pd, level, factor);
-            return;
-        }
-        default:
-            for (int i = 0; i <= n; ++i)
-                v[i] = std::max(w.pu * v[i + 1] + w.pd * v[i], exercise_value(*w.leg, factor * r[i] + pv));
+    // Exact every 64 rows (bounds the drift of the product), otherwise one multiply:
+    // going down a row divides by d, and by u when the centre also moves down.
+    if (track.n == n + 1 && n % 64 != 0 && (track.centre == h || track.centre == h + 1)) {
+        track.factor *= track.centre == h ? w.inv_down : w.inv_up;
+    } else {
+        track.factor = row_factor(w, n, h);
+    }
+    track.n = n;
+    track.centre = h;
+    plan.factor = track.factor;
+    plan.r = w.powers - h;
+    plan.pv = w.has_dividends ? w.market->dividend_pv(n * w.dt, w.leg->expiry) : 0.0;
+    plan.level = w.leg->strike - plan.pv;
+    const double f = plan.factor, level = plan.level;
+    const double* r = plan.r;
+    if (w.leg->type == payoff_kind::put) {
+        // First node whose exercise value is not positive (spots increase with i).
+        int m = track.put_split < 0 ? first_at_or_above(r, n + 1, f, level) : std::min(track.put_split, n + 1);
+        while (m > 0 && f * r[m - 1] >= level) --m;
+        while (m <= n && f * r[m] < level) ++m;
+        plan.rule = row_rule::put;
+        plan.split = track.put_split = m;
+    } else if (w.leg->type == payoff_kind::call) {
+        int m = track.call_split < 0 ? first_above(r, n + 1, f, level) : std::min(track.call_split, n + 1);
+        while (m > 0 && f * r[m - 1] > level) --m;
+        while (m <= n && !(f * r[m] > level)) ++m;
+        plan.rule = row_rule::call;
+        plan.split = track.call_split = m;
+    } else {
+        plan.rule = row_rule::general;
     }
 }
+
+// Row plan.rule's nodes [lo, hi), left to right.
+HEDGELEAF_ROW_INLINE void apply_row(const sweep& w, const row_plan& plan, int lo, int hi) {
+    double* v = w.v;
+    switch (plan.rule) {
+        case row_rule::hold:
+            continue_range(v, lo, hi, w.pu, w.pd);
+            return;
+        case row_rule::put: {
+            const int m = std::clamp(plan.split, lo, hi);
+            put_range(v, plan.r, lo, m, w.pu, w.pd, plan.level, plan.factor);
+            continue_range(v, m, hi, w.pu, w.pd);
+            return;
+        }
+        case row_rule::call: {
+            const int m = std::clamp(plan.split, lo, hi);
+            continue_range(v, lo, m, w.pu, w.pd);
+            call_range(v, plan.r, m, hi, w.pu, w.pd, plan.level, plan.factor);
+            return;
+        }
+        case row_rule::general:
+            for (int i = lo; i < hi; ++i)
+                v[i] = std::max(w.pu * v[i + 1] + w.pd * v[i], exercise_value(*w.leg, plan.factor * plan.r[i] + plan.pv));
+            return;
+    }
+}
+
+// Rows are swept in bands of tile_rows; each band runs tile by tile across the
+// nodes so that a tile's values stay in the level-1 cache for all its rows
+// (one pass over memory per band, not per row). Row t of a band covers nodes
+// [a - t, a + tile_nodes - t) of tile a: the values it needs from row t - 1 were
+// computed just before, in this tile or the one to its left.
+constexpr int tile_rows = 32;
+constexpr int tile_nodes = 1024;
+
+// Subnormal values appear only where a lattice value decays towards zero far
+// from spot; flushing them to zero changes a price by less than 1e-307 and
+// avoids the processor's slow path for them. The mode is restored on return.
+class flush_subnormals {
+public:
+#if defined(__SSE__) || defined(__x86_64__)
+    flush_subnormals() : saved_(_mm_getcsr()) { _mm_setcsr(saved_ | 0x8040u); }  // FTZ | DAZ
+    ~flush_subnormals() { _mm_setcsr(saved_); }
+private:
+    unsigned saved_;
+#endif
+};
 
 // The whole backward induction: one call per price (V8 tiers a function up
 // between calls, not inside a long one).
 HEDGELEAF_SWEEP_CLONES void run_sweep(sweep& w) {
-    for (int n = w.steps - 1; n >= 0; --n) {
-        if (w.early && w.allowed[n]) {
-            exercise_row(w, n);
-        } else {
-            continue_range(w.v, 0, n + 1, w.pu, w.pd);
+    const flush_subnormals flush;
+    row_plan plans[tile_rows];
+    row_tracker track;
+    for (int top = w.steps - 1; top >= 0; top -= tile_rows) {
+        const int rows = std::min(tile_rows, top + 1);
+        for (int t = 0; t < rows; ++t) plan_row(w, top - t, plans[t], track);
+        for (int a = 0; a <= top; a += tile_nodes) {
+            for (int t = 0; t < rows; ++t) {
+                const int n = top - t;
+                const int lo = std::max(0, a - t), hi = std::min(n + 1, a + tile_nodes - t);
+                if (lo < hi) apply_row(w, plans[t], lo, hi);
+                if (a == 0 && n == 2) std::copy(w.v, w.v + 3, w.row2);
+                if (a == 0 && n == 1) std::copy(w.v, w.v + 2, w.row1);
+            }
         }
-        if (n == 2) std::copy(w.v, w.v + 3, w.row2);
-        if (n == 1) std::copy(w.v, w.v + 2, w.row1);
     }
 }
 
@@ -277,11 +365,7 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     const double s0 = diffusing_spot(market, T);
     const std::vector<char> allowed = exercise_steps(leg, n_steps, st.dt);
     const std::size_t width = static_cast<std::size_t>(n_steps) + 1;
-    std::vector<double>& buffer = scratch(width + 2 * width);
-
     sweep w;
-    w.v = buffer.data();
-    w.powers = buffer.data() + width + n_steps;
     w.allowed = allowed.data();
     w.market = &market;
     w.leg = &leg;
@@ -292,14 +376,34 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     w.log_d = std::log(st.down);
     w.log_ratio = std::log(st.up) - w.log_d;
     w.dt = st.dt;
+    w.inv_up = 1 / st.up;
+    w.inv_down = 1 / st.down;
     w.early = leg.exercise != exercise_style::european;
     w.has_dividends = !market.dividends.empty();
-    fill_powers(w.log_ratio, n_steps, buffer.data() + width);
+
+    // Centres never decrease with n and nor does n - centre, so row n's powers
+    // k = i - centre_n all lie in [-centre_steps, steps - centre_steps]: steps + 1 entries.
+    const int last_centre = row_centre(w, n_steps);
+    // Both rows start on a 64-byte boundary (a cache line; whole AVX-512 vectors).
+    const std::size_t padded = (width + 7) / 8 * 8;
+    std::vector<double>& buffer = scratch(2 * padded + 8);
+    double* base = buffer.data();
+    base += (8 - reinterpret_cast<std::uintptr_t>(base) / sizeof(double) % 8) % 8;
+    w.v = base;
+    fill_powers(w.log_ratio, -last_centre, n_steps + 1, base + padded);
+    w.powers = base + padded + last_centre;
 
     {  // the payoff row at expiry (no dividends left to add)
-        const int h = row_centre(w, n_steps);
-        const double factor = row_factor(w, n_steps, h);
-        for (int i = 0; i <= n_steps; ++i) w.v[i] = exercise_value(leg, factor * w.powers[i - h]);
+        const double factor = row_factor(w, n_steps, last_centre);
+        const double* r = w.powers - last_centre;
+        double* v = w.v;
+        if (leg.type == payoff_kind::put) {
+            for (int i = 0; i <= n_steps; ++i) v[i] = std::max(leg.strike - factor * r[i], 0.0);
+        } else if (leg.type == payoff_kind::call) {
+            for (int i = 0; i <= n_steps; ++i) v[i] = std::max(factor * r[i] - leg.strike, 0.0);
+        } else {
+            for (int i = 0; i <= n_steps; ++i) v[i] = exercise_value(leg, factor * r[i]);
+        }
     }
     if (n_steps == 1) std::copy(w.v, w.v + 2, w.row1);
     if (n_steps == 2) std::copy(w.v, w.v + 3, w.row2);
