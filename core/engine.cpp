@@ -2,6 +2,7 @@
 #include "engine.hpp"
 
 #include "hedge.hpp"
+#include "ladder.hpp"
 #include "pricer.hpp"
 #include "replication.hpp"
 #include "simulate.hpp"
@@ -23,6 +24,7 @@ const std::map<std::string, command_fn>& commands() {
         {"simulate", simulate_command},
         {"tree", tree_command},
         {"solve", solve_json},
+        {"ladder", ladder_json},
     };
     return table;
 }
