@@ -85,7 +85,7 @@ double field_reader::number_or(const std::string& key, double fallback) {
     return number_optional(key).value_or(fallback);
 }
 
-long field_reader::integer_or(const std::string& key, long fallback, long lo, long hi) {
+long long field_reader::integer_or(const std::string& key, long long fallback, long long lo, long long hi) {
     const json* v = raw_optional(key);
     if (!v) return fallback;
     const double x = as_number(*v, child(key));
@@ -93,7 +93,7 @@ long field_reader::integer_or(const std::string& key, long fallback, long lo, lo
     if (x < static_cast<double>(lo) || x > static_cast<double>(hi))
         fail(child(key), "must be between " + std::to_string(lo) + " and " + std::to_string(hi) +
                              ", got " + format_number(x));
-    return static_cast<long>(x);
+    return static_cast<long long>(x);
 }
 
 std::string field_reader::text(const std::string& key, std::size_t max_length) {

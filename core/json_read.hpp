@@ -47,8 +47,8 @@ public:
     double number(const std::string& key);
     std::optional<double> number_optional(const std::string& key);
     double number_or(const std::string& key, double fallback);
-    /// A whole number within [lo, hi].
-    long integer_or(const std::string& key, long fallback, long lo, long hi);
+    /// A whole number within [lo, hi]; 64-bit because `long` is 32 bits under WebAssembly (wasm32).
+    long long integer_or(const std::string& key, long long fallback, long long lo, long long hi);
     std::string text(const std::string& key, std::size_t max_length = 200);
     std::optional<std::string> text_optional(const std::string& key, std::size_t max_length = 200);
     bool boolean_or(const std::string& key, bool fallback);
