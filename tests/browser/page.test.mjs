@@ -150,6 +150,30 @@ test('the print view is the quote sheet, with the cautions', async () => {
   await page.close();
 });
 
+test('a hedge along a path picked on the tree; a long simulation cancels, a short one reports', async () => {
+  const page = await open();
+  await page.check('input[name="hedge-kind"][value="lattice"]');
+  await page.locator('#hedge-tree .node').first().waitFor();
+  const spotAfterStep1 = () => page.evaluate(() => document.querySelector('[data-result="hedge-schedule"] tbody tr:nth-child(2) td:nth-child(3)')?.textContent);
+  await until(page, () => document.querySelectorAll('#hedge-tree .node.on-path').length === 7);
+  const up = await spotAfterStep1();
+  await page.click('.path-buttons .move >> nth=0');  // the first step turns from up to down
+  await until(page, (before) => document.querySelector('[data-result="hedge-schedule"] tbody tr:nth-child(2) td:nth-child(3)')?.textContent !== before, up);
+  assert.ok(Number((await spotAfterStep1()).replace(/,/g, '')) < 48.2, 'after a down move spot is below 48.20');
+  assert.equal(await page.getAttribute('.path-buttons .move >> nth=0', 'aria-pressed'), 'false');
+
+  await page.fill('[data-path="simulate.paths"]', '200,000');
+  await page.click('#simulate-run');
+  await page.locator('#simulate-status').filter({ hasText: 'Simulating' }).waitFor();
+  await page.click('#simulate-cancel');
+  await page.locator('#simulate-status').filter({ hasText: 'Cancelled' }).waitFor({ timeout: 2000 });
+  await page.fill('[data-path="simulate.paths"]', '2000');
+  await page.click('#simulate-run');
+  await page.locator('[data-result="simulation"] tbody tr').first().waitFor({ timeout: 20000 });
+  assert.equal(await page.locator('[data-result="simulation"] tbody tr').count(), 3);
+  await page.close();
+});
+
 test('nothing but the page was requested and the console stayed clean', () => {
   assert.ok(requests.some((url) => url.startsWith(pageUrl)));
   assert.deepEqual(problems, []);

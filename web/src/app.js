@@ -13,7 +13,6 @@ import {
   changeShape, contractExpiry, contractKey, errorPathOf, fillInput, shapes, switchExpiryMode, writeInput,
 } from './form.js';
 import { pathAncestors } from './paths.js';
-import { breakEvens, payoffAt } from './payoff.js';
 import { renderPrice, renderSheet, setResult } from './render.js';
 import {
   autosave, download, fingerprint, loadAutosave, slug, toBase64Url, tradeFileText, tradeFromHash,
@@ -299,11 +298,11 @@ async function recompute() {
   clearErrors();
   state.price = price;
   renderPrice(doc, price);
-  setStale(['price', 'profile'], false);
+  setStale(['price'], false);
   renderCurrency(doc);
-  drawProfile(doc, price, null);
   refreshSheet(doc, price);
-  if (state.commands.includes('profile')) runProfile(doc, price, generation);
+  if (state.commands.includes('profile')) await runProfile(doc, price, generation);
+  if (generation !== state.generation) return;
   hedge.update(doc, price, generation);
   simulate.update(doc, price);
 }
@@ -320,9 +319,11 @@ async function runProfile(doc, price, generation) {
   try {
     const profile = await live.call('profile', doc);
     if (generation !== state.generation) return;
-    drawProfile(doc, price, profile);
+    drawProfile(price, profile);
+    setStale(['profile'], false);
   } catch (err) {
     if (generation !== state.generation || err instanceof Cancelled) return;
+    setStale(['profile'], true);
     if (err instanceof EngineError) showError(err.field, err.message);
   }
 }
@@ -332,41 +333,25 @@ function renderCurrency(doc) {
   for (const node of document.querySelectorAll('.ccy')) node.textContent = ccy;
 }
 
-/** Payouts of digital legs, in the order of the result's legs. */
-function payoutsOf(doc) {
-  if (doc.option) return [doc.option.payout ?? 1];
-  if (Array.isArray(doc.legs)) return doc.legs.map((l) => l?.payout ?? 1);
-  return [];
-}
-
-/** Profit at expiry (and value today, when the engine's profile is there) against spot. */
-function drawProfile(doc, price, profile) {
-  const legs = price.legs;
-  const strikes = legs.filter((l) => l.strike > 0).map((l) => l.strike);
-  const vol = typeof doc.market?.volatility === 'number' ? doc.market.volatility : 0.2;
-  const spread = Math.exp(2.5 * vol * Math.sqrt(Math.max(price.expiry_years, 0.02)));
-  let lo = Math.min(price.spot / spread, ...strikes.map((k) => 0.85 * k));
-  let hi = Math.max(price.spot * spread, ...strikes.map((k) => 1.15 * k));
-  const valueToday = [];
-  if (profile && Array.isArray(profile.rows)) {
-    for (const row of profile.rows) if (typeof row.spot === 'number' && typeof row.value === 'number') valueToday.push([row.spot, row.value]);
-    if (valueToday.length > 1) [lo, hi] = [valueToday[0][0], valueToday[valueToday.length - 1][0]];
-  }
+/** Profit at expiry and if valued today against spot, from the engine's `profile`, for the client's side. */
+function drawProfile(price, profile) {
   const sign = price.position.side === 'sell' ? -1 : 1;
-  const payouts = payoutsOf(doc);
-  const grid = new Set();
-  for (let i = 0; i <= 120; i += 1) grid.add(lo + ((hi - lo) * i) / 120);
-  for (const k of strikes) if (k > lo && k < hi) { grid.add(k); grid.add(k * (1 - 1e-9)); grid.add(k * (1 + 1e-9)); }
-  const xs = [...grid].sort((a, b) => a - b);
-  const series = [{ kind: 'payoff', label: 'Profit at expiry', points: xs.map((s) => [s, sign * (payoffAt(legs, s, payouts) - price.premium)]) }];
-  if (valueToday.length) series.push({ kind: 'value', label: 'Profit if valued today', points: valueToday.map(([s, v]) => [s, sign * (v - price.premium)]) });
-  const evens = breakEvens(legs, price.premium, hi * 4, payouts);
+  const rows = profile.rows.filter((r) => Number.isFinite(r.spot));
+  const series = [
+    { kind: 'payoff', label: 'Profit at expiry', points: rows.map((r) => [r.spot, sign * r.pnl_at_expiry]) },
+    { kind: 'value', label: 'Profit if valued today', points: rows.map((r) => [r.spot, sign * r.pnl_today]) },
+  ];
+  const [lo, hi] = [rows[0].spot, rows[rows.length - 1].spot];
+  const evens = profile.break_even;
   const marks = [{ x: price.spot, label: `spot ${formatNumber(price.spot, 2)}`, kind: 'spot' }];
-  evens.filter((x) => x >= lo && x <= hi).forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i + 1 }));
-  setResult('break-even', evens.length ? evens.map((x) => formatNumber(x, 2)).join(' and ') : 'none in range', evens[0]);
+  evens.filter((x) => x >= lo && x <= hi).forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i }));
+  const ranges = profile.break_even_ranges.map(([a, b]) => `${formatNumber(a, 2)}–${formatNumber(b, 2)}`);
+  const text = [...evens.map((x) => formatNumber(x, 2)), ...ranges].join(' and ') || 'none';
+  setResult('break-even', text, evens[0]);
   for (const node of document.querySelectorAll('[data-result="break-even"]')) node.dataset.values = JSON.stringify(evens);
-  drawChart($('profile-chart'), { series, marks, xLabel: 'Spot at expiry', yLabel: 'Profit per unit' });
-  drawChart($('sheet-chart'), { series, marks, xLabel: 'Spot at expiry', yLabel: 'Profit per unit', height: 220 });
+  const labels = { xLabel: `Spot (expiry ${profile.horizon_date ?? `in ${formatNumber(profile.horizon_years, 2)} y`})`, yLabel: 'Profit per unit' };
+  drawChart($('profile-chart'), { series, marks, ...labels });
+  drawChart($('sheet-chart'), { series, marks, ...labels, height: 220 });
 }
 
 async function refreshSheet(doc, price) {
@@ -497,6 +482,7 @@ function start() {
   const first = initialTrade();
   state.doc = first.doc;
   if (first.message) notice(first.message);
+  document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
   hedge.setup();
   simulate.setup();
   fillForm();

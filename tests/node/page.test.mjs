@@ -1,0 +1,131 @@
+// Page module tests: the plain JS the page runs, without a browser. Number
+// entry and display, trade links, field paths, the form's date/year fields,
+// routing a path on the tree, and the one-file build (bundler, CSP hashes).
+import assert from 'node:assert/strict';
+import { createHash } from 'node:crypto';
+import { existsSync, readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { test } from 'node:test';
+import { fileURLToPath } from 'node:url';
+
+import { formatNumber, formatSmart, inputText, parseNumber, parsePercent, parseTenor, percentText } from '../../web/src/format.js';
+import { fromBase64Url, toBase64Url, tradeFromHash, autosave } from '../../web/src/share.js';
+import { getPath, pathAncestors, setPath } from '../../web/src/paths.js';
+import { changeShape, readDateList, readWhen } from '../../web/src/form.js';
+import { addYears, yearsBetween } from '../../web/src/dates.js';
+import { routeThrough } from '../../web/src/hedge.js';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
+
+test('numbers typed with separators and percentages read as the file stores them', () => {
+  assert.equal(parseNumber('25,000'), 25000);
+  assert.equal(parseNumber(' 1 234.5 '), 1234.5);
+  assert.equal(parseNumber('−3.5'), -3.5);
+  assert.equal(parseNumber(''), null);
+  assert.equal(parseNumber('12abc'), '12abc');  // handed to the engine, which names the field
+  assert.equal(parsePercent('31'), 0.31);
+  assert.equal(parsePercent('3.5'), 0.035);
+  assert.equal(parsePercent('0.1'), 0.001);
+  assert.equal(percentText(0.035), '3.5');
+  assert.equal(percentText(0.31), '31');
+  assert.equal(parseTenor('6m'), 0.5);
+  assert.equal(parseTenor('2y'), 2);
+  assert.equal(parseTenor('73d'), 0.2);
+  assert.equal(parseTenor('soon'), 'soon');
+});
+
+test('numbers on screen carry thousands separators and a real minus', () => {
+  assert.equal(formatNumber(77053.9007, 2), '77,053.90');
+  assert.equal(formatNumber(-9154.2223, 2), '−9,154.22');
+  assert.equal(formatNumber(-0.0001, 2), '0.00');
+  assert.equal(formatNumber(NaN), '–');
+  assert.equal(formatSmart(0.035332, 4, 4), '0.03533');
+  assert.equal(formatSmart(3e-16, 2, 4), '0.0000');
+  assert.equal(inputText(25000), '25,000');
+  assert.equal(inputText(1234567.25), '1,234,567.25');
+});
+
+test('a trade survives the #trade= link, unicode and all', () => {
+  const doc = { quote: { client: 'Ødegård & Söhne <b>' }, market: { spot: 48.2 } };
+  const code = toBase64Url(JSON.stringify(doc));
+  assert.match(code, /^[A-Za-z0-9_-]+$/);
+  assert.deepEqual(JSON.parse(tradeFromHash(`#trade=${code}`)), doc);
+  assert.deepEqual(JSON.parse(fromBase64Url(code)), doc);
+  assert.equal(tradeFromHash('#other'), null);
+  assert.throws(() => fromBase64Url('a+b/'), /damaged/);
+});
+
+test('autosave reports a full store instead of failing silently', () => {
+  const full = { setItem() { const e = new Error('full'); e.name = 'QuotaExceededError'; throw e; } };
+  assert.match(autosave(full, { trade: {} }), /storage is full/);
+  const fine = { setItem(k, v) { this.saved = v; } };
+  assert.equal(autosave(fine, { trade: { a: 1 } }), null);
+});
+
+test('field paths read, write and fall back the way the engine names fields', () => {
+  const doc = {};
+  setPath(doc, 'market.dividends[0].amount', 0.42);
+  assert.deepEqual(doc, { market: { dividends: [{ amount: 0.42 }] } });
+  assert.equal(getPath(doc, 'market.dividends[0].amount'), 0.42);
+  setPath(doc, 'lattice.steps', 201);
+  setPath(doc, 'lattice.steps', undefined);
+  assert.equal(doc.lattice, undefined, 'an emptied section is dropped');
+  assert.deepEqual(pathAncestors('legs[1].strike'), ['legs[1].strike', 'legs[1]', 'legs', '']);
+});
+
+test('date-or-years fields and exercise date lists pick the right key', () => {
+  assert.deepEqual(readWhen('2027-03-15', 'date', 'time_years'), { key: 'date', value: '2027-03-15' });
+  assert.deepEqual(readWhen('0.25', 'date', 'time_years'), { key: 'time_years', value: 0.25 });
+  assert.deepEqual(readWhen('3m', 'date', 'time_years'), { key: 'time_years', value: 0.25 });
+  assert.deepEqual(readWhen('next week', 'date', 'time_years'), { key: 'date', value: 'next week' });
+  assert.deepEqual(readDateList('2027-01-15, 2027-03-15'), { key: 'exercise_dates', value: ['2027-01-15', '2027-03-15'] });
+  assert.deepEqual(readDateList('0.25 0.5'), { key: 'exercise_years', value: [0.25, 0.5] });
+  // ACT/365F as the engine counts (2026-12-02 to 2027-06-18 is 198 days)
+  assert.equal(yearsBetween('2026-12-02', '2027-06-18'), 198 / 365);
+  assert.equal(addYears('2026-12-02', 198 / 365), '2027-06-18');
+});
+
+test('changing the shape keeps expiry and exercise and keeps the file order', () => {
+  const doc = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
+  changeShape(doc, 'collar');
+  assert.deepEqual(Object.keys(doc), ['valuation_date', 'market', 'structure', 'quantity', 'side']);
+  assert.equal(doc.structure.shape, 'collar');
+  assert.equal(doc.structure.strikes.length, 2);
+  assert.ok(doc.structure.strikes[0] < doc.structure.strikes[1]);
+  assert.equal(doc.structure.expiry_date, '2027-06-18');
+  assert.equal(doc.structure.exercise, 'american');
+  changeShape(doc, 'option');
+  assert.equal(doc.option.expiry_date, '2027-06-18');
+  assert.equal(doc.structure, undefined);
+});
+
+test('picking a node on the tree routes the path through it, changing as little as possible', () => {
+  assert.equal(routeThrough('UDUDUD', 3, 3), 'UUUDUD');
+  assert.equal(routeThrough('UDUDUD', 2, 0), 'DDUDUD');
+  assert.equal(routeThrough('UDUDUD', 4, 2), 'UDUDUD');
+  for (let step = 1; step <= 6; step += 1) {
+    for (let index = 0; index <= step; index += 1) {
+      const moves = routeThrough('DUDUUD', step, index);
+      assert.equal([...moves.slice(0, step)].filter((m) => m === 'U').length, index);
+      assert.equal(moves.slice(step), 'DUDUUD'.slice(step));
+    }
+  }
+});
+
+test('the built page allows exactly its own scripts and style by hash', { skip: !existsSync(join(root, 'dist/hedgeleaf.html')) && 'page not built' }, () => {
+  const html = readFileSync(join(root, 'dist/hedgeleaf.html'), 'utf8');
+  const csp = /<meta http-equiv="Content-Security-Policy" content="([^"]+)">/.exec(html)[1];
+  const hash = (text) => `'sha256-${createHash('sha256').update(text).digest('base64')}'`;
+  const executable = [...html.matchAll(/<script id="[a-z-]+">([\s\S]*?)<\/script>/g)].map((m) => m[1]);
+  assert.equal(executable.length, 2, 'the engine module and the page script');
+  for (const text of executable) assert.ok(csp.includes(hash(text)), 'a script is not allowed by hash');
+  const style = /<style>([\s\S]*?)<\/style>/.exec(html)[1];
+  assert.ok(csp.includes(`style-src ${hash(style)}`));
+  assert.match(csp, /^default-src 'none'; /);
+  assert.ok(!csp.includes("'unsafe-eval'") && !csp.includes("'unsafe-inline'") && !csp.includes('connect-src'));
+  assert.ok(csp.includes("'wasm-unsafe-eval'") && csp.includes('worker-src blob:'));
+  assert.ok(!/\sstyle="/.test(html), 'no inline style attributes (CSP would block them)');
+  assert.ok(!/\son[a-z]+="/.test(html), 'no inline event handlers');
+  assert.ok(!/(src|href)="(https?:)?\/\//.test(html), 'nothing loads from the network');
+  assert.ok(Buffer.byteLength(html) < 1.5 * 1024 * 1024, 'under 1.5 MB');
+});
