@@ -5,6 +5,7 @@
 // import round trip, the print view carries the cautions, a clean console.
 import assert from 'node:assert/strict';
 import { execFileSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
@@ -118,6 +119,9 @@ test('export then import gives back the same trade; a bad file is refused', asyn
   const [download] = await Promise.all([page.waitForEvent('download'), page.click('#action-export')]);
   const saved = readFileSync(await download.path(), 'utf8');
   assert.deepEqual(JSON.parse(saved), JSON.parse(exampleText));
+  // the fingerprint on screen and on the sheet is the saved file's SHA-256 (sha256sum agrees)
+  const digest = createHash('sha256').update(saved).digest('hex').slice(0, 12);
+  await until(page, (d) => document.querySelector('[data-result="fingerprint"]').textContent === d, digest);
 
   await page.fill('[data-path="option.strike"]', '50');
   await until(page, (p) => Number(document.querySelector('[data-result="premium"]').dataset.value) !== p, premium);

@@ -344,7 +344,7 @@ function drawProfile(price, profile) {
   const [lo, hi] = [rows[0].spot, rows[rows.length - 1].spot];
   const evens = profile.break_even;
   const marks = [{ x: price.spot, label: `spot ${formatNumber(price.spot, 2)}`, kind: 'spot' }];
-  evens.filter((x) => x >= lo && x <= hi).forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i }));
+  evens.filter((x) => x >= lo && x <= hi).forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i + 1 }));
   const ranges = profile.break_even_ranges.map(([a, b]) => `${formatNumber(a, 2)}–${formatNumber(b, 2)}`);
   const text = [...evens.map((x) => formatNumber(x, 2)), ...ranges].join(' and ') || 'none';
   setResult('break-even', text, evens[0]);

@@ -24,9 +24,11 @@ export function ticks(lo, hi, count = 5) {
   return out;
 }
 
+/** Decimals that tell ticks `values` apart (0 for a step of 1 or more). */
 function digitsFor(values) {
-  const span = Math.max(...values) - Math.min(...values);
-  return span >= 50 ? 0 : span >= 5 ? 1 : span >= 0.5 ? 2 : 3;
+  if (values.length < 2) return 2;
+  const step = Math.abs(values[1] - values[0]);
+  return step >= 1 ? 0 : step >= 0.1 ? 1 : step >= 0.01 ? 2 : 3;
 }
 
 /**
@@ -54,13 +56,13 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
 
   const grid = el('g', { class: 'chart-grid' });
   const yTicks = ticks(y0, y1, 5);
-  const yDigits = digitsFor(yTicks.length > 1 ? yTicks : [y0, y1]);
+  const yDigits = digitsFor(yTicks);
   for (const t of yTicks) {
     grid.append(el('line', { x1: pad.left, x2: width - pad.right, y1: sy(t), y2: sy(t), class: t === 0 ? 'zero' : '' }));
     grid.append(el('text', { x: pad.left - 6, y: sy(t) + 4, 'text-anchor': 'end' }, formatNumber(t, yDigits)));
   }
   const xTicks = ticks(x0, x1, 6);
-  const xDigits = digitsFor(xTicks.length > 1 ? xTicks : [x0, x1]);
+  const xDigits = digitsFor(xTicks);
   for (const t of xTicks) {
     grid.append(el('line', { x1: sx(t), x2: sx(t), y1: pad.top, y2: height - pad.bottom, class: 'vertical' }));
     grid.append(el('text', { x: sx(t), y: height - pad.bottom + 16, 'text-anchor': 'middle' }, formatNumber(t, xDigits)));
@@ -73,8 +75,7 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
   for (const mark of marks) {
     const g = el('g', { class: `chart-mark ${mark.kind || ''}` });
     g.append(el('line', { x1: sx(mark.x), x2: sx(mark.x), y1: pad.top, y2: height - pad.bottom }));
-    const labelY = mark.kind === 'spot' ? height - pad.bottom - 5 : pad.top + 10 + (mark.row || 0) * 13;
-    g.append(el('text', { x: sx(mark.x) + 4, y: labelY }, mark.label));
+    g.append(el('text', { x: sx(mark.x) + 4, y: pad.top + 10 + (mark.row || 0) * 13 }, mark.label));
     svg.append(g);
   }
   for (const s of series) {

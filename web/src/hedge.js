@@ -226,7 +226,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     }
     for (const node of nodes) {
       const on = onPath.has(`${node.step}:${node.index}`);
-      const g = svg('g', { class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`, tabindex: node.step > 0 ? 0 : -1, role: 'button',
+      const g = svg('g', { class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`, tabindex: -1, role: 'button',
         'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, 2)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}` });
       g.append(svg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
       g.append(svg('text', { x: x(node.step), y: y(node.step, node.index) - 9, 'text-anchor': 'middle' }, formatNumber(node.spot, 2)));

@@ -122,7 +122,7 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   terms.push(['Client side', r.position.side === 'sell' ? 'sells' : 'buys']);
   terms.push(['Quantity', inputText(q)]);
   terms.push(['Expiry', expiryText(doc, r)]);
-  terms.push(['Spot', `${inputText(m.spot)}${ccy}`]);
+  terms.push(['Spot', `${typeof m.spot === 'number' ? formatNumber(m.spot, Math.max(2, (String(m.spot).split('.')[1] ?? '').length)) : '–'}${ccy}`]);
   terms.push(['Volatility', formatPercent(m.volatility, 2)]);
   terms.push(['Interest rate', formatPercent(m.rate, 2)]);
   terms.push(['Dividend yield', formatPercent(m.carry_yield ?? 0, 2)]);
@@ -155,6 +155,6 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
     ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
     ['Engine', `Hedgeleaf ${r.engine_version}, ${r.lattice.method} lattice, ${inputText(r.lattice.steps)} steps`],
-    ['Input fingerprint', fingerprint ? `${fingerprint} (SHA-256 of the trade file, first 12 hex digits)` : '–', 'fingerprint'],
+    ['Input fingerprint', fingerprint ? `${fingerprint} (first 12 hex digits of the SHA-256 of the saved trade file)` : '–', 'fingerprint'],
   ]);
 }

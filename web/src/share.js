@@ -32,10 +32,10 @@ export function tradeFileText(doc) {
 
 /**
  * Short fingerprint of the inputs: the first 12 hex digits of SHA-256 over the
- * compact JSON text of the trade (reproducible with any sha256 tool).
+ * trade file exactly as Save file writes it (so `sha256sum trade.json` agrees).
  */
 export async function fingerprint(doc) {
-  const data = new TextEncoder().encode(JSON.stringify(doc));
+  const data = new TextEncoder().encode(tradeFileText(doc));
   if (!globalThis.crypto?.subtle) return null;
   const digest = new Uint8Array(await crypto.subtle.digest('SHA-256', data));
   return [...digest.slice(0, 6)].map((b) => b.toString(16).padStart(2, '0')).join('');
