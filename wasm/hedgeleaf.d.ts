@@ -110,3 +110,43 @@ export interface PriceResult {
   engine_version: string;
   [more: string]: unknown;               // e.g. client_price when the trade has a quote section
 }
+
+// ---------------------------------------------------------------------------
+// The other commands, as far as the page reads them (full fields: README and
+// core/*.hpp). Per unit of the trade held long unless a field says position/desk.
+
+/** "profile": P&L against spot at the first expiry and valued today. */
+export interface ProfileResult {
+  rows: { spot: number; payoff: number; pnl_at_expiry: number; pnl_today: number; value_today: number }[];
+  break_even: number[];                  // spots where pnl_at_expiry = 0, ascending
+  break_even_ranges: [number, number][]; // spans where it is 0 throughout
+  horizon_years: number; horizon_date?: string;
+  premium: number;
+}
+
+/** "hedge": the schedule along one path (the trade's `hedge` section). */
+export interface HedgeResult {
+  rows: { date: string | null; years: number; event: string; spot: number; option_value: number;
+          delta: number | null; shares_held: number; shares_traded: number; cash: number;
+          portfolio_value: number; tracking_error: number }[];
+  totals: { premium: number; payoff: number; portfolio_value: number; replication_error: number;
+            total_shares_traded: number; total_costs: number; end_event: string };
+  desk: { shares_at_start: number; shares_at_end: number; pnl: number };
+  notes: string[];
+}
+
+/** "tree": the lattice nodes for the tree view and, for a lattice path, the path. */
+export interface TreeResult {
+  nodes: { step: number; index: number; spot: number; value: number; shares: number; cash: number;
+           event: "none" | "early" | "expiry" }[];
+  up: number; down: number; p_up: number; dt_years: number; to_step: number;
+}
+
+/** "simulate": discrete-hedging P&L over many paths (the trade's `simulate` section). */
+export interface SimulateResult {
+  paths: number; premium: number; volatility: number; pricing_volatility: number;
+  rows: { frequency: string; rebalancings: number; mean: number; sd: number; sd_standard_error: number;
+          p05: number; p50: number; p95: number; mean_costs: number; desk_sd: number }[];
+  histogram: { edges: number[]; series: { frequency: string; counts: number[] }[] };
+  monte_carlo_error: string;
+}

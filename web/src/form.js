@@ -177,7 +177,7 @@ export function switchExpiryMode(doc, mode) {
   if (mode === 'tenor' && holder.expiry_date !== undefined) {
     const years = yearsBetween(doc.valuation_date, holder.expiry_date);
     delete holder.expiry_date;
-    if (years !== null) holder.expiry_years = Number(years.toFixed(4));
+    if (years !== null) holder.expiry_years = Number(years.toFixed(6));  // within seconds of the date
   } else if (mode === 'date' && holder.expiry_years !== undefined) {
     const day = addYears(doc.valuation_date, holder.expiry_years);
     delete holder.expiry_years;
