@@ -28,22 +28,25 @@ void induce_leg(const trade_lattice& lat, std::size_t k, Visit&& visit) {
     std::vector<double> row(static_cast<std::size_t>(m) + 1);
     std::vector<char> event(static_cast<std::size_t>(m) + 1, static_cast<char>(node_event::expiry));
     const bool stock = leg.type == payoff_kind::stock;
-    for (int j = 0; j <= m; ++j) row[j] = stock ? lat.spot(m, j) : exercise_value(leg, lat.spot(m, j));
+    const double pv_m = lat.dividends_after(m);  // once per level: spot = S* + pv
+    for (int j = 0; j <= m; ++j) row[j] = stock ? lat.diffusing(m, j) + pv_m : exercise_value(leg, lat.diffusing(m, j) + pv_m);
     visit(m, row, event);
     const double pu = lat.step.discount * lat.step.p_up;
     const double pd = lat.step.discount * (1 - lat.step.p_up);
     const std::vector<char>& allowed = lat.allowed[k];
     for (int n = m - 1; n >= 0; --n) {
+        const bool may_exercise = allowed[static_cast<std::size_t>(n)] != 0;
+        const double pv = stock || may_exercise ? lat.dividends_after(n) : 0.0;
         for (int j = 0; j <= n; ++j) {
             event[j] = static_cast<char>(node_event::none);
             if (stock) {
-                row[j] = lat.spot(n, j);  // a share is worth its spot; its income goes to its holder
+                row[j] = lat.diffusing(n, j) + pv;  // a share is worth its spot; its income goes to its holder
                 continue;
             }
             const double wait = pu * row[j + 1] + pd * row[j];
             row[j] = wait;
-            if (allowed[static_cast<std::size_t>(n)]) {
-                const double now = exercise_value(leg, lat.spot(n, j));
+            if (may_exercise) {
+                const double now = exercise_value(leg, lat.diffusing(n, j) + pv);
                 if (now > wait) {
                     row[j] = now;
                     event[j] = static_cast<char>(node_event::early_exercise);
@@ -104,9 +107,8 @@ double trade_lattice::diffusing(int n, int j) const {
     return s0 * std::exp(j * std::log(step.up) + (n - j) * std::log(step.down));
 }
 
-double trade_lattice::spot(int n, int j) const {
-    const double pv = source->market.dividends.empty() ? 0.0 : source->market.dividend_pv(time(n), time(steps));
-    return diffusing(n, j) + pv;
+double trade_lattice::dividends_after(int n) const {
+    return source->market.dividends.empty() ? 0.0 : source->market.dividend_pv(time(n), time(steps));
 }
 
 double trade_lattice::income(int n, int j) const {

@@ -64,7 +64,9 @@ struct trade_lattice {
     trade_lattice(const trade& t, int steps);
     double time(int n) const { return n * step.dt; }
     double diffusing(int n, int j) const;
-    double spot(int n, int j) const;
+    /// PV at step n of the cash dividends still to come (to the final expiry).
+    double dividends_after(int n) const;
+    double spot(int n, int j) const { return diffusing(n, j) + dividends_after(n); }
     /// What one share earns over step n -> n+1 from node (n, j).
     double income(int n, int j) const;
 };
