@@ -17,6 +17,7 @@ import { renderPrice, renderSheet, setResult } from './render.js';
 import {
   autosave, download, fingerprint, loadAutosave, slug, toBase64Url, tradeFileText, tradeFromHash,
 } from './share.js';
+import { ladderPanel, solvePanel } from './desk.js';
 import { hedgePanel } from './hedge.js';
 import { simulatePanel } from './simulate.js';
 
@@ -110,6 +111,8 @@ function fillForm() {
   for (const input of form.querySelectorAll('[data-path], [data-role]')) fillInput(state.doc, input);
   hedge.render();
   simulate.render();
+  ladder.render();
+  solve.render();
   const mode = contractExpiry(state.doc).expiry_years !== undefined ? 'tenor' : 'date';
   for (const radio of form.querySelectorAll('input[name="expiry-mode"]')) radio.checked = radio.value === mode;
   updateVisibility();
@@ -258,6 +261,12 @@ function onInput(event) {
     for (const node of form.querySelectorAll('[data-path], [data-role]')) if (node !== input && node.closest('.leg-row')) fillInput(state.doc, node);
     updateVisibility();
   }
+  // choices that change which fields a card shows: redraw the card, keep the focus
+  const redraw = { 'ladder.kind': () => ladder.render(), 'hedge.path.shape': () => hedge.render() }[input.dataset.path];
+  if (redraw) {
+    redraw();
+    scope.querySelector(`[data-path="${input.dataset.path}"]`)?.focus();
+  }
   syncErrorPaths();
   changed();
 }
@@ -303,7 +312,9 @@ async function recompute() {
   refreshSheet(doc, price);
   if (state.commands.includes('profile')) await runProfile(doc, price, generation);
   if (generation !== state.generation) return;
-  hedge.update(doc, price, generation);
+  await hedge.update(doc, price, generation);
+  await ladder.update(doc, generation);
+  await solve.update(doc, price, generation);
   simulate.update(doc, price);
 }
 
@@ -474,6 +485,8 @@ function bindControls() {
 
 const hedge = hedgePanel({ live, state, showError, setStale, changed, bindControls });
 const simulate = simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed, bindControls });
+const ladder = ladderPanel({ live, state, showError, setStale, bindControls });
+const solve = solvePanel({ live, state, showError, setStale, changed, bindControls, notice });
 
 function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`;
@@ -485,7 +498,11 @@ function start() {
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
   hedge.setup();
   simulate.setup();
+  ladder.setup();
+  solve.setup();
   fillForm();
+  scope.addEventListener('refresh', () => changed(0));  // a folded card opened: compute what it shows
+  document.addEventListener('hedgeleaf:refill', fillForm);
   scope.addEventListener('input', onInput);
   scope.addEventListener('change', (event) => {
     if (event.target.tagName === 'SELECT' || event.target.type === 'checkbox' || event.target.type === 'radio' || event.target.type === 'date') onInput(event);

@@ -1,0 +1,225 @@
+// Hedgeleaf page: scenario ladders and the solver, two folding cards.
+//
+// Both read their settings from the trade's own sections (`ladder`, `solve`;
+// core/ladder.hpp, core/solver.hpp), so the exported file gives the CLI the
+// same table. They run only while their card is open.
+import { Cancelled } from './compute.js';
+import { EngineError } from './engine.js';
+import { formatNumber, formatPercent, inputText } from './format.js';
+import { contractKey, fillInput } from './form.js';
+import { setPath } from './paths.js';
+
+function make(tag, props = {}, children = []) {
+  const node = document.createElement(tag);
+  for (const [key, value] of Object.entries(props)) {
+    if (key === 'dataset') Object.assign(node.dataset, value);
+    else if (key === 'text') node.textContent = value;
+    else if (key in node) node[key] = value;
+    else node.setAttribute(key, value);
+  }
+  node.append(...children);
+  return node;
+}
+
+function field(label, input) {
+  return make('label', { className: 'field' }, [make('span', { text: label }), input]);
+}
+
+function bound(path, kind, placeholder) {
+  return make('input', { dataset: { path, kind }, autocomplete: 'off', inputMode: 'decimal', placeholder });
+}
+
+function select(path, options) {
+  const node = make('select', { dataset: { path, kind: 'choice' } });
+  for (const [value, text] of options) node.append(new Option(text, value));
+  return node;
+}
+
+function table(name, head, rows) {
+  return make('div', { className: 'table-scroll' }, [make('table', { className: 'figures', dataset: { result: name } }, [
+    make('thead', {}, [make('tr', {}, head.map((h) => make('th', { scope: 'col', text: h })))]),
+    make('tbody', {}, rows.map((cells) => make('tr', {}, cells.map((text, i) => make(i ? 'td' : 'th', i ? { text } : { scope: 'row', text }))))),
+  ])]);
+}
+
+/** The Scenarios card (`ladder` command). */
+export function ladderPanel({ live, state, showError, setStale, bindControls }) {
+  const card = document.getElementById('ladder-card');
+  const controls = document.getElementById('ladder-controls');
+  const output = document.getElementById('ladder-output');
+  const has = () => state.commands.includes('ladder');
+
+  function render() {
+    if (!has()) return;
+    const kind = state.doc.ladder?.kind ?? 'spot';
+    const parts = [make('div', { className: 'row' }, [field('Move', select('ladder.kind', [
+      ['', 'Spot (default)'], ['spot', 'Spot'], ['volatility', 'Volatility'], ['time', 'Time passing'], ['grid', 'Spot × volatility'],
+    ]))])];
+    if (kind === 'spot' || kind === 'grid') {
+      parts.push(make('div', { className: 'row' }, [field('Spot from %', bound('ladder.spot_from', 'percent', '−20')),
+        field('to %', bound('ladder.spot_to', 'percent', '20')), field('step %', bound('ladder.spot_step', 'percent', '2'))]));
+    }
+    if (kind === 'volatility' || kind === 'grid') {
+      parts.push(make('div', { className: 'row' }, [field('Vol from (points)', bound('ladder.vol_from', 'percent', '−5')),
+        field('to', bound('ladder.vol_to', 'percent', '5')), field('step', bound('ladder.vol_step', 'percent', '1'))]));
+    }
+    if (kind === 'time') {
+      parts.push(make('div', { className: 'row' }, [field('Every … days', bound('ladder.time_step_days', 'number', 'a tenth of the life')),
+        field('Up to day', bound('ladder.time_to_days', 'number', 'expiry'))]));
+    }
+    parts.push(make('span', { className: 'field-error', dataset: { error: 'ladder' }, role: 'alert' }));
+    controls.replaceChildren(...parts);
+    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
+    bindControls(controls);
+  }
+
+  function draw(r) {
+    const ccy = typeof state.doc.quote?.currency === 'string' ? ` ${state.doc.quote.currency}` : '';
+    const per = (row) => [formatNumber(row.value, 4), formatNumber(row.pnl, 4), `${formatNumber(row.position_pnl, 0)}${ccy}`];
+    const greeks = (row) => [formatNumber(row.delta, 4), formatNumber(row.position_delta, 0)];
+    const tail = ['Value', 'P&L per unit', 'Position P&L'];
+    let body;
+    if (r.kind === 'grid') {
+      const g = r.grid;
+      const head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
+      const rows = g.spot_shifts.map((s, i) => [`${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
+        ...g.position_pnl[i].map((x) => formatNumber(x, 0))]);
+      body = [make('p', { className: 'hint', text: `Position P&L${ccy} against today, spot down the side, volatility across.` }), table('ladder', head, rows)];
+    } else if (r.kind === 'time') {
+      body = [table('ladder', ['Day', 'Date', ...tail, 'Delta', 'Position delta'],
+        r.rows.map((row) => [inputText(row.days), row.date ?? `${formatNumber(row.years, 3)} y`, ...per(row), ...greeks(row)]))];
+    } else if (r.kind === 'volatility') {
+      body = [table('ladder', ['Volatility', ...tail, 'Delta', 'Position delta'],
+        r.rows.map((row) => [formatPercent(row.volatility, 1), ...per(row), ...greeks(row)]))];
+    } else {
+      body = [table('ladder', ['Spot', 'Move', ...tail, 'Delta', 'Position delta'],
+        r.rows.map((row) => [formatNumber(row.spot, 2), `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`, ...per(row), ...greeks(row)]))];
+    }
+    output.replaceChildren(...body, make('p', { className: 'hint', text: `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.` }));
+  }
+
+  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
+  return {
+    setup() {
+      card.hidden = !has();
+      render();
+    },
+    render,
+    async update(doc, generation) {
+      if (!has() || !card.open) return;
+      try {
+        const r = await live.call('ladder', doc);
+        if (generation !== state.generation) return;
+        draw(r);
+        setStale(['ladder'], false);
+      } catch (err) {
+        if (generation !== state.generation || err instanceof Cancelled) return;
+        setStale(['ladder'], true);
+        if (err instanceof EngineError) showError(err.field, err.message);
+      }
+    },
+  };
+}
+
+/** Where the strike of result leg `leg` lives in the document, or null. */
+export function strikePath(doc, leg, oldStrike) {
+  const key = contractKey(doc);
+  if (key === 'option') return 'option.strike';
+  if (key === 'legs') return `legs[${leg}].strike`;
+  const index = (doc.structure?.strikes ?? []).indexOf(oldStrike);
+  return index >= 0 ? `structure.strikes[${index}]` : null;
+}
+
+/** The Solve card (`solve` command). */
+export function solvePanel({ live, state, showError, setStale, changed, bindControls, notice }) {
+  const card = document.getElementById('solve-card');
+  const controls = document.getElementById('solve-controls');
+  const output = document.getElementById('solve-output');
+  const has = () => state.commands.includes('solve');
+
+  function render() {
+    if (!has()) return;
+    const unknown = state.doc.solve?.for;
+    const what = make('select', { id: 'solve-for' });
+    for (const [value, text] of [['', 'nothing'], ['volatility', 'the volatility that gives a premium'], ['strike', 'the strike that gives a premium'], ['quantity', 'the quantity a budget buys']]) {
+      what.append(new Option(text, value));
+    }
+    what.value = unknown ?? '';
+    what.addEventListener('change', () => {
+      if (!what.value) delete state.doc.solve;
+      else state.doc.solve = what.value === 'quantity' ? { for: 'quantity', budget: 100000 }
+        : what.value === 'strike' ? { for: 'strike', leg: contractKey(state.doc) === 'option' ? 0 : 1, target_premium: 0 }
+          : { for: 'volatility', target_premium: Number((state.price?.premium ?? 1).toPrecision(3)) };
+      render();
+      changed(0);
+    });
+    const parts = [make('div', { className: 'row' }, [field('Find', what)])];
+    if (unknown === 'volatility' || unknown === 'strike') {
+      const row = [field('Target premium per unit', bound('solve.target_premium', 'number', unknown === 'strike' ? '0 = zero cost' : ''))];
+      if (unknown === 'strike' && contractKey(state.doc) !== 'option') row.push(field('Leg (0 = first)', bound('solve.leg', 'number', '0')));
+      parts.push(make('div', { className: 'row' }, row));
+    } else if (unknown === 'quantity') {
+      parts.push(make('div', { className: 'row' }, [field('Budget', bound('solve.budget', 'number', '')), field('Lot size', bound('solve.lot_size', 'number', 'none'))]));
+    }
+    parts.push(make('span', { className: 'field-error', dataset: { error: 'solve' }, role: 'alert' }));
+    controls.replaceChildren(...parts);
+    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
+    bindControls(controls);
+    if (!unknown) output.replaceChildren();
+  }
+
+  function apply(r, price) {
+    const unknown = state.doc.solve?.for;
+    let done = '';
+    if (unknown === 'volatility') {
+      state.doc.market.volatility = Number(r.solution.toPrecision(6));
+      done = `volatility ${formatPercent(state.doc.market.volatility, 2)}`;
+    } else if (unknown === 'quantity') {
+      state.doc.quantity = r.quantity_in_lots ?? Number(r.solution.toPrecision(8));
+      done = `quantity ${inputText(state.doc.quantity)}`;
+    } else if (unknown === 'strike') {
+      const path = strikePath(state.doc, r.leg, price?.legs?.[r.leg]?.strike);
+      if (!path) return;
+      const value = Number(r.solution.toPrecision(6));
+      setPath(state.doc, path, value);
+      done = `strike ${inputText(value)}`;
+    }
+    delete state.doc.solve;
+    notice(`Applied the solution to the trade: ${done}.`);
+    document.dispatchEvent(new CustomEvent('hedgeleaf:refill'));
+    changed(0);
+  }
+
+  function draw(r, price) {
+    const unknown = state.doc.solve?.for;
+    const text = unknown === 'volatility' ? `Volatility ${formatPercent(r.solution, 3)}`
+      : unknown === 'quantity' ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
+        : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
+    const use = make('button', { type: 'button', className: 'small', text: 'Use it in the trade' });
+    use.addEventListener('click', () => apply(r, price));
+    const solution = make('p', { className: 'equation' }, [make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text })]);
+    output.replaceChildren(solution, use, make('p', { className: 'hint', text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; ') }));
+  }
+
+  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
+  return {
+    setup() {
+      card.hidden = !has();
+      render();
+    },
+    render,
+    async update(doc, price, generation) {
+      if (!has() || !card.open || !doc.solve) return;
+      try {
+        const r = await live.call('solve', doc);
+        if (generation !== state.generation) return;
+        draw(r, price);
+        setStale(['solve'], false);
+      } catch (err) {
+        if (generation !== state.generation || err instanceof Cancelled) return;
+        setStale(['solve'], true);
+        if (err instanceof EngineError) showError(err.field, err.message);
+      }
+    },
+  };
+}
