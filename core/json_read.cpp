@@ -8,6 +8,24 @@
 
 namespace hedgeleaf {
 
+namespace {
+// Edit distance, for the did-you-mean hint on unknown fields.
+std::size_t distance(const std::string& a, const std::string& b) {
+    std::vector<std::size_t> row(b.size() + 1);
+    for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
+    for (std::size_t i = 1; i <= a.size(); ++i) {
+        std::size_t diag = row[0];
+        row[0] = i;
+        for (std::size_t j = 1; j <= b.size(); ++j) {
+            const std::size_t up = row[j];
+            row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] == b[j - 1] ? 0 : 1)});
+            diag = up;
+        }
+    }
+    return row[b.size()];
+}
+}  // namespace
+
 std::string format_number(double x) {
     if (std::isnan(x)) return "NaN";
     if (std::isinf(x)) return x > 0 ? "infinity" : "-infinity";
@@ -28,7 +46,7 @@ std::string describe(const json& value) {
             std::string shown = s.size() > 40 ? s.substr(0, 40) + "..." : s;
             return "string \"" + shown + "\"";
         }
-        case json::value_t::array: return "a list";
+        case json::value_t::array: return value.empty() ? "an empty list" : "a list";
         case json::value_t::object: return "an object";
         case json::value_t::number_integer:
         case json::value_t::number_unsigned:
@@ -63,7 +81,14 @@ bool field_reader::has(const std::string& key) const {
 
 const json& field_reader::raw(const std::string& key) {
     seen_.insert(key);
-    if (!object_.contains(key)) fail(child(key), "is required but missing");
+    if (!object_.contains(key)) {
+        // A near miss among the keys given ("volatilty") is the likely cause; name it here,
+        // because finish(), which would flag it as unknown, is never reached.
+        for (auto it = object_.begin(); it != object_.end(); ++it)
+            if (!seen_.count(it.key()) && it.key().size() <= 60 && distance(it.key(), key) < 3)
+                fail(child(key), "is required but missing; \"" + it.key() + "\" looks like a misspelling of it");
+        fail(child(key), "is required but missing");
+    }
     return object_.at(key);
 }
 
@@ -137,23 +162,6 @@ std::string field_reader::choice_or(const std::string& key, const std::vector<st
     return choice(key, choices);
 }
 
-namespace {
-// Edit distance, for the did-you-mean hint on unknown fields.
-std::size_t distance(const std::string& a, const std::string& b) {
-    std::vector<std::size_t> row(b.size() + 1);
-    for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
-    for (std::size_t i = 1; i <= a.size(); ++i) {
-        std::size_t diag = row[0];
-        row[0] = i;
-        for (std::size_t j = 1; j <= b.size(); ++j) {
-            const std::size_t up = row[j];
-            row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] == b[j - 1] ? 0 : 1)});
-            diag = up;
-        }
-    }
-    return row[b.size()];
-}
-}  // namespace
 
 void field_reader::finish() const {
     for (auto it = object_.begin(); it != object_.end(); ++it) {

@@ -192,6 +192,8 @@ option_leg read_option_leg(field_reader& r, const time_reader& times, bool signe
 }
 
 json parse_json_text(const std::string& text) {
+    // nlohmann reports empty input as an error at character 1; say what it is.
+    if (text.find_first_not_of(" \t\r\n") == std::string::npos) fail("", "not a valid JSON document (empty input)");
     json doc = json::parse(text, nullptr, false);
     if (doc.is_discarded()) {
         try {
@@ -200,6 +202,9 @@ json parse_json_text(const std::string& text) {
         } catch (const json::parse_error& e) {
             fail("", std::string("not a valid JSON document (") +
                          (e.byte > 0 ? "near character " + std::to_string(e.byte) : "empty input") + ")");
+        } catch (const json::exception&) {
+            // e.g. out_of_range 406 for 1e400: found by tests/fuzz, was an "internal error".
+            fail("", "not a valid JSON document (a number is too large to read)");
         }
         fail("", "not a valid JSON document");
     }
