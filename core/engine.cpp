@@ -4,6 +4,7 @@
 #include "hedge.hpp"
 #include "ladder.hpp"
 #include "pricer.hpp"
+#include "profile.hpp"
 #include "replication.hpp"
 #include "simulate.hpp"
 #include "solver.hpp"
@@ -24,6 +25,7 @@ const std::map<std::string, command_fn>& commands() {
         {"simulate", simulate_command},
         {"tree", tree_command},
         {"solve", solve_json},
+        {"profile", profile_json},
         {"ladder", ladder_json},
     };
     return table;
