@@ -27,7 +27,7 @@ const readExample = (name) => readFileSync(join(root, 'examples', name), 'utf8')
 
 /** Commands that apply to an example: price always, a section's own command when it has one. */
 function commandsFor(doc) {
-  const own = { hedge: ['hedge'], solve: ['solve'], ladder: ['ladder'], profile: ['profile'] };
+  const own = { hedge: ['hedge', 'tree'], simulate: ['simulate'], solve: ['solve'], ladder: ['ladder'], profile: ['profile'] };
   const list = ['price'];
   for (const [section, commands] of Object.entries(own)) if (doc[section]) list.push(...commands);
   return list.filter((c) => engine.commands.includes(c));

@@ -36,6 +36,15 @@ const state = {
   storageWarning: null,
 };
 
+/** The browser's local storage, or null where it is switched off (reading it may throw). */
+const storage = (() => {
+  try {
+    return globalThis.localStorage ?? null;
+  } catch {
+    return null;
+  }
+})();
+
 // ---------------------------------------------------------------- engine
 const engineText = $('engine-js').textContent;
 const workerUrl = URL.createObjectURL(new Blob([engineText, '\n', $('worker-js').textContent], { type: 'text/javascript' }));
@@ -375,7 +384,7 @@ async function refreshSheet(doc, price) {
 
 // ---------------------------------------------------------------- saving and sharing
 function saveLocally() {
-  const problem = autosave(localStorage, { seed: state.seed, trade: state.doc, saved: new Date().toISOString() });
+  const problem = autosave(storage, { seed: state.seed, trade: state.doc, saved: new Date().toISOString() });
   if (problem !== state.storageWarning) {
     state.storageWarning = problem;
     notice(problem ?? '', problem ? 'warning' : 'info');
@@ -472,7 +481,7 @@ function initialTrade() {
   } catch (err) {
     notice(`The trade in the link could not be read (${err.message}); showing the last trade instead.`, 'warning');
   }
-  const saved = loadAutosave(localStorage);
+  const saved = loadAutosave(storage);
   if (saved && saved.seed === state.seed && saved.trade && typeof saved.trade === 'object') return { doc: saved.trade };
   if (embedded) return { doc: JSON.parse(embedded) };
   return { doc: JSON.parse($('example-trade').textContent) };

@@ -46,6 +46,7 @@ const storageKey = 'hedgeleaf.autosave.v1';
 /** Save {seed, trade, extras}; returns null or the reason it failed (quota full, storage off). */
 export function autosave(storage, record) {
   try {
+    if (!storage) throw new Error('no storage');
     storage.setItem(storageKey, JSON.stringify(record));
     return null;
   } catch (err) {
@@ -59,7 +60,7 @@ export function autosave(storage, record) {
 /** The autosaved record, or null. */
 export function loadAutosave(storage) {
   try {
-    const text = storage.getItem(storageKey);
+    const text = storage?.getItem(storageKey);
     return text ? JSON.parse(text) : null;
   } catch {
     return null;
