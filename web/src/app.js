@@ -308,7 +308,7 @@ async function recompute() {
     document.body.classList.remove('busy');
     clearErrors();
     reportFailure(err);
-    setStale(['price', 'profile', 'hedge', 'simulate'], true);
+    setStale(['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'], true);
     return;
   }
   if (generation !== state.generation) return;
