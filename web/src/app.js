@@ -54,11 +54,20 @@ const live = new EngineChannel(makeWorker, mainThreadFactory);
 let liveStarted = 0;
 
 // ---------------------------------------------------------------- messages
-function notice(text, kind = 'info') {
+/** Show a line at the top; `action` = {label, run} adds a button to it (e.g. Undo). */
+function notice(text, kind = 'info', action = null) {
   const banner = $('notice');
   banner.textContent = text;
   banner.dataset.kind = kind;
   banner.hidden = !text;
+  if (action) {
+    const button = document.createElement('button');
+    button.type = 'button';
+    button.className = 'small';
+    button.textContent = action.label;
+    button.addEventListener('click', action.run);
+    banner.append(' ', button);
+  }
 }
 
 function clearErrors(prefixes) {
@@ -391,11 +400,13 @@ function saveLocally() {
   }
 }
 
+/** Replace the trade on screen; the one it replaces can be brought back once with Undo. */
 function adopt(doc, message) {
+  const previous = state.doc;
   state.doc = doc;
   fillForm();
   changed(0);
-  if (message) notice(message);
+  if (message) notice(message, 'info', previous && { label: 'Undo', run: () => adopt(previous, 'Brought back the previous trade.') });
 }
 
 function fileName(ext) {
@@ -463,7 +474,7 @@ function newTrade() {
     option: { type: 'call', strike: spot, expiry_date: addYears(today, 0.5), exercise: 'american' },
     quantity: 1000,
     side: 'buy',
-  }, 'Started a new trade (at the money, six months). Save the file to keep the previous one, or undo with Open file.');
+  }, 'Started a new trade: at the money, six months, valued today.');
 }
 
 // ---------------------------------------------------------------- start
