@@ -14,7 +14,7 @@ const root = dirname(web);
 const { chromium } = createRequire(join(web, 'package.json'))('playwright-core');
 
 const trade = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
-trade.quote = { client: 'Orchard Lane Growers (treasury)', currency: 'EUR' };
+trade.quote = { client: 'Orchard Lane Growers (treasury)', currency: 'EUR', margin_type: 'fraction_of_premium', margin: 0.02, tick: 0.01 };
 const url = `${pathToFileURL(join(root, 'dist/hedgeleaf.html')).href}#trade=${Buffer.from(JSON.stringify(trade)).toString('base64url')}`;
 
 const browser = await chromium.launch({ executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu'] });

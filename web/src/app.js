@@ -149,11 +149,21 @@ function updateVisibility() {
   $('expiry-date-field').hidden = mode !== 'date';
   $('expiry-tenor-field').hidden = mode !== 'tenor';
   $('exercise-dates-field').hidden = holder?.exercise !== 'bermudan';
+  updateMarginField();
   const bermudan = form.querySelector('[data-role="exercise"] option[value="bermudan"]');
   bermudan.disabled = key === 'structure';
   const shape = key === 'structure' ? holder.shape : key;
   $('shape').value = shape in shapes || shape === 'option' || shape === 'legs' ? shape : 'option';
   $('shape-hint').textContent = key === 'structure' ? shapes[holder.shape]?.[1] ?? '' : key === 'legs' ? 'Each leg is its own option with a signed quantity per unit of the structure.' : '';
+}
+
+/** The margin is typed in price units, percent of the premium or volatility points, by its type. */
+function updateMarginField() {
+  const type = state.doc.quote?.margin_type ?? 'absolute';
+  const input = $('margin-input');
+  input.dataset.kind = type === 'absolute' ? 'number' : 'percent';
+  $('margin-label').textContent = { absolute: 'Margin per unit', fraction_of_premium: 'Margin, % of premium', volatility: 'Margin, vol points' }[type] ?? 'Margin';
+  fillInput(state.doc, input);
 }
 
 function labelled(text, input, className = 'field') {
@@ -280,7 +290,7 @@ function onInput(event) {
     updateVisibility();
   }
   // choices that change which fields a card shows: redraw the card, keep the focus
-  const redraw = { 'ladder.kind': () => ladder.render(), 'hedge.path.shape': () => hedge.render() }[input.dataset.path];
+  const redraw = { 'ladder.kind': () => ladder.render(), 'hedge.path.shape': () => hedge.render(), 'quote.margin_type': updateMarginField }[input.dataset.path];
   if (redraw) {
     redraw();
     scope.querySelector(`[data-path="${input.dataset.path}"]`)?.focus();

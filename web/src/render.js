@@ -44,18 +44,30 @@ function expiryText(doc, result) {
   return e.expiry_date ? `${e.expiry_date} (${years})` : years;
 }
 
+/** Decimals for a per-unit price: 4 below 100, else 2. */
+function perUnitDigitsOf(x) {
+  return Math.abs(x) < 100 ? 4 : 2;
+}
+
 /** Fill every price figure from a `price` result. */
 export function renderPrice(doc, r) {
   const q = r.position.quantity;
   const sign = r.position.side === 'sell' ? -1 : 1;
-  const perUnitDigits = Math.abs(r.premium) < 100 ? 4 : 2;
+  const perUnitDigits = perUnitDigitsOf(r.premium);
   setResult('premium', formatNumber(r.premium, perUnitDigits), r.premium);
   setResult('premium-total', formatNumber(q * r.premium, 2), q * r.premium);
   setResult('premium-percent-spot', formatPercent(r.premium / r.spot, 2), r.premium / r.spot);
   setResult('notional', formatNumber(q * r.spot, 2), q * r.spot);
   setResult('premium-percent-notional', formatPercent((q * r.premium) / (q * r.spot), 2), r.premium / r.spot);
 
-  for (const node of document.querySelectorAll('.client-price')) node.hidden = !r.client_price;
+  const cp = r.client_price;
+  for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
+  if (cp) {
+    setResult('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))} ${cp.currency}`, cp.per_unit);
+    setResult('client-price-total', formatNumber(cp.total, 2), cp.total);
+    setResult('desk-margin-total', formatNumber(cp.desk_margin_total, 2), cp.desk_margin_total);
+    document.getElementById('client-side').textContent = `per unit, ${cp.client_side}`;
+  }
 
   const g = r.greeks;
   const p = r.position.greeks;
@@ -136,10 +148,11 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
     ['Premium in total', `${formatNumber(q * r.premium, 2)}${ccy}`],
     ['Premium, % of spot', formatPercent(r.premium / r.spot, 2)],
   ];
-  if (r.client_price && typeof r.client_price === 'object') {
+  if (r.client_price) {
     const cp = r.client_price;
-    if (typeof cp.per_unit === 'number') figures.push(['Client price per unit', `${formatNumber(cp.per_unit, 4)}${ccy}`]);
-    if (typeof cp.total === 'number') figures.push(['Client price in total', `${formatNumber(cp.total, 2)}${ccy}`]);
+    figures.push([`Client price per unit (${cp.client_side})`, `${formatNumber(cp.per_unit, 4)}${ccy}`]);
+    figures.push(['Client price in total', `${formatNumber(cp.total, 2)}${ccy}`]);
+    figures.push(['Client price, % of notional', formatPercent(cp.fraction_of_notional, 2)]);
   }
   figures.push(['Delta per unit', formatNumber(r.greeks.delta, 4)]);
   figures.push(['Position delta (shares)', formatNumber(r.position.greeks.delta, 2)]);
