@@ -18,11 +18,12 @@ trade.quote = { client: 'Orchard Lane Growers (treasury)', currency: 'EUR', marg
 const url = `${pathToFileURL(join(root, 'dist/hedgeleaf.html')).href}#trade=${Buffer.from(JSON.stringify(trade)).toString('base64url')}`;
 
 const browser = await chromium.launch({ executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu'] });
-const context = await browser.newContext({ viewport: { width: 1360, height: 1180 }, deviceScaleFactor: 1 });
+const context = await browser.newContext({ viewport: { width: 1360, height: 1150 }, deviceScaleFactor: 1 });
 await context.setOffline(true);
 const page = await context.newPage();
 await page.goto(url);
 await page.locator('#profile-chart svg path').first().waitFor({ timeout: 20000 });
+await page.evaluate(() => { document.getElementById('notice').hidden = true; });  // the 'opened from the link' line
 await page.waitForTimeout(500);
 mkdirSync(join(root, 'docs'), { recursive: true });
 await page.screenshot({ path: join(root, 'docs/page.png') });
