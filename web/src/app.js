@@ -316,8 +316,13 @@ function changed(delay = 250) {
 async function recompute() {
   const generation = (state.generation += 1);
   const doc = structuredClone(state.doc);
-  if (live.busy && performance.now() - liveStarted > 800) live.cancel();  // a huge lattice: stop it, start afresh
-  liveStarted = performance.now();
+  // Work for an older trade still running after 0.8 s (a huge lattice): stop it and start afresh
+  // rather than queue behind it.
+  if (!live.busy) liveStarted = performance.now();
+  else if (performance.now() - liveStarted > 800) {
+    live.cancel();
+    liveStarted = performance.now();
+  }
   document.body.classList.add('busy');
   let price;
   try {
