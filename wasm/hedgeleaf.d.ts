@@ -108,8 +108,22 @@ export interface PriceResult {
   spot: number;
   expiry_years: number;
   engine_version: string;
-  [more: string]: unknown;               // e.g. client_price when the trade has a quote section
+  /** Present when the trade has a `quote` section (currency required). */
+  client_price?: {
+    currency: string;                    // ISO 4217, three capital letters
+    margin_type: "absolute" | "fraction_of_premium" | "volatility";
+    margin: number;                      // price units, fraction of premium, or volatility (decimal)
+    tick: number | null;
+    mid: PriceLevel; bid: PriceLevel; offer: PriceLevel;
+    client_side: string;                 // "buys at the offer" | "sells at the bid"
+    per_unit: number; total: number; fraction_of_notional: number; notional: number;
+    desk_margin_total: number;
+    client: string | null; notes: string | null;  // plain text: show with textContent only
+    caution: string;
+  };
 }
+
+export interface PriceLevel { per_unit: number; total: number; fraction_of_notional: number }
 
 // ---------------------------------------------------------------------------
 // The other commands, as far as the page reads them (full fields: README and
