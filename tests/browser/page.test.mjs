@@ -76,13 +76,14 @@ async function premiumShown(page) {
   return Number(await until(page, () => document.querySelector('[data-result="premium"]')?.dataset.value));
 }
 
-/** The premium the CLI prints for the example (the module, if no native build is around). */
-async function cliPremium(text) {
-  if (existsSync(cli)) return JSON.parse(execFileSync(cli, ['price', '-'], { input: text, encoding: 'utf8' })).premium;
+/** The price result the CLI prints for a trade (the module's, if no native build is around). */
+async function cliResult(text) {
+  if (existsSync(cli)) return JSON.parse(execFileSync(cli, ['price', '-'], { input: text, encoding: 'utf8' }));
   const { loadEngine } = await import('../../web/src/engine.js');
   const engine = await loadEngine(createRequire(import.meta.url)(join(root, 'build/wasm/hedgeleaf.js')));
-  return engine.run('price', text).premium;
+  return engine.run('price', text);
 }
+const cliPremium = async (text) => (await cliResult(text)).premium;
 
 test('opens from file:// offline and prices the example as the CLI does', async () => {
   const page = await open();
@@ -136,8 +137,10 @@ test('export then import gives back the same trade; a bad file is refused', asyn
   await page.close();
 });
 
-test('the print view is the quote sheet, with the cautions', async () => {
-  const page = await open();
+test('the print view is the quote sheet, with the cautions; client text stays text', async () => {
+  const trade = JSON.parse(exampleText);
+  trade.quote = { client: '<b>Orchard</b> & Lane', notes: '<img src=x>', currency: 'EUR', margin_type: 'fraction_of_premium', margin: 0.02, tick: 0.01 };
+  const page = await open(linkTo(JSON.stringify(trade)));
   await page.emulateMedia({ media: 'print' });
   const sheet = page.locator('#quote-sheet');
   assert.ok(await sheet.isVisible());
@@ -149,6 +152,12 @@ test('the print view is the quote sheet, with the cautions', async () => {
   }
   assert.match(text, /Premium per unit\s+3\.\d{4}/);
   assert.match(text, /Input fingerprint\s+[0-9a-f]{12}/);
+  // the client price is the engine's (3.0822 + 2 %, up to the 0.01 tick); an engine without quotes shows none
+  const clientPrice = (await cliResult(JSON.stringify(trade))).client_price;
+  if (clientPrice) assert.match(text, new RegExp(`Client price per unit \\(buys at the offer\\)\\s+${clientPrice.per_unit.toFixed(4)} EUR`));
+  else assert.ok(!text.includes('Client price'));
+  assert.ok(text.includes('<b>Orchard</b> & Lane') && text.includes('<img src=x>'), 'client text shown as typed');
+  assert.equal(await page.locator('#quote-sheet b, #quote-sheet img, .workbench b').count(), 0, 'client text never becomes HTML');
   const pdf = await page.pdf({ format: 'A4' });
   assert.ok(pdf.length > 10000);
   await page.close();
