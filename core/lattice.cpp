@@ -13,12 +13,22 @@ namespace hedgeleaf {
 namespace {
 
 // Peizer-Pratt inversion (method 2) of a normal quantile onto a binomial with n
-// steps, as used by Leisen and Reimer (1996).
-double peizer_pratt(double z, int n) {
+// steps, as used by Leisen and Reimer (1996), as logarithms of p and of 1 - p.
+// Far from the strike (|z| beyond about 6 sqrt(n): deep in or out of the money at
+// low volatility) p rounds to 1 or 0 while 1 - p or p is still tiny but exact here,
+// so the step stays defined (was "breaks no-arbitrage, down 0, up 0").
+struct log_probability {
+    double p;           ///< log p
+    double not_p;       ///< log (1 - p)
+};
+log_probability peizer_pratt(double z, int n) {
     const double nn = static_cast<double>(n);
     const double a = z / (nn + 1.0 / 3.0 + 0.1 / (nn + 1.0));
-    const double root = std::sqrt(1.0 - std::exp(-a * a * (nn + 1.0 / 6.0)));
-    return 0.5 + std::copysign(0.5, z) * root;
+    const double x = a * a * (nn + 1.0 / 6.0);
+    const double root = std::sqrt(-std::expm1(-x));                   // sqrt(1 - e^-x)
+    const double log_big = std::log1p(root) - std::log(2.0);           // log (1 + root) / 2
+    const double log_small = -x - std::log(2.0) - std::log1p(root);    // log (1 - root) / 2
+    return z >= 0 ? log_probability{log_big, log_small} : log_probability{log_small, log_big};
 }
 
 bool is_vanilla(payoff_kind k) { return k == payoff_kind::call || k == payoff_kind::put; }
@@ -86,16 +96,20 @@ lattice_step make_step(lattice_method method, const market_data& m, double strik
             const double vol_t = sigma * std::sqrt(expiry);
             const double d1 = (std::log(s / strike) + (b + 0.5 * sigma * sigma) * expiry) / vol_t;
             const double d2 = d1 - vol_t;
-            const double p = peizer_pratt(d2, steps);
-            const double p_bar = peizer_pratt(d1, steps);
-            if (p > 0 && p < 1) {
-                st.up = st.growth * p_bar / p;
-                st.down = (st.growth - p * st.up) / (1 - p);
-            }
+            // up = growth p'/p and down = (growth - p up) / (1 - p) = growth (1 - p')/(1 - p),
+            // taken as ratios of logarithms so neither cancels nor underflows.
+            const log_probability p = peizer_pratt(d2, steps);
+            const log_probability p_bar = peizer_pratt(d1, steps);
+            st.up = st.growth * std::exp(p_bar.p - p.p);
+            st.down = st.growth * std::exp(p_bar.not_p - p.not_p);
             break;
         }
     }
-    if (!(st.down > 0 && st.down < st.growth && st.growth < st.up && std::isfinite(st.up))) {
+    // growth may equal up (or down) when the up (down) probability rounds to 1: the
+    // step is then the forward itself, which prices such a far-off strike exactly.
+    // growth may equal up (or down) when the up (down) probability rounds to 1: the
+    // step is then the forward itself, which prices such a far-off strike exactly.
+    if (!(st.down > 0 && st.down <= st.growth && st.growth <= st.up && st.down < st.up && std::isfinite(st.up))) {
         fail("market.volatility",
              "the " + to_string(method) + " lattice breaks no-arbitrage (needs 0 < down < growth < up; got down " +
                  format_number(st.down) + ", growth " + format_number(st.growth) + ", up " + format_number(st.up) +
