@@ -5,6 +5,7 @@
 #include "ladder.hpp"
 #include "pricer.hpp"
 #include "profile.hpp"
+#include "quote.hpp"
 #include "replication.hpp"
 #include "simulate.hpp"
 #include "solver.hpp"
@@ -20,7 +21,12 @@ using command_fn = std::function<json(const trade&)>;
 
 const std::map<std::string, command_fn>& commands() {
     static const std::map<std::string, command_fn> table = {
-        {"price", [](const trade& t) { return price_result_json(t, price_trade(t)); }},
+        {"price", [](const trade& t) {
+             const trade_result priced = price_trade(t);
+             json out = price_result_json(t, priced);
+             if (json client = client_price_json(t, priced); !client.is_null()) out["client_price"] = client;
+             return out;
+         }},
         {"hedge", hedge_command},
         {"simulate", simulate_command},
         {"tree", tree_command},

@@ -2,6 +2,7 @@
 #include "ladder.hpp"
 
 #include "lattice.hpp"
+#include "quote.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -252,6 +253,23 @@ json ladder_json(const trade& t) {
              {"lattice", {{"method", to_string(t.lattice.method)},
                           {"steps", effective_steps(t.lattice.method, steps)}, {"extrapolated", true}}},
              {"rows", rows}};
+    // Column order for --table and --csv: the scenario first, then its figures.
+    json columns = json::array();
+    if (kind == "spot" || kind == "grid") columns.push_back("spot_shift");
+    if (kind == "volatility" || kind == "grid") columns.push_back("vol_shift");
+    if (kind == "time") {
+        columns.push_back("days");
+        if (t.valuation_date) columns.push_back("date");
+        columns.push_back("years");
+    }
+    columns.push_back("spot");
+    if (kind == "volatility" || kind == "grid") columns.push_back("volatility");
+    const bool greeks = kind != "grid";
+    for (const char* c : {"value", "pnl"}) columns.push_back(c);
+    if (greeks) for (const char* c : {"delta", "gamma"}) columns.push_back(c);
+    columns.push_back("position_pnl");
+    if (greeks) for (const char* c : {"position_delta", "position_gamma"}) columns.push_back(c);
+    out["columns"] = columns;
     if (kind == "grid")
         out["grid"] = {{"spot_shifts", spot_points}, {"vol_shifts", vol_points}, {"pnl", grid_pnl},
                        {"position_pnl", grid_position}};
@@ -262,6 +280,7 @@ json ladder_json(const trade& t) {
         notes.push_back("spot and volatility held; legs that have expired are paid at their payoff at today's spot; "
                         "dividends paid by then drop out; premium is not carried");
     out["notes"] = notes;
+    out["caution"] = client_caution();
     return out;
 }
 

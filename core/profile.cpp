@@ -5,6 +5,7 @@
 #include "ladder.hpp"
 #include "lattice.hpp"
 #include "pricer.hpp"
+#include "quote.hpp"
 #include "solver.hpp"
 
 #include <algorithm>
@@ -214,7 +215,9 @@ json profile_json(const trade& t) {
              {"quantity", t.quantity},
              {"side", t.client_sells ? "sell" : "buy"},
              {"lattice", {{"method", to_string(t.lattice.method)}, {"steps", effective_steps(t.lattice.method, steps)}}},
-             {"rows", rows}};
+             {"rows", rows},
+             {"columns", {"spot", "spot_change", "payoff", "pnl_at_expiry", "value_today", "pnl_today",
+                          "position_pnl_at_expiry", "position_pnl_today"}}};
     if (t.valuation_date) out["horizon_date"] = to_iso(add_days(*t.valuation_date, std::lround(horizon * 365)));
 
     json notes = json::array();
@@ -254,6 +257,7 @@ json profile_json(const trade& t) {
     if (std::any_of(t.legs.begin(), t.legs.end(), is_digital))
         notes.push_back("a digital's payoff jumps at its strike: a break-even there is where the P&L changes sign");
     out["notes"] = notes;
+    out["caution"] = client_caution();
     return out;
 }
 

@@ -3,6 +3,7 @@
 
 #include "closed_form.hpp"
 #include "lattice.hpp"
+#include "quote.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -367,7 +368,9 @@ json solve_json(const trade& t) {
                         "(a digital leg or a coarse lattice); check the legs at the solution");
     out["pricing"] = pricing_label(t.legs);
     out["method"] = unknown == "quantity" ? "direct" : "brent";
+    out["columns"] = {"leg", "type", "strike", "expiry_years", "exercise", "quantity", "premium"};
     out["notes"] = notes;
+    out["caution"] = client_caution();
     return out;
 }
 

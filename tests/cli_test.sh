@@ -48,5 +48,32 @@ out=$("$cli" tree "$root/examples/hedge-tree-path.json"); code=$?
 check "tree exits 0" '[ $code -eq 0 ]'
 check "tree shows the path" 'echo "$out" | grep -q "\"moves\": \"DDUDDDD\""'
 
+# solve, ladder, profile and the client price (core/solver, core/ladder, core/profile, core/quote)
+one_bad() {  # command, document, expected message: exit 2 and exactly that one line
+    local err code want=$3
+    err=$(echo "$2" | "$cli" "$1" - 2>&1 >/dev/null); code=$?
+    check "$1: $want (exit 2)" '[ $code -eq 2 ]'
+    check "$1: $want (message, got: $err)" '[ "$err" = "$want" ]'
+    check "$1: $want (one line)" '[ $(echo "$err" | wc -l) -eq 1 ]'
+}
+out=$("$cli" solve "$root/examples/zero-cost-collar.json"); code=$?
+check "solve exits 0" '[ $code -eq 0 ]'
+check "solve prints solution, residual, iterations" 'echo "$out" | grep -q "\"solution\"" && echo "$out" | grep -q "\"residual\"" && echo "$out" | grep -q "\"iterations\""'
+check "solve --table shows the legs" '"$cli" solve "$root/examples/zero-cost-collar.json" --table | grep -Eq "^ +leg +type +strike"'
+out=$("$cli" ladder "$root/examples/ladder-spot.json" --csv); code=$?
+check "ladder --csv exits 0" '[ $code -eq 0 ]'
+check "ladder --csv header" '[ "$(echo "$out" | head -1)" = "spot_shift,spot,value,pnl,delta,gamma,position_pnl,position_delta,position_gamma" ]'
+check "ladder --csv has one line per spot" '[ $(echo "$out" | wc -l) -eq 10 ]'
+check "ladder grid is 21 x 11" '[ $("$cli" ladder "$root/examples/ladder-grid.json" --csv | wc -l) -eq 232 ]'
+out=$("$cli" profile "$root/examples/zero-cost-collar.json"); code=$?
+check "profile exits 0" '[ $code -eq 0 ]'
+check "profile prints break-evens" 'echo "$out" | grep -q "\"break_even\""'
+m='"market":{"spot":36.4,"volatility":0.27,"rate":0.032},"option":{"type":"put","strike":34,"expiry_years":1}'
+one_bad solve "{$m,\"solve\":{\"for\":\"volatility\",\"target_premium\":2,\"uper\":1}}" 'solve.uper: unknown field (did you mean "upper"?)'
+one_bad solve '{"market":{"spot":36.4,"volatility":0.27,"rate":0},"option":{"type":"put","strike":34,"expiry_years":1},"solve":{"for":"volatility","target_premium":40}}' 'solve.target_premium: 40 is at or above the no-arbitrage upper bound of the european put, 34 (strike·e^(-rate·T): a put is never worth more than the strike paid at expiry)'
+one_bad ladder "{$m,\"ladder\":{\"kind\":\"spot\",\"spot_step\":-0.01}}" 'ladder.spot_step: must be > 0, got -0.01'
+one_bad profile "{$m,\"profile\":{\"points\":1}}" 'profile.points: must be between 2 and 501, got 1'
+one_bad price "{$m,\"quote\":{\"currency\":\"eur\"}}" 'quote.currency: must be an ISO 4217 currency code of three capital letters (e.g. EUR, USD, GBP), got string "eur"'
+
 echo "cli: $passes passed, $fails failed"
 [ $fails -eq 0 ]
