@@ -107,8 +107,6 @@ lattice_step make_step(lattice_method method, const market_data& m, double strik
     }
     // growth may equal up (or down) when the up (down) probability rounds to 1: the
     // step is then the forward itself, which prices such a far-off strike exactly.
-    // growth may equal up (or down) when the up (down) probability rounds to 1: the
-    // step is then the forward itself, which prices such a far-off strike exactly.
     if (!(st.down > 0 && st.down <= st.growth && st.growth <= st.up && st.down < st.up && std::isfinite(st.up))) {
         fail("market.volatility",
              "the " + to_string(method) + " lattice breaks no-arbitrage (needs 0 < down < growth < up; got down " +
@@ -183,7 +181,11 @@ struct sweep {
     double pu = 0, pd = 0;  // discounted up and down probabilities
     double log_s0 = 0, log_d = 0, log_ratio = 0, dt = 0;
     double inv_up = 0, inv_down = 0;  // 1/u and 1/d
+    double p_low = 0, p_high = 0;     // the lower and higher of the up probabilities under the
+                                      // pricing measure and the share measure (p u / growth)
+    bool full = true;                 // sweep every node (no truncation)
     bool early = false, has_dividends = false;
+    double updates = 0;               // node updates done
     double row1[2] = {0, 0}, row2[3] = {0, 0, 0};
 };
 
@@ -242,6 +244,8 @@ enum class row_rule : unsigned char { hold, put, call, general };
 
 struct row_plan {
     row_rule rule = row_rule::hold;
+    int lo = 0, hi = 0;            // nodes swept: [lo, hi] (the probable band, or the whole row)
+    int next_lo = 0, next_hi = 0;  // the band of the row below (row n + 1)
     int split = 0;             // put: exercise can pay in [0, split); call: in [split, n]
     double factor = 0;         // node i's diffusing spot is factor * r[i]
     double level = 0;          // strike - pv of the dividends still to come
@@ -255,10 +259,36 @@ struct row_plan {
 struct row_tracker {
     int n = -1, centre = 0, put_split = -1, call_split = -1;
     double factor = 0;
+    int band_lo = 0, band_hi = 0;  // band of the last row planned
 };
 
-void plan_row(const sweep& w, int n, row_plan& plan, row_tracker& track) {
+// The probable band of row n. Node i of row n is reached after i up moves in n:
+// a binomial count. By Hoeffding's inequality (1963) it strays t from its mean
+// with probability at most 2 exp(-2 t^2 / n); with t = 6 sqrt(n) + 1 that is
+// below 1e-31 per row, 1e-26 over 50,000 rows. Outside the band of both
+// measures (the pricing one, and the share one that weighs a call's payoff by
+// spot) a path contributes less than that fraction of the premium, so those
+// nodes are skipped and read as zero: the premium moves by far less than
+// rounding, and a long lattice costs about 12 sqrt(n) nodes a row, not n.
+void row_band(const sweep& w, int n, int& lo, int& hi) {
+    if (w.full) {
+        lo = 0;
+        hi = n;
+        return;
+    }
+    const double t = 6.0 * std::sqrt(static_cast<double>(n)) + 1.0;
+    lo = static_cast<int>(std::max(0.0, std::floor(n * w.p_low - t)));
+    hi = static_cast<int>(std::min(static_cast<double>(n), std::ceil(n * w.p_high + t)));
+}
+
+void plan_row(sweep& w, int n, row_plan& plan, row_tracker& track) {
     plan = row_plan{};
+    plan.next_lo = track.band_lo;
+    plan.next_hi = track.band_hi;
+    row_band(w, n, plan.lo, plan.hi);
+    track.band_lo = plan.lo;
+    track.band_hi = plan.hi;
+    w.updates += plan.hi - plan.lo + 1;
     if (!(w.early && w.allowed[n])) return;
     const int h = row_centre(w, n);
     // Exact every 64 rows (bounds the drift of the product), otherwise one multiply:
@@ -294,9 +324,17 @@ void plan_row(const sweep& w, int n, row_plan& plan, row_tracker& track) {
     }
 }
 
-// Row plan.rule's nodes [lo, hi), left to right.
+// Row plan.rule's nodes [lo, hi) within its band, left to right.
 HEDGELEAF_ROW_INLINE void apply_row(const sweep& w, const row_plan& plan, int lo, int hi) {
     double* v = w.v;
+    if (!w.full) {
+        lo = std::max(lo, plan.lo);
+        hi = std::min(hi, plan.hi + 1);
+        if (lo >= hi) return;
+        // Values of row n + 1 read here but outside its band count as zero.
+        for (int j = lo; j <= hi && j < plan.next_lo; ++j) v[j] = 0;
+        for (int j = std::max(lo, plan.next_hi + 1); j <= hi; ++j) v[j] = 0;
+    }
     switch (plan.rule) {
         case row_rule::hold:
             continue_range(v, lo, hi, w.pu, w.pd);
@@ -344,9 +382,10 @@ private:
 // The whole backward induction: one call per price (V8 tiers a function up
 // between calls, not inside a long one).
 HEDGELEAF_SWEEP_CLONES void run_sweep(sweep& w) {
-    const flush_subnormals flush;
+    [[maybe_unused]] const flush_subnormals flush;
     row_plan plans[tile_rows];
     row_tracker track;
+    row_band(w, w.steps, track.band_lo, track.band_hi);
     for (int top = w.steps - 1; top >= 0; top -= tile_rows) {
         const int rows = std::min(tile_rows, top + 1);
         for (int t = 0; t < rows; ++t) plan_row(w, top - t, plans[t], track);
@@ -372,7 +411,8 @@ std::vector<double>& scratch(std::size_t size) {
 
 }  // namespace
 
-induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps) {
+induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps,
+                        lattice_extent extent) {
     const int n_steps = effective_steps(method, steps);
     const double T = leg.expiry;
     const lattice_step st = make_step(method, market, leg.strike, T, n_steps);
@@ -394,6 +434,10 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     w.inv_down = 1 / st.down;
     w.early = leg.exercise != exercise_style::european;
     w.has_dividends = !market.dividends.empty();
+    w.full = extent == lattice_extent::full;
+    const double p_share = std::min(1.0, st.p_up * st.up / st.growth);
+    w.p_low = std::min(st.p_up, p_share);
+    w.p_high = std::max(st.p_up, p_share);
 
     // Centres never decrease with n and nor does n - centre, so row n's powers
     // k = i - centre_n all lie in [-centre_steps, steps - centre_steps]: steps + 1 entries.
@@ -427,6 +471,7 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
 
     induction_result out;
     out.value = w.v[0];
+    out.node_updates = w.updates;
     const double su = s0 * st.up, sd = s0 * st.down;
     out.delta = (row1[1] - row1[0]) / (su - sd);
     double v_at_s0_later;  // value at today's S* one or two steps later
