@@ -41,7 +41,7 @@ int days_in_month(int y, int m) {
 
 date parse_iso_date(const std::string& text, const std::string& field) {
     const auto bad = [&] {
-        std::string shown = text.size() > 40 ? text.substr(0, 40) + "..." : text;
+        std::string shown = text.size() > 40 ? shorten(text, 40) + "..." : text;
         fail(field, "must be a date written YYYY-MM-DD, got \"" + shown + "\"");
     };
     if (text.size() != 10 || text[4] != '-' || text[7] != '-') bad();

@@ -51,7 +51,7 @@ json run_command(const std::string& command, const json& document) {
     if (it == commands().end()) {
         std::string list;
         for (const auto& n : command_names()) list += (list.empty() ? "" : ", ") + n;
-        fail("", "unknown command \"" + command.substr(0, 40) + "\" (one of " + list + ")");
+        fail("", "unknown command \"" + shorten(command, 40) + "\" (one of " + list + ")");
     }
     const trade t = parse_trade(document);
     json result = it->second(t);

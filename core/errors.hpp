@@ -10,12 +10,21 @@
 
 namespace hedgeleaf {
 
+/// At most `bytes` bytes of `text`, cut on a UTF-8 character boundary.
+std::string shorten(const std::string& text, std::size_t bytes);
+
+/// `text` with control characters written out (\n, \r, \t, \u001b, ...), so a
+/// message that quotes the user's text stays one line and cannot steer a terminal.
+std::string one_line(const std::string& text);
+
 /// Bad input: `field` is the JSON path of the offending value, `what()` is
-/// "<field>: <problem>".
+/// "<field>: <problem>", on one line (both pass through one_line: a quoted line
+/// break once split the CLI's one-line message; found by tests/fuzz).
 class input_error : public std::runtime_error {
 public:
     input_error(const std::string& field, const std::string& problem)
-        : std::runtime_error(field.empty() ? problem : field + ": " + problem), field_(field) {}
+        : std::runtime_error(field.empty() ? one_line(problem) : one_line(field) + ": " + one_line(problem)),
+          field_(one_line(field)) {}
     /// JSON path of the offending input ("" when the whole document is at fault).
     const std::string& field() const noexcept { return field_; }
 

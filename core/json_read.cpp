@@ -26,6 +26,32 @@ std::size_t distance(const std::string& a, const std::string& b) {
 }
 }  // namespace
 
+std::string shorten(const std::string& text, std::size_t bytes) {
+    if (text.size() <= bytes) return text;
+    // Back off UTF-8 continuation bytes (10xxxxxx) so no character is cut in half.
+    while (bytes > 0 && (static_cast<unsigned char>(text[bytes]) & 0xC0) == 0x80) --bytes;
+    return text.substr(0, bytes);
+}
+
+std::string one_line(const std::string& text) {
+    std::string out;
+    out.reserve(text.size());
+    for (const char c : text) {
+        const auto u = static_cast<unsigned char>(c);
+        if (c == '\n') out += "\\n";
+        else if (c == '\r') out += "\\r";
+        else if (c == '\t') out += "\\t";
+        else if (u < 0x20 || u == 0x7f) {
+            char buf[8];
+            std::snprintf(buf, sizeof buf, "\\u%04x", u);
+            out += buf;
+        } else {
+            out += c;
+        }
+    }
+    return out;
+}
+
 std::string format_number(double x) {
     if (std::isnan(x)) return "NaN";
     if (std::isinf(x)) return x > 0 ? "infinity" : "-infinity";
@@ -43,7 +69,7 @@ std::string describe(const json& value) {
         case json::value_t::boolean: return value.get<bool>() ? "true" : "false";
         case json::value_t::string: {
             const auto& s = value.get_ref<const std::string&>();
-            std::string shown = s.size() > 40 ? s.substr(0, 40) + "..." : s;
+            std::string shown = s.size() > 40 ? shorten(s, 40) + "..." : s;
             return "string \"" + shown + "\"";
         }
         case json::value_t::array: return value.empty() ? "an empty list" : "a list";
@@ -166,7 +192,7 @@ std::string field_reader::choice_or(const std::string& key, const std::vector<st
 void field_reader::finish() const {
     for (auto it = object_.begin(); it != object_.end(); ++it) {
         if (seen_.count(it.key())) continue;
-        std::string key = it.key().size() > 60 ? it.key().substr(0, 60) + "..." : it.key();
+        std::string key = it.key().size() > 60 ? shorten(it.key(), 60) + "..." : it.key();
         std::string hint;
         std::size_t best = 3;
         for (const auto& known : seen_) {

@@ -135,3 +135,20 @@ TEST_CASE("regression: an empty list is described as empty", "[bad_inputs]") {
     CHECK(describe(json::array()) == "an empty list");
     CHECK(describe(json::array({1})) == "a list");
 }
+
+TEST_CASE("regression (fuzz): quoted text with a line break or a terminal escape stays on one line", "[bad_inputs]") {
+    // Found by tests/fuzz/trade_fuzz.cpp: "bermud\n" was quoted raw, so the CLI printed
+    // a two-line message. Control characters are now written out as \n, \u001b, ...
+    const refusal r = refusal_of("price", R"({"market": {"spot": 100, "volatility": 0.2, "rate": 0.03},
+        "option": {"type": "put", "strike": 100, "expiry_years": 1, "exercise": "bermud\n\u001b[31m"}})");
+    CHECK(r.message == R"(option.exercise: must be one of european, american, bermudan, got string "bermud\n\u001b[31m")");
+    // A misspelt key with a line break in it: the field path is escaped the same way.
+    const refusal k = refusal_of("price", R"({"market": {"spot": 100, "volatility": 0.2, "rate": 0.03, "a\tb\n": 1},
+        "option": {"type": "put", "strike": 100, "expiry_years": 1}})");
+    CHECK(k.field == R"(market.a\tb\n)");
+    CHECK(k.message == R"(market.a\tb\n: unknown field)");
+    CHECK(one_line("plain €") == "plain €");
+    // Quoted text is cut on a character boundary, never inside a UTF-8 sequence.
+    CHECK(shorten("ab€", 3) == "ab");
+    CHECK(shorten("ab€", 5) == "ab€");
+}
