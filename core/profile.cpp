@@ -254,6 +254,9 @@ json profile_json(const trade& t) {
         notes.push_back("legs expire on different dates: the profile is taken at the first expiry, later legs valued "
                         "there in closed form (European, same volatility and rates) with their remaining time");
     }
+    const bool has_stock = std::any_of(t.legs.begin(), t.legs.end(), [](const option_leg& l) { return l.type == payoff_kind::stock; });
+    if (has_stock && (t.market.carry_yield != 0 || !t.market.dividends.empty()))
+        notes.push_back("a stock leg pays the share price at expiry; dividends received before then are not in the payoff");
     if (std::any_of(t.legs.begin(), t.legs.end(), is_digital))
         notes.push_back("a digital's payoff jumps at its strike: a break-even there is where the P&L changes sign");
     out["notes"] = notes;
