@@ -10,6 +10,7 @@
 #include "simulate.hpp"
 #include "solver.hpp"
 #include "trade.hpp"
+#include "work.hpp"
 
 #include <functional>
 #include <map>
@@ -46,7 +47,7 @@ std::vector<std::string> command_names() {
     return names;
 }
 
-json run_command(const std::string& command, const json& document) {
+json run_command(const std::string& command, const json& document, double work_budget) {
     const auto it = commands().find(command);
     if (it == commands().end()) {
         std::string list;
@@ -54,18 +55,19 @@ json run_command(const std::string& command, const json& document) {
         fail("", "unknown command \"" + shorten(command, 40) + "\" (one of " + list + ")");
     }
     const trade t = parse_trade(document);
+    check_work_budget(command, t, work_budget);  // refuse up front, before any work
     json result = it->second(t);
     result["engine_version"] = engine_version();
     return result;
 }
 
-std::string run_command_text(const std::string& command, const std::string& text) {
+std::string run_command_text(const std::string& command, const std::string& text, double work_budget) {
     try {
         if (text.size() > max_document_bytes)
             fail("", "the trade document is " + std::to_string(text.size()) + " bytes, at most " +
                          std::to_string(max_document_bytes));
         const json doc = parse_json_text(text);
-        return json{{"ok", true}, {"result", run_command(command, doc)}}.dump(-1, ' ', false, json::error_handler_t::replace);
+        return json{{"ok", true}, {"result", run_command(command, doc, work_budget)}}.dump(-1, ' ', false, json::error_handler_t::replace);
     } catch (const input_error& e) {
         return json{{"ok", false}, {"error", {{"field", e.field()}, {"message", e.what()}}}}.dump(-1, ' ', false, json::error_handler_t::replace);
     } catch (const std::bad_alloc&) {

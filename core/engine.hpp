@@ -9,6 +9,7 @@
 
 #include "json_read.hpp"
 
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -20,11 +21,14 @@ const char* engine_version();
 /// Names of the commands run_command accepts.
 std::vector<std::string> command_names();
 
-/// Run `command` ("price", "hedge", ...) on a trade document. Throws input_error.
-json run_command(const std::string& command, const json& document);
+/// Run `command` ("price", "hedge", ...) on a trade document. Throws input_error,
+/// also when the estimated work (core/work.hpp) exceeds `work_budget` node updates.
+json run_command(const std::string& command, const json& document,
+                 double work_budget = std::numeric_limits<double>::infinity());
 
-/// Text in, envelope text out; never throws.
-std::string run_command_text(const std::string& command, const std::string& text);
+/// Text in, envelope text out; never throws. The module passes page_work_budget.
+std::string run_command_text(const std::string& command, const std::string& text,
+                             double work_budget = std::numeric_limits<double>::infinity());
 
 /// Largest trade document accepted, in bytes.
 inline constexpr std::size_t max_document_bytes = 1 << 20;

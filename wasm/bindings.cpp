@@ -4,6 +4,7 @@
 // page owns plain strings and never has a C++ handle to .delete(). Every C++
 // exception is caught inside run_command_text; nothing throws across this line.
 #include "engine.hpp"
+#include "work.hpp"
 
 #include <emscripten/bind.h>
 
@@ -11,9 +12,10 @@
 
 namespace {
 
-/// Run one engine command on a trade document; returns the envelope text.
+/// Run one engine command on a trade document; returns the envelope text. A request
+/// estimated above the page's work budget is refused up front (core/work.hpp).
 std::string run(const std::string& command, const std::string& trade_json) {
-    return hedgeleaf::run_command_text(command, trade_json);
+    return hedgeleaf::run_command_text(command, trade_json, hedgeleaf::page_work_budget);
 }
 
 /// Engine version printed on quote sheets.

@@ -22,7 +22,10 @@ export interface HedgeleafModule {
    * Run one engine command on a trade document (the JSON text the CLI reads).
    * Never throws for bad input: every C++ exception is caught in
    * core/engine.cpp's run_command_text and returned as an Envelope text.
-   * Documents over 1 MiB are refused with a message.
+   * Documents over 1 MiB are refused with a message, and so is a request whose
+   * estimated work is above the page's budget (core/work.hpp: price, solve and
+   * hedge, about 3 s of this module), naming the field that sets its size
+   * (lattice.steps, hedge.lattice_steps); the native CLI has no such budget.
    */
   run(command: CommandName, tradeJson: string): string;
   /** Engine version, e.g. "0.1.0" (also in every result as engine_version). */

@@ -2,7 +2,8 @@
 //
 // Input layout: "<command>\n<trade document>". Without a newline the whole input is
 // the document and the command is "price". The document goes through the same
-// entry the page uses, run_command_text, and (when it is JSON) through parse_trade.
+// entry the page uses, run_command_text with the page's work budget, and (when it is
+// JSON) through parse_trade.
 //
 // Beyond "no crash, no sanitizer report", each run checks the contract:
 //   - the envelope is valid JSON with a boolean "ok";
@@ -20,6 +21,7 @@
 #include "replication.hpp"
 #include "simulate.hpp"
 #include "trade.hpp"
+#include "work.hpp"
 
 #include <cmath>
 #include <cstdio>
@@ -115,7 +117,7 @@ void check_envelope(const std::string& command, const std::string& text, const s
     if (env["ok"].get<bool>()) {
         // The envelope text turns NaN into null; look at the result itself.
         try {
-            const json result = hedgeleaf::run_command(command, json::parse(text));
+            const json result = hedgeleaf::run_command(command, json::parse(text), hedgeleaf::page_work_budget);
             if (!all_finite(result)) broken("result holds NaN or infinity", result.dump(-1, ' ', false, json::error_handler_t::replace));
         } catch (const std::exception& e) {
             broken(std::string("run_command threw after run_command_text succeeded: ") + e.what(), text);
@@ -165,6 +167,6 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
             // expected for most fuzzed documents; the message is checked below
         }
     }
-    check_envelope(command, text, hedgeleaf::run_command_text(command, text));
+    check_envelope(command, text, hedgeleaf::run_command_text(command, text, hedgeleaf::page_work_budget));
     return 0;
 }
