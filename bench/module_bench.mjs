@@ -163,8 +163,8 @@ async function main() {
   console.log(`${padEnd('module', 12)} ${padEnd('method', 16)} ${padEnd('extrap', 6)} ${pad('steps', 6)} ` +
     `${pad('time/price us', 14)} ${pad('RMS rel err', 12)}`);
   const settings = [
-    ['leisen-reimer', true, 0], ['leisen-reimer', true, 201], ['leisen-reimer', true, 301], ['leisen-reimer', true, 401],
-    ['leisen-reimer', true, 801], ['leisen-reimer', false, 0], ['crr', false, 0], ['crr', true, 0],
+    ['leisen-reimer', true, 0], ['leisen-reimer', true, 501], ['leisen-reimer', true, 1001], ['leisen-reimer', true, 2001],
+    ['leisen-reimer', false, 0], ['crr', false, 0],
   ];
   for (const m of loaded) {
     for (const [method, extrapolate, steps] of settings) {

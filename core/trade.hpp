@@ -53,7 +53,7 @@ struct lattice_settings {
 };
 
 inline constexpr int max_lattice_steps = 50000;
-inline constexpr int default_lattice_steps = 501;
+inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs: speed)
 
 /// A whole trade document after validation.
 struct trade {

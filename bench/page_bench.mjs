@@ -1,0 +1,118 @@
+// Hedgeleaf benchmark: the one-file page in headless Chromium.
+//
+//   node bench/page_bench.mjs [PAGE]     (default dist/hedgeleaf.html)
+//
+// Prints the file size, the cold open of the file to the first premium shown
+// (fresh browser context each time, offline, from file://) and the time of a
+// full recompute after an edit of spot: from the end of the page's 250 ms input
+// debounce to the last change the recompute makes to the page (premium,
+// sensitivities, profit chart, hedge schedule, ladder...). Uses Debian's
+// Chromium through playwright-core from web/node_modules.
+import { statSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+
+const root = dirname(dirname(fileURLToPath(import.meta.url)));
+const pagePath = resolve(process.argv[2] ?? join(root, 'dist/hedgeleaf.html'));
+const require = createRequire(join(root, 'web/package.json'));
+const { chromium } = require('playwright-core');
+const debounceMs = 250;  // web/src/app.js: changed(delay = 250)
+
+// Injected before the page's own scripts (by the browser, so the page's CSP does
+// not apply): timestamps of the first premium and of every later change.
+function recorder() {
+  window.__bench = { firstPremium: null, changes: [] };
+  const watch = () => {
+    new MutationObserver(() => {
+      const now = performance.now();
+      window.__bench.changes.push(now);
+      if (window.__bench.firstPremium === null && document.querySelector('[data-result="premium"][data-value]'))
+        window.__bench.firstPremium = now;
+    }).observe(document.documentElement, { subtree: true, childList: true, attributes: true, characterData: true });
+  };
+  if (document.documentElement) watch();
+  else document.addEventListener('readystatechange', watch, { once: true });
+}
+
+const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
+
+async function settle(page, quietMs = 1500, timeoutMs = 30000) {
+  const end = Date.now() + timeoutMs;
+  for (;;) {
+    const idle = await page.evaluate(() => performance.now() - (window.__bench.changes.at(-1) ?? 0));
+    if (idle > quietMs) return;
+    if (Date.now() > end) throw new Error('the page did not settle');
+    await sleep(100);
+  }
+}
+
+const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+async function main() {
+  const size = statSync(pagePath).size;
+  const url = pathToFileURL(pagePath).href;
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
+      '--disable-sync', '--no-first-run'],
+  });
+  try {
+    const opens = [];
+    const recomputes = [];
+    const firstUpdates = [];
+    for (let run = 0; run < 5; run++) {
+      const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+      await context.setOffline(true);
+      await context.addInitScript(recorder);
+      const page = await context.newPage();
+      await page.goto(url);
+      for (let i = 0; i < 300; i++) {
+        const t = await page.evaluate(() => window.__bench.firstPremium);
+        if (t !== null) {
+          opens.push(t);
+          break;
+        }
+        await sleep(50);
+      }
+      await settle(page);
+      // Edit spot as a user would (an input event), then time the recompute it starts.
+      const premiumBefore = await page.evaluate(() => document.querySelector('[data-result="premium"]').dataset.value);
+      const edited = await page.evaluate(() => {
+        const input = document.querySelector('[data-path="market.spot"]');
+        if (!input) return null;
+        const value = Number(String(input.value).replace(/,/g, ''));
+        input.value = String(Math.round(value * 1.01 * 100) / 100);
+        const t = performance.now();
+        input.dispatchEvent(new Event('input', { bubbles: true }));
+        return t;
+      });
+      if (edited === null) throw new Error('no input for market.spot on the page');
+      await sleep(debounceMs + 100);
+      await settle(page);
+      const timing = await page.evaluate(({ edited, debounce, before }) => {
+        const after = window.__bench.changes.filter((t) => t > edited + debounce);
+        const premium = document.querySelector('[data-result="premium"]').dataset.value;
+        return { last: after.at(-1) - edited - debounce, first: after[0] - edited - debounce, changed: premium !== before };
+      }, { edited, debounce: debounceMs, before: premiumBefore });
+      if (!timing.changed) throw new Error('the premium did not change after the spot edit');
+      recomputes.push(timing.last);
+      firstUpdates.push(timing.first);
+      await context.close();
+    }
+    console.log(`# Page (bench/page_bench.mjs): ${pagePath}`);
+    console.log(`file size: ${size} bytes (${(size / 1024 / 1024).toFixed(2)} MiB; budget 1.5 MiB)`);
+    console.log(`cold open from file:// to the first premium shown: median ${median(opens).toFixed(0)} ms, ` +
+      `best ${Math.min(...opens).toFixed(0)} ms (${opens.length} fresh contexts; budget 500 ms)`);
+    console.log(`full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
+      `${median(firstUpdates).toFixed(1)} ms, last change median ${median(recomputes).toFixed(1)} ms, ` +
+      `best ${Math.min(...recomputes).toFixed(1)} ms (budget 16 ms)`);
+  } finally {
+    await browser.close();
+  }
+}
+
+main().catch((error) => {
+  console.error(error);
+  process.exit(1);
+});
