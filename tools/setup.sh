@@ -46,6 +46,28 @@ build_page() {
     node web/build.mjs
 }
 
+# The whole native suite again under ASan + UBSan (preset "sanitize", build/sanitize), then a
+# 60 s libFuzzer run over every command (clang, build/fuzz; tests/fuzz/run.sh). Each step
+# prints its time: CI has 2 cores and a 15-minute budget for the whole test command.
+sanitize_and_fuzz() {
+    local start=$SECONDS
+    say "native tests under AddressSanitizer + UndefinedBehaviorSanitizer"
+    cmake --preset sanitize >/dev/null
+    cmake --build build/sanitize -j"$jobs"
+    (cd build/sanitize && UBSAN_OPTIONS=print_stacktrace=1 ctest --output-on-failure -j"$jobs")
+    say "sanitizer build and tests took $((SECONDS - start)) s"
+    start=$SECONDS
+    say "fuzzing every command for 60 s (libFuzzer + ASan + UBSan)"
+    mkdir -p build
+    if ! bash tests/fuzz/run.sh 60 > build/fuzz.log 2>&1; then
+        tail -n 60 build/fuzz.log
+        echo "fuzzing found a problem: the reproducer is in build/fuzz/artifacts (log: build/fuzz.log)" >&2
+        return 1
+    fi
+    grep -E '^(#[0-9]+ +(INITED|DONE)|stat::)' build/fuzz.log || true
+    say "fuzz build and run took $((SECONDS - start)) s"
+}
+
 install_packages
 case "$mode" in
     main)
@@ -59,6 +81,7 @@ case "$mode" in
         build_native
         say "native tests"
         (cd build/native && ctest --output-on-failure -j"$jobs")
+        sanitize_and_fuzz
         build_page
         say "module tests (node)"
         node --test tests/node/
