@@ -55,8 +55,10 @@ std::string one_line(const std::string& text) {
 std::string format_number(double x) {
     if (std::isnan(x)) return "NaN";
     if (std::isinf(x)) return x > 0 ? "infinity" : "-infinity";
+    // Shortest text that reads back exactly, up to 12 significant digits: what a person typed
+    // comes back as typed, and a computed 9.999999999999998 reads 10.
     char buf[40];
-    for (int precision = 6; precision <= 17; ++precision) {
+    for (int precision = 6; precision <= 12; ++precision) {
         std::snprintf(buf, sizeof buf, "%.*g", precision, x);
         if (std::strtod(buf, nullptr) == x) break;
     }

@@ -36,9 +36,12 @@ std::string plain_text(field_reader& r, const std::string& key, std::size_t max_
     return s;
 }
 
+// Optional: a quote for a client name alone must not refuse the trade ("" = no label).
 std::string read_currency(field_reader& r) {
     const std::string path = r.child("currency");
-    const json& v = r.raw("currency");
+    const json* given = r.raw_optional("currency");
+    if (!given) return "";
+    const json& v = *given;
     const std::string shape = "must be an ISO 4217 currency code of three capital letters (e.g. EUR, USD, GBP)";
     if (!v.is_string()) fail(path, shape + ", got " + describe(v));
     const std::string& s = v.get_ref<const std::string&>();
@@ -127,7 +130,7 @@ json client_price_json(const trade& t, const trade_result& priced) {
     const double spot = t.market.spot;
     const bool client_buys = !t.client_sells;
     const double per_unit = client_buys ? offer : bid;
-    json out{{"currency", currency},
+    json out{{"currency", currency.empty() ? json(nullptr) : json(currency)},
              {"margin_type", kind},
              {"margin", margin},
              {"tick", tick ? json(*tick) : json(nullptr)},

@@ -97,7 +97,7 @@ TEST_CASE("the currency is an ISO 4217 code of three capital letters", "[quote]"
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "eur"}})), shape + "string \"eur\"");
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EURO"}})), shape + "string \"EURO\"");
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", 978}})), shape + "978");
-    CHECK_THROWS_WITH(run_command("price", doc_with({{"margin", 0.1}})), "quote.currency: is required but missing");
+    CHECK_NOTHROW(run_command("price", doc_with({{"margin", 0.1}})));  // the currency is an optional label
 }
 
 TEST_CASE("client name and notes are plain, length-limited text", "[quote]") {
@@ -127,4 +127,11 @@ TEST_CASE("quote fields are checked and named", "[quote]") {
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"margin_type", "percent"}})),
                       "quote.margin_type: must be one of absolute, fraction_of_premium, volatility, got string \"percent\"");
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"tick", 0}})), "quote.tick: must be > 0, got 0");
+}
+
+TEST_CASE("a quote without a currency still prices (client name only)", "[quote]") {
+    // Regression: typing only a client name on the page refused the whole trade.
+    const json r = run_command("price", doc_with({{"client", "Kestrel Harbour Foods"}}));
+    CHECK(r["client_price"]["currency"].is_null());
+    CHECK(r["client_price"]["client"] == "Kestrel Harbour Foods");
 }

@@ -63,7 +63,7 @@ export function renderPrice(doc, r) {
   const cp = r.client_price;
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
   if (cp) {
-    setResult('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))} ${cp.currency}`, cp.per_unit);
+    setResult('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`, cp.per_unit);
     setResult('client-price-total', formatNumber(cp.total, 2), cp.total);
     setResult('desk-margin-total', formatNumber(cp.desk_margin_total, 2), cp.desk_margin_total);
     document.getElementById('client-side').textContent = `per unit, ${cp.client_side}`;
