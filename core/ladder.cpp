@@ -115,17 +115,17 @@ json value_row(const trade& t, const scenario& s, const scenario_value& v, const
 
 scenario_value value_scenario(const trade& t, const scenario& s, int steps) {
     market_data m = t.market;
-    m.spot = t.market.spot * (1 + s.spot_shift);
+    m.spot = tidy(t.market.spot * (1 + s.spot_shift));  // the spot shown in the row
     m.volatility = t.market.volatility + s.vol_shift;
-    if (!(m.spot > 0)) fail("ladder", "spot shift " + format_number(s.spot_shift) + " leaves no positive spot");
+    if (!(m.spot > 0)) fail("", "spot shift " + format_number(s.spot_shift) + " leaves no positive spot");
     if (!(m.volatility > 0))
-        fail("ladder", "volatility shift " + format_number(s.vol_shift) + " leaves no positive volatility");
+        fail("", "volatility shift " + format_number(s.vol_shift) + " leaves no positive volatility");
     const aged_trade aged = age(t, m, s.years_ahead);
     double last = 0;
     for (const auto& leg : aged.alive) last = std::max(last, leg.expiry);
     const double pv = aged.market.dividend_pv(0, last);
     if (!(pv < m.spot))
-        fail("ladder", "spot " + format_number(m.spot) + " is not above the present value " + format_number(pv) +
+        fail("", "spot " + format_number(m.spot) + " is not above the present value " + format_number(pv) +
                            " of the dividends before expiry");
 
     lattice_settings fast = t.lattice;

@@ -31,7 +31,8 @@ inline constexpr int default_ladder_steps = 101;
 
 /// Value the trade (per unit, legs' signed quantities applied) in scenario `s`
 /// with `steps` lattice steps of the trade's method and Richardson extrapolation.
-/// Throws input_error when the scenario leaves no valid market.
+/// Throws input_error (no field: the caller knows which input set the scenario)
+/// when the scenario leaves no valid market.
 scenario_value value_scenario(const trade& t, const scenario& s, int steps);
 
 /// The `ladder` command: reads the trade's `ladder` section (optional; a spot

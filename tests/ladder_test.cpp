@@ -145,6 +145,13 @@ TEST_CASE("the ladder section is read strictly and its limits named", "[ladder]"
     CHECK_THROWS_WITH(run_command("ladder", doc), Catch::StartsWith("ladder.spot_step: gives 4001 rows"));
     doc["ladder"] = {{"kind", "grid"}, {"steps", 2001}, {"spot_step", 0.004}};
     CHECK_THROWS_WITH(run_command("ladder", doc), Catch::StartsWith("ladder.steps: the ladder would need about"));
+    // A spot move that leaves spot below the dividends' present value names the axis to change.
+    json divs = call_doc();
+    divs["market"]["dividends"] = {{{"time_years", 0.5}, {"amount", 20}}};
+    divs["ladder"] = {{"spot_from", -0.9}};
+    CHECK_THROWS_WITH(run_command("ladder", divs),
+                      Catch::StartsWith("ladder.spot_from: a scenario cannot be priced (spot shift -0.9, volatility "
+                                        "shift 0, 0 years ahead): spot 10 is not above the present value 19.6"));
     doc["ladder"] = {{"spot_from", 0.2}, {"spot_to", 0.1}};
     CHECK_THROWS_WITH(run_command("ladder", doc), "ladder.spot_to: must be >= spot_from 0.2, got 0.1");
 }
