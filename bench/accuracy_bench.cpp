@@ -201,7 +201,7 @@ int run_table(const std::string& path, const std::string& svg_path, const std::s
     for (const lattice_method m : methods)
         for (const bool extrapolate : {false, true}) {
             std::vector<int> steps = {25, 50, 100, 200, 400, 800, 1600, 3200};
-            if (m == lattice_method::crr && !extrapolate) steps.insert(steps.end(), {6400, 12800, 25600});
+            if (m == lattice_method::crr && !extrapolate) steps.insert(steps.end(), {6400, 12800, 25600, 51200});
             // Around the default, where the extrapolated error is not monotone in steps.
             if (m == lattice_method::leisen_reimer && extrapolate) steps = {25, 51, 101, 201, 401, 501, 801, 1001, 1201,
                                                                              1401, 1601, 1801, 2001, 3201};

@@ -50,7 +50,7 @@ struct timing {
 };
 
 // CPU time per call of `price`: the best mean over batches of calls (each batch at
-// least budget/8 of CPU time, `budget` in all; prices longer than a batch are
+// least budget/16 of CPU time, `budget` in all; prices longer than a batch are
 // timed singly, best of two). Other processes share this machine: the best batch
 // is the one least disturbed by them, for the usual loop and the kernel alike.
 template <class F>
@@ -59,7 +59,7 @@ timing time_prices(F&& price, double budget) {
     double start = cpu_seconds();
     t.value = price();  // warm-up: buffers, caches, branch predictors
     const double first = cpu_seconds() - start;
-    const double batch = budget / 8;
+    const double batch = budget / 16;
     t.seconds_per_price = first;
     if (first >= batch) {
         start = cpu_seconds();
@@ -181,10 +181,10 @@ int main(int argc, char** argv) {
         for (const int steps : {1000, 10000, 50000}) {
             const double nodes = node_updates(steps);
             const timing usual = time_prices(
-                [&] { return usual_induce(m, leg, lattice_method::crr, steps, buffer); }, 0.3);
+                [&] { return usual_induce(m, leg, lattice_method::crr, steps, buffer); }, 0.6);
             const timing kernel = time_prices(
-                [&] { return induce(m, leg, lattice_method::crr, steps, lattice_extent::full).value; }, 0.3);
-            const timing band = time_prices([&] { return induce(m, leg, lattice_method::crr, steps).value; }, 0.3);
+                [&] { return induce(m, leg, lattice_method::crr, steps, lattice_extent::full).value; }, 0.6);
+            const timing band = time_prices([&] { return induce(m, leg, lattice_method::crr, steps).value; }, 0.6);
             const double band_nodes = induce(m, leg, lattice_method::crr, steps).node_updates;
             const struct {
                 const char* name;

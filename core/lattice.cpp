@@ -335,20 +335,26 @@ HEDGELEAF_ROW_INLINE void apply_row(const sweep& w, const row_plan& plan, int lo
         for (int j = lo; j <= hi && j < plan.next_lo; ++j) v[j] = 0;
         for (int j = std::max(lo, plan.next_hi + 1); j <= hi; ++j) v[j] = 0;
     }
+    // At the end of a row (or of its band) the loops run on to a whole number of
+    // 8-node vectors: the extra nodes are never read (the rows above are shorter,
+    // and a band's neighbours are zeroed before use), and no loop is left with a
+    // scalar remainder. Likewise the put's exercise range is rounded up and the
+    // call's down: there max(hold, exercise) is hold, the same value.
+    const int end = hi == plan.hi + 1 ? lo + (hi - lo + 7) / 8 * 8 : hi;
     switch (plan.rule) {
         case row_rule::hold:
-            continue_range(v, lo, hi, w.pu, w.pd);
+            continue_range(v, lo, end, w.pu, w.pd);
             return;
         case row_rule::put: {
-            const int m = std::clamp(plan.split, lo, hi);
+            const int m = std::min(end, lo + (std::clamp(plan.split, lo, hi) - lo + 7) / 8 * 8);
             put_range(v, plan.r, lo, m, w.pu, w.pd, plan.level, plan.factor);
-            continue_range(v, m, hi, w.pu, w.pd);
+            continue_range(v, m, end, w.pu, w.pd);
             return;
         }
         case row_rule::call: {
-            const int m = std::clamp(plan.split, lo, hi);
+            const int m = lo + (std::clamp(plan.split, lo, hi) - lo) / 8 * 8;
             continue_range(v, lo, m, w.pu, w.pd);
-            call_range(v, plan.r, m, hi, w.pu, w.pd, plan.level, plan.factor);
+            call_range(v, plan.r, m, end, w.pu, w.pd, plan.level, plan.factor);
             return;
         }
         case row_rule::general:
@@ -443,12 +449,13 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     // k = i - centre_n all lie in [-centre_steps, steps - centre_steps]: steps + 1 entries.
     const int last_centre = row_centre(w, n_steps);
     // Both rows start on a 64-byte boundary (a cache line; whole AVX-512 vectors).
-    const std::size_t padded = (width + 7) / 8 * 8;
+    // Eight spare entries after each row: the sweep runs whole vectors past a row's end.
+    const std::size_t padded = (width + 7) / 8 * 8 + 8;
     std::vector<double>& buffer = scratch(2 * padded + 8);
     double* base = buffer.data();
     base += (8 - reinterpret_cast<std::uintptr_t>(base) / sizeof(double) % 8) % 8;
     w.v = base;
-    fill_powers(w.log_ratio, -last_centre, n_steps + 1, base + padded);
+    fill_powers(w.log_ratio, -last_centre, n_steps + 1 + 8, base + padded);
     w.powers = base + padded + last_centre;
 
     {  // the payoff row at expiry (no dividends left to add)
