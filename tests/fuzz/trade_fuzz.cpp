@@ -59,6 +59,7 @@ const std::vector<work_field>& work_fields() {
         {"hedge", nullptr, "lattice_steps", 12, 2000, true},                           // default 151
         {"hedge", "tree", "steps", 40, hedgeleaf::max_tree_steps, false},
         {"ladder", nullptr, "steps", 21, 2001, true},                                  // default 101
+        {"profile", nullptr, "steps", 21, 2001, true},                                 // default 101
     };
     return fields;
 }
