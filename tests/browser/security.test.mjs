@@ -137,9 +137,9 @@ test('no request leaves the page, also after import, export, print, link and pag
   const [saved] = await Promise.all([page.waitForEvent('download'), page.click('#action-export')]);
   const text = readFileSync(await saved.path(), 'utf8');
   await page.setInputFiles('#import-file', { name: 'back.json', mimeType: 'application/json', buffer: Buffer.from(text) });
-  await page.locator('#notice').filter({ hasText: 'Opened' }).waitFor();
+  await page.locator('#notice').filter({ hasText: 'back.json' }).waitFor();
   await page.click('#action-link');
-  await page.locator('#notice').filter({ hasText: 'link' }).waitFor();
+  await page.locator('#notice').filter({ hasText: /clipboard|address bar/ }).waitFor();
   const [copy] = await Promise.all([page.waitForEvent('download'), page.click('#action-copy-page')]);
   assert.ok(readFileSync(await copy.path(), 'utf8').includes('id="embedded-trade">{'));
   await page.emulateMedia({ media: 'print' });
@@ -186,8 +186,9 @@ test('strings of an imported file, its name and a link\'s trade stay text', asyn
     await assertInert(page, `link with ${payload}`);
     // Imported, under a file name that is markup itself:
     await page.setInputFiles('#import-file', { name: `${payload}.json`, mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(trade)) });
-    await page.locator('#notice').filter({ hasText: 'Opened' }).waitFor();
-    assert.ok((await page.textContent('#notice')).includes(payload));
+    // (wait for this file's notice, not the link's "Opened the trade from the link")
+    await page.locator('#notice').filter({ hasText: `${payload}.json` }).waitFor();
+    assert.match(await page.textContent('#notice'), /^Opened “/);
     // Refused, with the markup quoted inside the engine's message:
     const bad = JSON.parse(exampleText);
     bad.option.type = payload;
