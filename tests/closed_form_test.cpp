@@ -1,6 +1,7 @@
 // Tests for core/closed_form: generalised Black-Scholes-Merton against published
 // worked examples, Boost.Math's normal distribution, parity and finite differences.
 #include "closed_form.hpp"
+#include "test_support.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -11,22 +12,10 @@
 
 using namespace hedgeleaf;
 
+using testing::market;
 namespace {
-market_data market(double spot, double vol, double rate, double carry = 0) {
-    market_data m;
-    m.spot = spot;
-    m.volatility = vol;
-    m.rate = rate;
-    m.carry_yield = carry;
-    return m;
-}
 option_leg european(payoff_kind type, double strike, double expiry, double payout = 1) {
-    option_leg leg;
-    leg.type = type;
-    leg.strike = strike;
-    leg.expiry = expiry;
-    leg.payout = payout;
-    return leg;
+    return testing::make_leg(type, strike, expiry, exercise_style::european, payout);
 }
 }  // namespace
 

@@ -2,6 +2,7 @@
 // examples, early-exercise facts, convergence orders and the no-arbitrage check.
 #include "closed_form.hpp"
 #include "lattice.hpp"
+#include "test_support.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -9,23 +10,9 @@
 
 using namespace hedgeleaf;
 
+using testing::make_leg;
+using testing::market;
 namespace {
-market_data market(double spot, double vol, double rate, double carry = 0) {
-    market_data m;
-    m.spot = spot;
-    m.volatility = vol;
-    m.rate = rate;
-    m.carry_yield = carry;
-    return m;
-}
-option_leg make_leg(payoff_kind type, double strike, double expiry, exercise_style ex = exercise_style::european) {
-    option_leg leg;
-    leg.type = type;
-    leg.strike = strike;
-    leg.expiry = expiry;
-    leg.exercise = ex;
-    return leg;
-}
 lattice_settings plain(lattice_method m, int steps) { return {m, steps, false}; }
 const lattice_method all_methods[] = {lattice_method::crr, lattice_method::jarrow_rudd, lattice_method::tian,
                                       lattice_method::leisen_reimer};
