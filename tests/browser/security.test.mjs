@@ -209,7 +209,7 @@ test('an edited trade is back after a reload', async () => {
   await page.fill('[data-path="quote.client"]', 'Kestrel Mill Holdings');
   await until(page, (p) => document.querySelector('[data-result="premium"]').dataset.value !== p, first);
   await new Promise((r) => setTimeout(r, 800));  // past the recompute debounce
-  await until(page, () => !document.body.classList.contains('busy'));
+  await until(page, () => !('computing' in document.body.dataset));
   const premium = await premiumOf(page);
   await page.reload();
   await until(page, () => document.querySelector('[data-path="option.strike"]')?.value === '47.5');
@@ -221,7 +221,7 @@ test('an edited trade is back after a reload', async () => {
 test('a corrupt import leaves the current trade as it was', async () => {
   const page = await open();
   await page.fill('[data-path="option.strike"]', '44');
-  await until(page, () => !document.body.classList.contains('busy') && document.querySelector('[data-path="option.strike"]').value === '44');
+  await until(page, () => !('computing' in document.body.dataset) && document.querySelector('[data-path="option.strike"]').value === '44');
   await new Promise((r) => setTimeout(r, 600));
   const premium = await premiumOf(page);
   const saved = await page.evaluate(() => localStorage.getItem('hedgeleaf.autosave.v1'));
@@ -268,7 +268,7 @@ test('local storage full: a clear warning, and the trade on screen keeps working
   assert.match(await page.textContent('#notice'), /Export the trade to keep it/);
   assert.equal(await page.getAttribute('#notice', 'data-kind'), 'warning');
   await page.fill('[data-path="option.strike"]', '45');
-  await until(page, () => !document.body.classList.contains('busy'));
+  await until(page, () => !('computing' in document.body.dataset));
   assert.ok(Number(await premiumOf(page)) > 0, 'pricing goes on');
   await page.evaluate(() => localStorage.clear());
   await page.close();

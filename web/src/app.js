@@ -4,7 +4,7 @@
 // the document to the engine worker -> results are drawn, or the engine's
 // message is put beside the field it names while the last good figures stay
 // on screen, greyed.
-import { Cancelled, EngineChannel } from './compute.js';
+import { Cancelled, EngineChannel, started } from './compute.js';
 import { drawChart } from './chart.js';
 import { todayIso, addYears } from './dates.js';
 import { EngineError } from './engine.js';
@@ -50,7 +50,11 @@ const engineText = $('engine-js').textContent;
 const workerUrl = URL.createObjectURL(new Blob([engineText, '\n', $('worker-js').textContent], { type: 'text/javascript' }));
 const makeWorker = () => new Worker(workerUrl, { name: 'hedgeleaf-engine' });
 const mainThreadFactory = () => globalThis.createHedgeleaf;
+// Two engines on two workers: `live` prices, `desk` runs the profile, hedge schedule,
+// ladder and solve for the same edit at the same time, so the slowest of them, not
+// their sum, sets how long a recompute takes.
 const live = new EngineChannel(makeWorker, mainThreadFactory);
+const desk = new EngineChannel(makeWorker, mainThreadFactory);
 let liveStarted = 0;
 
 // ---------------------------------------------------------------- messages
@@ -74,6 +78,7 @@ function clearErrors(prefixes) {
   for (const node of document.querySelectorAll('[data-error]')) {
     const path = node.dataset.error;
     if (prefixes && !prefixes.some((p) => path === p || path.startsWith(`${p}.`) || path.startsWith(`${p}[`))) continue;
+    if (!node.classList.contains('shown') && node.textContent === '') continue;  // nothing to clear: leave the DOM alone
     node.textContent = '';
     node.classList.remove('shown');
     const input = node.errorInput;
@@ -119,7 +124,9 @@ function attachError(input) {
 function syncErrorPaths() {
   for (const input of scope.querySelectorAll('[data-path], [data-role]')) {
     attachError(input);
-    if (input.errorNode) input.errorNode.dataset.error = errorPathOf(state.doc, input);
+    if (!input.errorNode) continue;
+    const path = errorPathOf(state.doc, input);
+    if (input.errorNode.dataset.error !== path) input.errorNode.dataset.error = path;
   }
 }
 
@@ -307,48 +314,74 @@ function onBlur(event) {
 }
 
 function changed(delay = 250) {
+  document.body.dataset.computing = 'true';  // automation contract: figures are catching up with the inputs
   saveLocally();
   clearTimeout(changed.timer);
+  changed.pending = true;
   changed.timer = setTimeout(recompute, delay);
 }
 
 // ---------------------------------------------------------------- recompute
 async function recompute() {
+  changed.pending = false;
+  document.body.dataset.computing = 'true';
   const generation = (state.generation += 1);
   const doc = structuredClone(state.doc);
   // Work for an older trade still running after 0.8 s (a huge lattice): stop it and start afresh
   // rather than queue behind it.
-  if (!live.busy) liveStarted = performance.now();
+  if (!live.busy && !desk.busy) liveStarted = performance.now();
   else if (performance.now() - liveStarted > 800) {
     live.cancel();
+    desk.cancel();
     liveStarted = performance.now();
   }
-  document.body.classList.add('busy');
+  // Dim the premium only when the price takes a while: a class change on every edit
+  // would make the browser restyle the page while the engines run.
+  clearTimeout(recompute.busy);
+  recompute.busy = setTimeout(() => document.body.classList.add('busy'), 120);
+  // Post every call this edit needs at once: the engines work through them while
+  // this thread shows each result as it comes back.
+  const pricing = live.call('price', doc);
+  const profiling = state.commands.includes('profile') ? started(desk.call('profile', doc)) : null;
+  const hedging = hedge.request(doc);
+  const laddering = ladder.request(doc);
+  const solving = solve.request(doc);
+  const fingerprinting = fingerprint(doc).catch(() => null);  // hashed by the browser while the engines run
   let price;
   try {
-    price = await live.call('price', doc);
+    price = await pricing;
   } catch (err) {
     if (generation !== state.generation || err instanceof Cancelled) return;
+    clearTimeout(recompute.busy);
     document.body.classList.remove('busy');
     clearErrors();
     reportFailure(err);
     setStale(['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'], true);
+    if (!changed.pending) delete document.body.dataset.computing;
     return;
   }
   if (generation !== state.generation) return;
+  // The profile, schedule and ladder usually follow within a few milliseconds: wait for
+  // them (up to 12 ms) so that the page shows the whole recompute in one go, one layout
+  // and no half-updated state; a slower one (a big lattice) comes in on its own later.
+  const following = [profiling, hedging, laddering].filter(Boolean);
+  if (following.length) await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 12))]);
+  if (generation !== state.generation) return;
+  clearTimeout(recompute.busy);
   document.body.classList.remove('busy');
   clearErrors();
   state.price = price;
   renderPrice(doc, price);
   setStale(['price'], false);
   renderCurrency(doc);
-  refreshSheet(doc, price);
-  if (state.commands.includes('profile')) await runProfile(doc, price, generation);
+  refreshSheet(doc, price, fingerprinting);
+  if (profiling) await runProfile(price, generation, profiling);
   if (generation !== state.generation) return;
-  await hedge.update(doc, price, generation);
-  await ladder.update(doc, generation);
-  await solve.update(doc, price, generation);
+  await hedge.update(doc, price, generation, hedging);
+  await ladder.update(doc, generation, laddering);
+  await solve.update(doc, price, generation, solving);
   simulate.update(doc, price);
+  if (generation === state.generation && !changed.pending) delete document.body.dataset.computing;
 }
 
 function reportFailure(err) {
@@ -359,9 +392,9 @@ function reportFailure(err) {
   }
 }
 
-async function runProfile(doc, price, generation) {
+async function runProfile(price, generation, pending) {
   try {
-    const profile = await live.call('profile', doc);
+    const profile = await pending;
     if (generation !== state.generation) return;
     drawProfile(price, profile);
     setStale(['profile'], false);
@@ -398,10 +431,11 @@ function drawProfile(price, profile) {
   drawChart($('sheet-chart'), { series, marks, ...labels, height: 220 });
 }
 
-async function refreshSheet(doc, price) {
+async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(() => null)) {
   const stamp = new Date();
-  const valuedAt = `${stamp.toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })} (UTC${-stamp.getTimezoneOffset() >= 0 ? '+' : '−'}${String(Math.abs(stamp.getTimezoneOffset() / 60)).padStart(2, '0')})`;
-  const code = await fingerprint(doc).catch(() => null);
+  refreshSheet.clock ??= new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+  const valuedAt = `${refreshSheet.clock.format(stamp)} (UTC${-stamp.getTimezoneOffset() >= 0 ? '+' : '−'}${String(Math.abs(stamp.getTimezoneOffset() / 60)).padStart(2, '0')})`;
+  const code = await fingerprinting;
   renderSheet(doc, price, { fingerprint: code, valuedAt, currency: typeof doc.quote?.currency === 'string' ? doc.quote.currency : '' });
   setResult('fingerprint', code ?? '–');
 }
@@ -518,10 +552,10 @@ function bindControls() {
   syncErrorPaths();
 }
 
-const hedge = hedgePanel({ live, state, showError, setStale, changed, bindControls });
+const hedge = hedgePanel({ live: desk, state, showError, setStale, changed, bindControls });
 const simulate = simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed, bindControls });
-const ladder = ladderPanel({ live, state, showError, setStale, bindControls });
-const solve = solvePanel({ live, state, showError, setStale, changed, bindControls, notice });
+const ladder = ladderPanel({ live: desk, state, showError, setStale, bindControls });
+const solve = solvePanel({ live: desk, state, showError, setStale, changed, bindControls, notice });
 
 function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`;

@@ -83,7 +83,11 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     const d = s.points.map((p, i) => `${i ? 'L' : 'M'}${sx(p[0]).toFixed(1)},${sy(p[1]).toFixed(1)}`).join('');
     const g = el('g', { class: `chart-series ${s.kind}` });
     g.append(el('path', { d }));
-    if (s.dots) for (const p of s.points) g.append(el('circle', { cx: sx(p[0]), cy: sy(p[1]), r: 3 }));
+    if (s.dots) {
+      // every dot in one path (a circle of radius 3 is two arcs): one node, not one per point
+      const dots = s.points.map((p) => `M${(sx(p[0]) - 3).toFixed(1)},${sy(p[1]).toFixed(1)}a3,3 0 1,0 6,0a3,3 0 1,0 -6,0`).join('');
+      g.append(el('path', { d: dots, class: 'dots' }));
+    }
     svg.append(g);
   }
   const legend = document.createElement('p');

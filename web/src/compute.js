@@ -14,6 +14,16 @@ export class Cancelled extends Error {
   }
 }
 
+/**
+ * Mark a call started ahead of its turn as handled, so that a rejection nobody
+ * awaits (the price failed first, a newer edit came) is not reported as
+ * unhandled; awaiting the returned promise still throws.
+ */
+export function started(promise) {
+  promise.catch(() => {});
+  return promise;
+}
+
 export class EngineChannel {
   /** @param {() => Worker} makeWorker  @param {() => Function} mainThreadFactory */
   constructor(makeWorker, mainThreadFactory) {

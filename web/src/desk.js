@@ -3,44 +3,12 @@
 // Both read their settings from the trade's own sections (`ladder`, `solve`;
 // core/ladder.hpp, core/solver.hpp), so the exported file gives the CLI the
 // same table. They run only while their card is open.
-import { Cancelled } from './compute.js';
+import { Cancelled, started } from './compute.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
 import { contractKey, fillInput } from './form.js';
 import { setPath } from './paths.js';
-
-function make(tag, props = {}, children = []) {
-  const node = document.createElement(tag);
-  for (const [key, value] of Object.entries(props)) {
-    if (key === 'dataset') Object.assign(node.dataset, value);
-    else if (key === 'text') node.textContent = value;
-    else if (key in node) node[key] = value;
-    else node.setAttribute(key, value);
-  }
-  node.append(...children);
-  return node;
-}
-
-function field(label, input) {
-  return make('label', { className: 'field' }, [make('span', { text: label }), input]);
-}
-
-function bound(path, kind, placeholder) {
-  return make('input', { dataset: { path, kind }, autocomplete: 'off', inputMode: 'decimal', placeholder });
-}
-
-function select(path, options) {
-  const node = make('select', { dataset: { path, kind: 'choice' } });
-  for (const [value, text] of options) node.append(new Option(text, value));
-  return node;
-}
-
-function table(name, head, rows) {
-  return make('div', { className: 'table-scroll' }, [make('table', { className: 'figures', dataset: { result: name } }, [
-    make('thead', {}, [make('tr', {}, head.map((h) => make('th', { scope: 'col', text: h })))]),
-    make('tbody', {}, rows.map((cells) => make('tr', {}, cells.map((text, i) => make(i ? 'td' : 'th', i ? { text } : { scope: 'row', text }))))),
-  ])]);
-}
+import { bound, field, fillTable, make, select, setText } from './dom.js';
 
 /** The Scenarios card (`ladder` command). */
 export function ladderPanel({ live, state, showError, setStale, bindControls }) {
@@ -56,16 +24,16 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
       ['', 'Spot (default)'], ['spot', 'Spot'], ['volatility', 'Volatility'], ['time', 'Time passing'], ['grid', 'Spot × volatility'],
     ]))])];
     if (kind === 'spot' || kind === 'grid') {
-      parts.push(make('div', { className: 'row' }, [field('Spot from %', bound('ladder.spot_from', 'percent', '−20')),
-        field('to %', bound('ladder.spot_to', 'percent', '20')), field('step %', bound('ladder.spot_step', 'percent', '2'))]));
+      parts.push(make('div', { className: 'row' }, [field('Spot from %', bound('ladder.spot_from', 'percent', { placeholder: '−20' })),
+        field('to %', bound('ladder.spot_to', 'percent', { placeholder: '20' })), field('step %', bound('ladder.spot_step', 'percent', { placeholder: '2' }))]));
     }
     if (kind === 'volatility' || kind === 'grid') {
-      parts.push(make('div', { className: 'row' }, [field('Vol from (points)', bound('ladder.vol_from', 'percent', '−5')),
-        field('to', bound('ladder.vol_to', 'percent', '5')), field('step', bound('ladder.vol_step', 'percent', '1'))]));
+      parts.push(make('div', { className: 'row' }, [field('Vol from (points)', bound('ladder.vol_from', 'percent', { placeholder: '−5' })),
+        field('to', bound('ladder.vol_to', 'percent', { placeholder: '5' })), field('step', bound('ladder.vol_step', 'percent', { placeholder: '1' }))]));
     }
     if (kind === 'time') {
-      parts.push(make('div', { className: 'row' }, [field('Every … days', bound('ladder.time_step_days', 'number', 'a tenth of the life')),
-        field('Up to day', bound('ladder.time_to_days', 'number', 'expiry'))]));
+      parts.push(make('div', { className: 'row' }, [field('Every … days', bound('ladder.time_step_days', 'number', { placeholder: 'a tenth of the life' })),
+        field('Up to day', bound('ladder.time_to_days', 'number', { placeholder: 'expiry' }))]));
     }
     parts.push(make('span', { className: 'field-error', dataset: { error: 'ladder' }, role: 'alert' }));
     controls.replaceChildren(...parts);
@@ -78,24 +46,36 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
     const per = (row) => [formatNumber(row.value, 4), formatNumber(row.pnl, 4), `${formatNumber(row.position_pnl, 0)}${ccy}`];
     const greeks = (row) => [formatNumber(row.delta, 4), formatNumber(row.position_delta, 0)];
     const tail = ['Value', 'P&L per unit', 'Position P&L'];
-    let body;
+    let lead = '';
+    let head;
+    let rows;
     if (r.kind === 'grid') {
       const g = r.grid;
-      const head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
-      const rows = g.spot_shifts.map((s, i) => [`${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
+      head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
+      rows = g.spot_shifts.map((s, i) => [`${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
         ...g.position_pnl[i].map((x) => formatNumber(x, 0))]);
-      body = [make('p', { className: 'hint', text: `Position P&L${ccy} against today, spot down the side, volatility across.` }), table('ladder', head, rows)];
+      lead = `Position P&L${ccy} against today, spot down the side, volatility across.`;
     } else if (r.kind === 'time') {
-      body = [table('ladder', ['Day', 'Date', ...tail, 'Delta', 'Position delta'],
-        r.rows.map((row) => [inputText(row.days), row.date ?? `${formatNumber(row.years, 3)} y`, ...per(row), ...greeks(row)]))];
+      head = ['Day', 'Date', ...tail, 'Delta', 'Position delta'];
+      rows = r.rows.map((row) => [inputText(row.days), row.date ?? `${formatNumber(row.years, 3)} y`, ...per(row), ...greeks(row)]);
     } else if (r.kind === 'volatility') {
-      body = [table('ladder', ['Volatility', ...tail, 'Delta', 'Position delta'],
-        r.rows.map((row) => [formatPercent(row.volatility, 1), ...per(row), ...greeks(row)]))];
+      head = ['Volatility', ...tail, 'Delta', 'Position delta'];
+      rows = r.rows.map((row) => [formatPercent(row.volatility, 1), ...per(row), ...greeks(row)]);
     } else {
-      body = [table('ladder', ['Spot', 'Move', ...tail, 'Delta', 'Position delta'],
-        r.rows.map((row) => [formatNumber(row.spot, 2), `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`, ...per(row), ...greeks(row)]))];
+      head = ['Spot', 'Move', ...tail, 'Delta', 'Position delta'];
+      rows = r.rows.map((row) => [formatNumber(row.spot, 2), `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`, ...per(row), ...greeks(row)]);
     }
-    output.replaceChildren(...body, make('p', { className: 'hint', text: `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.` }));
+    // one layout for every kind (lead line, table, notes), filled in place on each recompute
+    let table = output.querySelector('table[data-result="ladder"]');
+    if (!table) {
+      table = make('table', { className: 'figures', dataset: { result: 'ladder' } });
+      output.replaceChildren(make('p', { className: 'hint' }), make('div', { className: 'table-scroll' }, [table]), make('p', { className: 'hint' }));
+    }
+    const [leadLine, , notesLine] = output.children;
+    leadLine.hidden = !lead;
+    setText(leadLine, lead);
+    fillTable(table, head, rows);
+    setText(notesLine, `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.`);
   }
 
   card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
@@ -105,10 +85,14 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
       render();
     },
     render,
-    async update(doc, generation) {
-      if (!has() || !card.open) return;
+    /** Start the `ladder` call now if the card shows one; null otherwise. */
+    request(doc) {
+      return has() && card.open ? started(live.call('ladder', doc)) : null;
+    },
+    async update(doc, generation, pending) {
+      if (!pending) return;
       try {
-        const r = await live.call('ladder', doc);
+        const r = await pending;
         if (generation !== state.generation) return;
         draw(r);
         setStale(['ladder'], false);
@@ -155,11 +139,11 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
     });
     const parts = [make('div', { className: 'row' }, [field('Find', what)])];
     if (unknown === 'volatility' || unknown === 'strike') {
-      const row = [field('Target premium per unit', bound('solve.target_premium', 'number', unknown === 'strike' ? '0 = zero cost' : ''))];
-      if (unknown === 'strike' && contractKey(state.doc) !== 'option') row.push(field('Leg (0 = first)', bound('solve.leg', 'number', '0')));
+      const row = [field('Target premium per unit', bound('solve.target_premium', 'number', { placeholder: unknown === 'strike' ? '0 = zero cost' : '' }))];
+      if (unknown === 'strike' && contractKey(state.doc) !== 'option') row.push(field('Leg (0 = first)', bound('solve.leg', 'number', { placeholder: '0' })));
       parts.push(make('div', { className: 'row' }, row));
     } else if (unknown === 'quantity') {
-      parts.push(make('div', { className: 'row' }, [field('Budget', bound('solve.budget', 'number', '')), field('Lot size', bound('solve.lot_size', 'number', 'none'))]));
+      parts.push(make('div', { className: 'row' }, [field('Budget', bound('solve.budget', 'number', { placeholder: '' })), field('Lot size', bound('solve.lot_size', 'number', { placeholder: 'none' }))]));
     }
     parts.push(make('span', { className: 'field-error', dataset: { error: 'solve' }, role: 'alert' }));
     controls.replaceChildren(...parts);
@@ -208,10 +192,14 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
       render();
     },
     render,
-    async update(doc, price, generation) {
-      if (!has() || !card.open || !doc.solve) return;
+    /** Start the `solve` call now if the card is open with a target; null otherwise. */
+    request(doc) {
+      return has() && card.open && doc.solve ? started(live.call('solve', doc)) : null;
+    },
+    async update(doc, price, generation, pending) {
+      if (!pending) return;
       try {
-        const r = await live.call('solve', doc);
+        const r = await pending;
         if (generation !== state.generation) return;
         draw(r, price);
         setStale(['solve'], false);

@@ -5,11 +5,12 @@
 // clicked on a small tree (kind "lattice", moves "UDDU..."), spots typed per
 // date ("spots"), a random path ("scenario", the engine's default) and a
 // stress shape ("stress"). The tree view comes from the `tree` command.
-import { Cancelled } from './compute.js';
+import { Cancelled, started } from './compute.js';
 import { drawChart } from './chart.js';
 import { EngineError } from './engine.js';
-import { formatNumber, formatSmart, inputText } from './format.js';
+import { formatNumber, formatSmart } from './format.js';
 import { fillInput } from './form.js';
+import { bound, field, fillTable, make } from './dom.js';
 
 const kinds = [
   ['lattice', 'Steps on a tree'],
@@ -19,26 +20,6 @@ const kinds = [
 ];
 const maxTreeSteps = 12;  // what fits on screen; the CLI takes longer paths
 const svgNs = 'http://www.w3.org/2000/svg';
-
-function make(tag, props = {}, children = []) {
-  const node = document.createElement(tag);
-  for (const [key, value] of Object.entries(props)) {
-    if (key === 'dataset') Object.assign(node.dataset, value);
-    else if (key === 'text') node.textContent = value;
-    else if (key in node && key !== 'list') node[key] = value;
-    else node.setAttribute(key, value);
-  }
-  node.append(...children);
-  return node;
-}
-
-function field(label, input, className = 'field') {
-  return make('label', { className }, [make('span', { text: label }), input]);
-}
-
-function bound(path, kind, props = {}) {
-  return make('input', { dataset: { path, kind }, autocomplete: 'off', inputMode: 'decimal', ...props });
-}
 
 function svg(tag, attrs = {}, text) {
   const node = document.createElementNS(svgNs, tag);
@@ -249,23 +230,17 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
 
   function drawSchedule(result) {
     const head = ['Date', 'Event', 'Spot', 'Option value', 'Target delta', 'Shares held', 'Shares traded', 'Cash', 'Portfolio', 'Portfolio − option'];
-    const thead = make('thead', {}, [make('tr', {}, head.map((h) => make('th', { scope: 'col', text: h })))]);
-    const body = make('tbody');
-    for (const row of result.rows) {
-      const cells = [row.date ?? `${formatNumber(row.years, 3)} y`, row.event, formatNumber(row.spot, 2), formatNumber(row.option_value, 4),
-        row.delta === null ? '–' : formatNumber(row.delta, 4), formatNumber(row.shares_held, 4), formatNumber(row.shares_traded, 4),
-        formatNumber(row.cash, 4), formatNumber(row.portfolio_value, 4), formatSmart(row.tracking_error, 2, 4)];
-      const tr = make('tr', {}, cells.map((text, i) => make(i === 0 ? 'th' : 'td', i === 0 ? { scope: 'row', text } : { text })));
-      body.append(tr);
-    }
-    table.replaceChildren(make('caption', { className: 'visually-hidden', text: 'Hedge schedule per unit of the trade' }), thead, body);
+    const rows = result.rows.map((row) => [row.date ?? `${formatNumber(row.years, 3)} y`, row.event, formatNumber(row.spot, 2), formatNumber(row.option_value, 4),
+      row.delta === null ? '–' : formatNumber(row.delta, 4), formatNumber(row.shares_held, 4), formatNumber(row.shares_traded, 4),
+      formatNumber(row.cash, 4), formatNumber(row.portfolio_value, 4), formatSmart(row.tracking_error, 2, 4)]);
+    fillTable(table, head, rows, 'Hedge schedule per unit of the trade');
     table.dataset.rows = String(result.rows.length);
     const t = result.totals;
     const desk = result.desk;
     document.getElementById('hedge-totals').textContent =
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
       `replication error ${formatSmart(t.replication_error, 2, 4)}, shares traded ${formatNumber(t.total_shares_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
-      `The desk holds ${inputText(Math.round(desk.shares_at_start))} shares at the start and ${inputText(Math.round(desk.shares_at_end))} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
+      `The desk holds ${formatNumber(desk.shares_at_start, 0)} shares at the start and ${formatNumber(desk.shares_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
       (result.notes?.length ? ` Note: ${result.notes.join('; ')}.` : '');
     const xs = (row) => row.years;
     drawChart(document.getElementById('hedge-chart'), {
@@ -283,11 +258,16 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       render();
     },
     render,
-    async update(doc, price, generation) {
-      if (!has('hedge')) return;
+    /** Start the `hedge` call for `doc` now (it queues behind the price on the engine); null if the page has no hedge card. */
+    request(doc) {
+      return has('hedge') ? started(live.call('hedge', doc)) : null;
+    },
+    /** Show the schedule `pending` (from request) brings, unless a newer edit came first. */
+    async update(doc, price, generation, pending) {
+      if (!pending) return;
       const kind = pathKind(doc);
       try {
-        const result = await live.call('hedge', doc);
+        const result = await pending;
         if (generation !== state.generation) return;
         lastRows = result.rows;
         drawSchedule(result);

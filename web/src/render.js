@@ -6,12 +6,22 @@
 import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
 
-/** Write one figure: shown text and, when numeric, the raw value. */
+// While renderPrice runs, the figure elements found by one query of the page
+// (it writes some thirty figures; one query each would be most of its time).
+let figureIndex = null;
+
+function figureNodes(name) {
+  if (figureIndex) return figureIndex.get(name) ?? [];
+  return document.querySelectorAll(`[data-result="${name}"]`);
+}
+
+/** Write one figure: shown text and, when numeric, the raw value. Unchanged text is left alone. */
 export function setResult(name, text, value) {
-  for (const node of document.querySelectorAll(`[data-result="${name}"]`)) {
-    node.textContent = text;
-    if (typeof value === 'number') node.dataset.value = String(value);
-    else delete node.dataset.value;
+  for (const node of figureNodes(name)) {
+    if (node.textContent !== text) node.textContent = text;
+    if (typeof value === 'number') {
+      if (node.dataset.value !== String(value)) node.dataset.value = String(value);
+    } else if ('value' in node.dataset) delete node.dataset.value;
   }
 }
 
@@ -51,6 +61,20 @@ function perUnitDigitsOf(x) {
 
 /** Fill every price figure from a `price` result. */
 export function renderPrice(doc, r) {
+  figureIndex = new Map();
+  for (const node of document.querySelectorAll('[data-result]')) {
+    const name = node.dataset.result;
+    if (!figureIndex.has(name)) figureIndex.set(name, []);
+    figureIndex.get(name).push(node);
+  }
+  try {
+    writeFigures(doc, r);
+  } finally {
+    figureIndex = null;
+  }
+}
+
+function writeFigures(doc, r) {
   const q = r.position.quantity;
   const sign = r.position.side === 'sell' ? -1 : 1;
   const perUnitDigits = perUnitDigitsOf(r.premium);

@@ -10,28 +10,9 @@ import { drawChart } from './chart.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart, inputText } from './format.js';
 import { fillInput } from './form.js';
+import { bound, field, make } from './dom.js';
 
 const units = [['days', 'Every business day'], ['weeks', 'Every week'], ['months', 'Every month']];
-
-function make(tag, props = {}, children = []) {
-  const node = document.createElement(tag);
-  for (const [key, value] of Object.entries(props)) {
-    if (key === 'dataset') Object.assign(node.dataset, value);
-    else if (key === 'text') node.textContent = value;
-    else if (key in node) node[key] = value;
-    else node.setAttribute(key, value);
-  }
-  node.append(...children);
-  return node;
-}
-
-function field(label, input) {
-  return make('label', { className: 'field' }, [make('span', { text: label }), input]);
-}
-
-function bound(path, kind, props = {}) {
-  return make('input', { dataset: { path, kind }, autocomplete: 'off', inputMode: 'decimal', ...props });
-}
 
 /** "every 1 weeks" -> "Every week"; other wording as the engine gives it. */
 function frequencyName(text) {

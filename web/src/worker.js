@@ -6,6 +6,36 @@
 // or {id, error: {field, message}} or {id, fatal} when the engine cannot run.
 import { EngineError, loadEngine } from './engine.js';
 
+// V8 first runs WebAssembly in its baseline tier and compiles a function
+// optimised only after it has run for a while; a long call stays on the code it
+// started with. So once the first results are back, price a few small trades
+// (some 20 ms in all) so that the lattice kernels are optimised before the
+// user's first edit.
+const warmUpTrades = [
+  { market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
+    option: { type: 'put', strike: 100, expiry_years: 0.5, exercise: 'american' }, lattice: { steps: 301 } },
+  { market: { spot: 100, volatility: 0.3, rate: 0.03, carry_yield: 0.01 }, option: { type: 'call', strike: 105, expiry_years: 1 },
+    lattice: { steps: 301 } },
+];
+const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
+let warmUp = null;
+
+function scheduleWarmUp(engine) {
+  if (warmUp) return;
+  warmUp = setTimeout(() => {
+    for (const command of warmUpCommands) {
+      for (const trade of warmUpTrades) {
+        if (!engine.commands.includes(command)) continue;
+        try {
+          engine.run(command, trade);
+        } catch {
+          // a refusal here changes nothing for the user: warming up is best effort
+        }
+      }
+    }
+  }, 30);
+}
+
 /* global createHedgeleaf */
 self.onmessage = async (event) => {
   const { id, command, trade } = event.data;
@@ -22,4 +52,5 @@ self.onmessage = async (event) => {
     if (err instanceof EngineError) self.postMessage({ id, error: { field: err.field, message: err.message } });
     else self.postMessage({ id, fatal: String(err.message || err) });
   }
+  scheduleWarmUp(engine);
 };
