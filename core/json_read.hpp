@@ -16,7 +16,7 @@
 
 namespace hedgeleaf {
 
-using json = nlohmann::json;
+using json = nlohmann::ordered_json;  // objects keep the order they are built in (premium first)
 
 /// Short description of a JSON value for messages: `string "abc"`, `null`, ...
 std::string describe(const json& value);

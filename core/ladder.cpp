@@ -17,7 +17,6 @@ constexpr int max_ladder_steps = 2001;
 // Node updates a ladder may ask for (scenarios x legs x steps^2 / 2 for the
 // fine and coarse lattices): about a second natively.
 constexpr double max_ladder_work = 2e9;
-constexpr double max_volatility = 5.0;
 constexpr double min_volatility = 1e-3;
 
 // Legs this close to expiry at the horizon count as expired (paid at their payoff).
@@ -162,9 +161,10 @@ json ladder_json(const trade& t) {
         axis_path = r.child("spot_from");
     }
     if (kind == "volatility" || kind == "grid") {
-        vol_points = read_axis(r, "vol", -0.05, 0.05, 0.01, min_volatility - vol, max_volatility - vol,
+        const double highest = highest_volatility(expiry);  // the lattice's limit for this expiry
+        vol_points = read_axis(r, "vol", -0.05, 0.05, 0.01, min_volatility - vol, highest - vol,
                                " (volatility " + format_number(vol) + " must stay within " +
-                                   format_number(min_volatility) + " .. " + format_number(max_volatility) + ")")
+                                   format_number(min_volatility) + " .. " + format_number(highest) + ")")
                          .points;
         if (kind == "volatility") axis_path = r.child("vol_from");
     }

@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
+#include <optional>
 #if defined(__SSE__) || defined(__x86_64__)
 #include <xmmintrin.h>
 #endif
@@ -510,6 +511,12 @@ lattice_price price_lattice_only(const market_data& market, const option_leg& le
         out.sensitivities.delta = 1;
         return out;
     }
+    // Inputs are held to max_spread when read; bumps and scenario shifts may go a little past it,
+    // and up to about 26 the lattice still holds every spot that matters.
+    if (market.volatility * std::sqrt(leg.expiry) > 1.25 * max_spread)
+        fail("market.volatility", format_number(market.volatility) + " over " + format_number(leg.expiry) +
+                                      " years spreads spot too wide for the lattice (volatility x sqrt(expiry) above " +
+                                      format_number(1.25 * max_spread) + ")");
     const lattice_method method = settings.method;
     const int fine = effective_steps(method, settings.steps > 0 ? settings.steps : default_steps(method));
     int coarse = effective_steps(method, std::max(1, fine / 2));
@@ -552,18 +559,32 @@ lattice_price price_lattice_only(const market_data& market, const option_leg& le
 lattice_price price_on_lattice(const market_data& market, const option_leg& leg, const lattice_settings& settings) {
     lattice_price out = price_lattice_only(market, leg, settings);
     if (leg.type == payoff_kind::stock) return out;
-    const auto premium_with = [&](double vol, double rate) {
+    // Vega and rho by central differences; where one side of a bump leaves the lattice's
+    // no-arbitrage region (a tiny volatility beside a large rate gap), a one-sided difference
+    // from the price already known. The typed inputs were priced above, so any refusal
+    // here is the bump's, never the user's.
+    const auto premium_with = [&](double vol, double rate) -> std::optional<double> {
         market_data m = market;
         m.volatility = vol;
         m.rate = rate;
-        return price_lattice_only(m, leg, settings).premium;
+        try {
+            return price_lattice_only(m, leg, settings).premium;
+        } catch (const input_error&) {
+            return std::nullopt;
+        }
+    };
+    const auto slope = [&](std::optional<double> up, std::optional<double> down, double h) {
+        if (up && down) return (*up - *down) / (2 * h);
+        if (up) return (*up - out.premium) / h;
+        if (down) return (out.premium - *down) / h;
+        fail("market.volatility", "the lattice cannot be bumped on either side of these inputs to measure vega and rho; "
+                                  "raise the volatility or lattice.steps");
     };
     const double hv = std::min(vega_bump, 0.5 * market.volatility);
-    out.sensitivities.vega =
-        (premium_with(market.volatility + hv, market.rate) - premium_with(market.volatility - hv, market.rate)) / (2 * hv);
-    out.sensitivities.rho =
-        (premium_with(market.volatility, market.rate + rho_bump) - premium_with(market.volatility, market.rate - rho_bump)) /
-        (2 * rho_bump);
+    out.sensitivities.vega = slope(premium_with(market.volatility + hv, market.rate),
+                                   premium_with(market.volatility - hv, market.rate), hv);
+    out.sensitivities.rho = slope(premium_with(market.volatility, market.rate + rho_bump),
+                                  premium_with(market.volatility, market.rate - rho_bump), rho_bump);
     return out;
 }
 

@@ -10,7 +10,6 @@ namespace {
 
 constexpr double max_fraction = 1.0;         // a margin of the whole premium on each side
 constexpr double max_vol_margin = 0.5;       // fifty volatility points
-constexpr double max_volatility = 5.0;
 
 /// Characters (not bytes) of UTF-8 text: continuation bytes are not counted.
 std::size_t char_count(const std::string& s) {
@@ -85,8 +84,10 @@ json client_price_json(const trade& t, const trade_result& priced) {
         if (!(margin < t.market.volatility))
             fail(margin_path, "must be below market.volatility " + format_number(t.market.volatility) +
                                   " (the bid re-prices at volatility - margin), got " + format_number(margin));
-        if (t.market.volatility + margin > max_volatility)
-            fail(margin_path, "takes the volatility above " + format_number(max_volatility));
+        const double highest = highest_volatility(t.final_expiry());  // the lattice's limit for this expiry
+        if (t.market.volatility + margin > highest)
+            fail(margin_path, "takes the volatility above " + format_number(highest) +
+                                  (highest < max_volatility ? ", the most the lattice holds over this expiry" : ""));
     }
     const std::optional<double> tick = r.number_optional("tick");
     if (tick) {

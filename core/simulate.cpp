@@ -104,7 +104,7 @@ simulate_settings read_simulate_settings(const trade& t) {
     require_at_most(s.drift, 1.0, r.child("drift"));
     s.volatility = r.number_or("volatility", s.volatility);
     require_non_negative(s.volatility, r.child("volatility"));
-    require_at_most(s.volatility, 5.0, r.child("volatility"));
+    require_at_most(s.volatility, max_volatility, r.child("volatility"));
     s.cost_bp = r.number_or("cost_bp", 0.0);
     require_non_negative(s.cost_bp, r.child("cost_bp"));
     require_at_most(s.cost_bp, max_cost_bp, r.child("cost_bp"));

@@ -94,7 +94,6 @@ namespace {
 
 constexpr double max_budget = 1e15;
 constexpr double max_quantity = 1e12;
-constexpr double max_volatility = 5.0;
 // Re-pricing at the solution must match the target within 1e-8 of notional
 // (quantity * spot); the finder aims far tighter so the solved volatility or
 // strike itself is accurate even where the premium barely moves with it.
@@ -225,7 +224,8 @@ json solve_volatility(const trade& t, field_reader& r, json& notes) {
     s.target = r.number("target_premium");
     const std::string target_path = r.child("target_premium");
     const bool any_lattice = std::any_of(t.legs.begin(), t.legs.end(), on_lattice);
-    read_bounds(r, s, any_lattice ? 0.01 : 1e-4, max_volatility, max_volatility);
+    const double highest = highest_volatility(t.final_expiry());  // the lattice's limit for this expiry
+    read_bounds(r, s, any_lattice ? 0.01 : 1e-4, highest, highest);
     r.finish();
 
     if (const auto range = option_premium_range(t)) {

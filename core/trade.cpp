@@ -11,7 +11,6 @@ namespace hedgeleaf {
 namespace {
 
 constexpr double max_price_level = 1e9;    // spot, strike: larger is a typo, not a trade
-constexpr double max_volatility = 5.0;     // 500 % a year
 constexpr double max_abs_rate = 1.0;       // +-100 % a year, negative rates allowed
 constexpr double max_expiry_years = 50.0;
 constexpr double max_quantity = 1e12;
@@ -97,6 +96,20 @@ double market_data::dividend_pv(double from, double until) const {
     for (const auto& d : dividends)
         if (d.time > from && d.time <= until) pv += d.amount * std::exp(-rate * (d.time - from));
     return pv;
+}
+
+double highest_volatility(double years) {
+    // rounded down to 4 decimals so that the limit is the number the messages show
+    return years > 0 ? std::min(max_volatility, std::floor(max_spread / std::sqrt(years) * 1e4) / 1e4) : max_volatility;
+}
+
+void require_spread(double volatility, double years, const std::string& path) {
+    if (volatility <= highest_volatility(years) * (1 + 1e-12)) return;
+    fail(path, format_number(volatility) + " over " + format_number(years) +
+                   " years spreads spot too wide for the lattice (volatility x sqrt(expiry) = " +
+                   format_number(std::round(volatility * std::sqrt(years) * 100) / 100) + ", at most " +
+                   format_number(max_spread) + "); for this expiry use a volatility of at most " +
+                   format_number(highest_volatility(years)));
 }
 
 double trade::final_expiry() const {
@@ -255,6 +268,8 @@ trade parse_trade(const json& document) {
     require_at_most(t.quantity, max_quantity, "quantity");
     t.client_sells = r.choice_or("side", {"buy", "sell"}, "buy") == "sell";
     t.lattice = read_lattice(r.raw_optional("lattice"));
+
+    require_spread(t.market.volatility, t.final_expiry(), "market.volatility");
 
     const double pv = t.market.dividend_pv(0, t.final_expiry());
     if (!(pv < t.market.spot))

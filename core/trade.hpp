@@ -52,6 +52,18 @@ struct lattice_settings {
     bool extrapolate = true;
 };
 
+inline constexpr double max_volatility = 5.0;  ///< 500 % a year
+/// The widest spread of log-spot a lattice holds: volatility x sqrt(years to the
+/// last expiry). Beyond about 26 the spots that carry a call's value lie past
+/// e^500 from spot, where a double-precision lattice clamps them; 20 keeps a
+/// margin (it is 283 % a year over 5 years, or 63 % over 100).
+inline constexpr double max_spread = 20.0;
+/// The highest volatility the lattice takes for a trade whose last expiry is `years` away
+/// (max_spread / sqrt(years) rounded down to 4 decimals, at most max_volatility).
+double highest_volatility(double years);
+/// Refuse (naming `path`) a volatility the lattice cannot hold over `years`.
+void require_spread(double volatility, double years, const std::string& path);
+
 inline constexpr int max_lattice_steps = 50000;
 inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs: speed)
 

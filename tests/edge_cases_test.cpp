@@ -26,11 +26,13 @@ struct edge {
     std::string type = "put";
     std::string exercise = "american";
     double spot = 100, strike = 100, volatility = 0.2, rate = 0.03, carry = 0, years = 1;
+    std::string method = "leisen-reimer";
 };
 
 json document(const edge& e) {
     return json{{"market", {{"spot", e.spot}, {"volatility", e.volatility}, {"rate", e.rate}, {"carry_yield", e.carry}}},
-                {"option", {{"type", e.type}, {"strike", e.strike}, {"expiry_years", e.years}, {"exercise", e.exercise}}}};
+                {"option", {{"type", e.type}, {"strike", e.strike}, {"expiry_years", e.years}, {"exercise", e.exercise}}},
+                {"lattice", {{"method", e.method}}}};
 }
 
 trade_result price(const edge& e) { return price_trade(parse_trade(document(e))); }
@@ -132,17 +134,42 @@ TEST_CASE("tiny and huge volatility within range", "[edge_cases]") {
         CHECK(price(e).premium == Approx(100 - 100 * std::exp(-0.03)).epsilon(1e-6));
         CHECK(price(e).premium == Approx(european_reference(e)).epsilon(1e-6));
     }
-    // At 500 % a year for 30 years a call is worth the share and a put the discounted
-    // strike less almost nothing (S N(d1) -> S, N(-d1) -> 0; common practice).
+    // At 500 % a year for 16 years (volatility x sqrt(expiry) = 20, the widest spread the
+    // lattice takes) a call is worth the share and a put the discounted strike less almost
+    // nothing (S N(d1) -> S, N(-d1) -> 0; common practice).
     e.volatility = 5;
-    e.years = 30;
+    e.years = 16;
     CHECK(price(e).premium == Approx(100).epsilon(1e-6));
     e.type = "put";
     CHECK(price(e).premium == Approx(european_reference(e)).epsilon(1e-4).margin(1e-9));
+    // Past that spread the lattice would clamp the spots that carry a call's value: refused,
+    // naming the volatility, instead of a wrong premium.
+    e.years = 30;
+    CHECK_THROWS_WITH(price(e), Catch::Contains("market.volatility: 5 over 30 years spreads spot too wide") &&
+                                    Catch::Contains("at most 3.6514"));
     for (const double vol : {1e-4, 5.0}) {
         edge a;
         a.volatility = vol;
         every_command_finite(a);
+    }
+}
+
+TEST_CASE("every lattice method holds the widest spread it accepts", "[edge_cases]") {
+    // A European call at the limit (volatility x sqrt(expiry) = 20: 2.8284 over 50 years)
+    // against the closed form (Black-Scholes-Merton; common practice): the lattice must not
+    // clamp away the far spots that carry the value. Before the limit, 500 % over 50 years
+    // priced a call worth about 100 at 0.018 (Leisen-Reimer) and -2.8 (CRR).
+    for (const char* method : {"crr", "jarrow-rudd", "tian", "leisen-reimer"}) {
+        for (const char* type : {"call", "put"}) {
+            edge e;
+            e.type = type;
+            e.exercise = "european";
+            e.volatility = 2.8284;
+            e.years = 50;
+            e.method = method;
+            INFO(method << " " << type);
+            CHECK(price(e).premium == Approx(european_reference(e)).epsilon(1e-6).margin(1e-7));
+        }
     }
 }
 

@@ -11,7 +11,7 @@
 namespace hedgeleaf::cli {
 
 namespace {
-using json = nlohmann::json;
+using json = nlohmann::ordered_json;  // objects keep the order they are built in (premium first)
 
 std::string cell(const json& v) {
     if (v.is_number_float()) {

@@ -8,8 +8,8 @@
 namespace hedgeleaf::cli {
 
 /// Nested "key  value" lines; lists of row objects become aligned columns.
-std::string render_table(const nlohmann::json& result);
+std::string render_table(const nlohmann::ordered_json& result);
 /// The first list of row objects in the result (e.g. hedge "rows") as CSV; empty if none.
-std::string render_csv(const nlohmann::json& result);
+std::string render_csv(const nlohmann::ordered_json& result);
 
 }  // namespace hedgeleaf::cli
