@@ -56,6 +56,7 @@ json run_command(const std::string& command, const json& document, double work_b
     }
     const trade t = parse_trade(document);
     check_work_budget(command, t, work_budget);  // refuse up front, before any work
+    const work_meter meter(work_budget, work_field(command));  // and hold the run itself to the budget
     json result = it->second(t);
     result["engine_version"] = engine_version();
     return result;

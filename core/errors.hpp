@@ -32,6 +32,14 @@ private:
     std::string field_;
 };
 
+/// The page's work budget ran out while a request ran (core/work.hpp). Reported like
+/// bad input (it names the field that sets the size), but code that catches input
+/// errors from trial values (bumps, search points, scenarios) passes it on untouched.
+class work_exhausted : public input_error {
+public:
+    using input_error::input_error;
+};
+
 /// Throw an input_error; the single funnel for validation failures.
 [[noreturn]] inline void fail(const std::string& field, const std::string& problem) {
     throw input_error(field, problem);

@@ -206,6 +206,8 @@ json ladder_json(const trade& t) {
     const auto value_at = [&](const scenario& s) {
         try {
             return value_scenario(t, s, steps);
+        } catch (const work_exhausted&) {
+            throw;  // the budget, not this trial value
         } catch (const input_error& e) {
             fail(axis_path, "a scenario cannot be priced (spot shift " + format_number(s.spot_shift) +
                                 ", volatility shift " + format_number(s.vol_shift) + ", " +

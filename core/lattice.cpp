@@ -1,6 +1,8 @@
 // Hedgeleaf core: binomial lattices (see lattice.hpp).
 #include "lattice.hpp"
 
+#include "work.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
@@ -480,6 +482,7 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     induction_result out;
     out.value = w.v[0];
     out.node_updates = w.updates;
+    charge_work(w.updates);
     const double su = s0 * st.up, sd = s0 * st.down;
     out.delta = (row1[1] - row1[0]) / (su - sd);
     double v_at_s0_later;  // value at today's S* one or two steps later
@@ -569,6 +572,8 @@ lattice_price price_on_lattice(const market_data& market, const option_leg& leg,
         m.rate = rate;
         try {
             return price_lattice_only(m, leg, settings).premium;
+        } catch (const work_exhausted&) {
+            throw;  // the budget, not this trial value
         } catch (const input_error&) {
             return std::nullopt;
         }

@@ -133,6 +133,8 @@ struct search {
 double premium_or_fail(const search& s, double x) {
     try {
         return s.premium_at(x);
+    } catch (const work_exhausted&) {
+        throw;  // the budget, not this trial value
     } catch (const input_error& e) {
         const bool near_lower = std::fabs(std::log(x / s.lower)) <= std::fabs(std::log(s.upper / x));
         fail(near_lower ? s.lower_path : s.upper_path,

@@ -80,11 +80,47 @@ work_estimate estimate_work(const std::string& command, const trade& t) {
     return w;
 }
 
+namespace {
+struct meter_state {
+    double budget = 0;
+    double used = 0;
+    std::string field;
+    bool live = false;
+};
+thread_local meter_state meter;
+
+std::string millions(double x) { return format_number(std::round(x / 1e6)) + " million"; }
+}  // namespace
+
+work_meter::work_meter(double budget, std::string field) {
+    meter = meter_state{budget, 0, std::move(field), std::isfinite(budget)};
+}
+
+work_meter::~work_meter() { meter = meter_state{}; }
+
+void charge_work(double node_updates) {
+    if (!meter.live) return;
+    meter.used += node_updates;
+    if (meter.used > meter.budget) {
+        throw work_exhausted(meter.field, "the request stopped after about " + millions(meter.used) +
+                                              " lattice node updates, more than the " + millions(meter.budget) +
+                                              " the page runs at once (a few seconds); use fewer steps, or the "
+                                              "hedgeleaf command-line tool, which has no such limit");
+    }
+}
+
+std::string work_field(const std::string& command) {
+    if (command == "hedge") return "hedge.lattice_steps";
+    if (command == "ladder") return "ladder.steps";
+    if (command == "profile") return "profile.steps";
+    if (command == "tree") return "hedge.path";
+    return "lattice.steps";
+}
+
 void check_work_budget(const std::string& command, const trade& t, double budget) {
     if (!std::isfinite(budget)) return;
     const work_estimate w = estimate_work(command, t);
     if (w.node_updates <= budget) return;
-    const auto millions = [](double x) { return format_number(std::round(x / 1e6)) + " million"; };
     fail(w.field, w.what + " need about " + millions(w.node_updates) + " lattice node updates, more than the " +
                       millions(budget) + " the page runs at once (a few seconds); use fewer steps, or the hedgeleaf "
                       "command-line tool, which has no such limit");

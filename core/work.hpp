@@ -37,6 +37,25 @@ work_estimate estimate_work(const std::string& command, const trade& t);
 /// Node updates the page allows one request: a few seconds in the module.
 inline constexpr double page_work_budget = 4e9;
 
+/// While one lives, lattice inductions charge their node updates to `budget`; the
+/// induction that takes the total past it throws input_error naming `field`. This
+/// holds searches and schedules whose length is not known up front (a solve that
+/// needs more evaluations than estimated) to the same budget as the estimate.
+/// Infinite budget (the CLI): nothing is counted. Not shared between threads.
+class work_meter {
+public:
+    work_meter(double budget, std::string field);
+    ~work_meter();
+    work_meter(const work_meter&) = delete;
+    work_meter& operator=(const work_meter&) = delete;
+};
+
+/// Charge node updates to the live work_meter, if any (core/lattice calls this).
+void charge_work(double node_updates);
+
+/// The input that sets the size of `command`'s lattices, for messages.
+std::string work_field(const std::string& command);
+
 /// Throw input_error naming the field when estimate_work(command, t) exceeds `budget`.
 void check_work_budget(const std::string& command, const trade& t, double budget);
 

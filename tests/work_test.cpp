@@ -86,3 +86,33 @@ TEST_CASE("hedge and solve estimates name their own fields", "[work]") {
     // Commands bounded by their own limits estimate nothing here.
     CHECK(estimate_work("ladder", parse_trade(doc)).node_updates == 0);
 }
+
+TEST_CASE("the run itself is held to the budget, whatever the estimate said", "[work]") {
+    const trade t = parse_trade(twelve_legs(2001));
+    const option_leg& leg = t.legs[0];
+    const double one = induce(t.market, leg, lattice_method::leisen_reimer, 2001).node_updates;
+    SECTION("an induction past the budget stops the request") {
+        const work_meter meter(0.5 * one, "lattice.steps");
+        CHECK_THROWS_AS(induce(t.market, leg, lattice_method::leisen_reimer, 2001), work_exhausted);
+    }
+    SECTION("the vega and rho bumps do not swallow it as a failed bump") {
+        // room for the price (a fine and a coarse lattice) but not its four bumps
+        const work_meter meter(2 * one, "lattice.steps");
+        CHECK_THROWS_AS(price_on_lattice(t.market, leg, t.lattice), work_exhausted);
+    }
+    SECTION("no meter (the CLI) counts nothing") {
+        CHECK_NOTHROW(price_on_lattice(t.market, leg, t.lattice));
+    }
+    SECTION("a command without an up-front estimate names its own field") {
+        json doc = twelve_legs(101);
+        doc["legs"] = json::array({doc["legs"][0]});
+        doc["ladder"] = {{"kind", "grid"}};
+        CHECK(estimate_work("ladder", parse_trade(doc)).node_updates == 0);
+        const json envelope = json::parse(run_command_text("ladder", doc.dump(), 1e5));
+        CHECK(envelope["ok"] == false);
+        CHECK(envelope["error"]["field"] == "ladder.steps");
+        CHECK_THAT(envelope["error"]["message"].get<std::string>(),
+                   Catch::StartsWith("ladder.steps: the request stopped after about") && Catch::Contains("command-line tool"));
+        CHECK(json::parse(run_command_text("ladder", doc.dump(), page_work_budget))["ok"] == true);
+    }
+}
