@@ -20,22 +20,8 @@ struct sample_option {
     double reference = 0;  ///< the finest extrapolated lattice (see accuracy_bench reference)
     double check = 0;      ///< the next coarser level, for the reference's own accuracy
 
-    market_data market() const {
-        market_data m;
-        m.spot = spot;
-        m.volatility = volatility;
-        m.rate = rate;
-        m.carry_yield = carry;
-        return m;
-    }
-    option_leg leg() const {
-        option_leg l;
-        l.type = type;
-        l.strike = strike;
-        l.expiry = expiry;
-        l.exercise = exercise_style::american;
-        return l;
-    }
+    market_data market() const { return flat_market(spot, volatility, rate, carry); }
+    option_leg leg() const { return single_leg(type, strike, expiry, exercise_style::american); }
 };
 
 /// SplitMix64 (Steele, Lea and Flood 2014): a fully specified generator, so the set is the

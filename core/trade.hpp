@@ -46,6 +46,28 @@ struct option_leg {
     double quantity = 1;    ///< signed; + = client buys
 };
 
+/// A market without cash dividends, in one line (tests, benchmarks, the module's timing hooks).
+inline market_data flat_market(double spot, double volatility, double rate, double carry_yield = 0) {
+    market_data m;
+    m.spot = spot;
+    m.volatility = volatility;
+    m.rate = rate;
+    m.carry_yield = carry_yield;
+    return m;
+}
+
+/// One leg of quantity 1, in one line.
+inline option_leg single_leg(payoff_kind type, double strike, double expiry,
+                             exercise_style exercise = exercise_style::european, double payout = 1) {
+    option_leg leg;
+    leg.type = type;
+    leg.strike = strike;
+    leg.expiry = expiry;
+    leg.exercise = exercise;
+    leg.payout = payout;
+    return leg;
+}
+
 struct lattice_settings {
     lattice_method method = lattice_method::leisen_reimer;
     int steps = 0;          ///< 0 = default for the method

@@ -6,23 +6,12 @@
 namespace hedgeleaf::testing {
 
 inline market_data market(double spot, double vol, double rate, double carry = 0) {
-    market_data m;
-    m.spot = spot;
-    m.volatility = vol;
-    m.rate = rate;
-    m.carry_yield = carry;
-    return m;
+    return flat_market(spot, vol, rate, carry);
 }
 
 inline option_leg make_leg(payoff_kind type, double strike, double expiry,
                            exercise_style ex = exercise_style::european, double payout = 1) {
-    option_leg leg;
-    leg.type = type;
-    leg.strike = strike;
-    leg.expiry = expiry;
-    leg.exercise = ex;
-    leg.payout = payout;
-    return leg;
+    return single_leg(type, strike, expiry, ex, payout);
 }
 
 }  // namespace hedgeleaf::testing

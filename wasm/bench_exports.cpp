@@ -14,22 +14,9 @@ namespace {
 
 using namespace hedgeleaf;
 
-market_data make_market(double spot, double volatility, double rate, double carry) {
-    market_data m;
-    m.spot = spot;
-    m.volatility = volatility;
-    m.rate = rate;
-    m.carry_yield = carry;
-    return m;
-}
-
-option_leg make_leg(bool put, bool american, double strike, double expiry) {
-    option_leg leg;
-    leg.type = put ? payoff_kind::put : payoff_kind::call;
-    leg.strike = strike;
-    leg.expiry = expiry;
-    leg.exercise = american ? exercise_style::american : exercise_style::european;
-    return leg;
+option_leg bench_leg(bool put, bool american, double strike, double expiry) {
+    return single_leg(put ? payoff_kind::put : payoff_kind::call, strike, expiry,
+                      american ? exercise_style::american : exercise_style::european);
 }
 
 /// One backward induction of the benchmark put (spot 100, strike 100, vol 25 %,
@@ -38,8 +25,8 @@ option_leg make_leg(bool put, bool american, double strike, double expiry) {
 /// or "usual" (bench/usual_loop.hpp). Returns the value; -1 for an unknown loop.
 double bench_kernel(const std::string& loop, int steps, bool american) {
     static std::vector<double> buffer;
-    const market_data m = make_market(100, 0.25, 0.05, 0.01);
-    const option_leg leg = make_leg(true, american, 100, 1.0);
+    const market_data m = flat_market(100, 0.25, 0.05, 0.01);
+    const option_leg leg = bench_leg(true, american, 100, 1.0);
     if (loop == "kernel") return induce(m, leg, lattice_method::crr, steps, lattice_extent::full).value;
     if (loop == "band") return induce(m, leg, lattice_method::crr, steps).value;
     if (loop == "usual") return bench::usual_induce(m, leg, lattice_method::crr, steps, buffer);
@@ -48,7 +35,7 @@ double bench_kernel(const std::string& loop, int steps, bool american) {
 
 /// Node updates of the "band" sweep for bench_kernel's option.
 double bench_band_updates(int steps, bool american) {
-    return induce(make_market(100, 0.25, 0.05, 0.01), make_leg(true, american, 100, 1.0), lattice_method::crr, steps)
+    return induce(flat_market(100, 0.25, 0.05, 0.01), bench_leg(true, american, 100, 1.0), lattice_method::crr, steps)
         .node_updates;
 }
 
@@ -58,7 +45,7 @@ double bench_price(bool put, double spot, double strike, double volatility, doub
                    const std::string& method, int steps, bool extrapolate) {
     try {
         const lattice_settings s{parse_lattice_method(method), steps, extrapolate};
-        return price_lattice_only(make_market(spot, volatility, rate, carry), make_leg(put, true, strike, expiry), s)
+        return price_lattice_only(flat_market(spot, volatility, rate, carry), bench_leg(put, true, strike, expiry), s)
             .premium;
     } catch (...) {
         return -1;

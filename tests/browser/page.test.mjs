@@ -187,6 +187,34 @@ test('a hedge along a path picked on the tree; a long simulation cancels, a shor
   await page.close();
 });
 
+test('scenario ladder and solver: cards open, recompute with the trade, and the solution can be used', async () => {
+  const page = await open();
+  const rows = () => document.querySelectorAll('table[data-result="ladder"] tbody tr').length;
+  await page.click('#ladder-card summary');
+  assert.equal(await until(page, rows), 21);  // spot -20 % .. +20 % in steps of 2 %
+  const today = await page.evaluate(() => [...document.querySelectorAll('table[data-result="ladder"] tbody tr')]
+    .map((tr) => [...tr.cells].map((c) => c.textContent)).find((cells) => cells[1] === '+0.0 %'));
+  assert.equal(today[0], '48.20');
+  assert.equal(today[3], '0.0000');  // P&L against today's value on the same lattice
+  // an edit refreshes the open ladder in place
+  await page.fill('[data-path="market.spot"]', '50');
+  await until(page, () => document.querySelector('table[data-result="ladder"] tbody tr:nth-child(11) th')?.textContent === '50.00');
+  await page.selectOption('[data-path="ladder.kind"]', 'volatility');
+  await until(page, () => document.querySelector('table[data-result="ladder"] thead th')?.textContent === 'Volatility');
+
+  await page.click('#solve-card summary');
+  await page.selectOption('#solve-for', 'volatility');
+  await page.fill('[data-path="solve.target_premium"]', '3.5');
+  const vol = Number(await until(page, () => !('computing' in document.body.dataset) &&
+    document.querySelector('[data-result="solve-solution"]')?.dataset.value));
+  assert.ok(vol > 0.31 && vol < 0.6, `solved volatility ${vol}`);  // a dearer put needs a higher volatility
+  await page.click('#solve-output button');
+  await until(page, () => !('computing' in document.body.dataset) && document.querySelector('[data-path="market.volatility"]').value !== '31');
+  const premium = await premiumShown(page);
+  assert.ok(Math.abs(premium - 3.5) < 1e-4, `premium after using the solved volatility: ${premium}`);
+  await page.close();
+});
+
 test('nothing but the page was requested and the console stayed clean', () => {
   assert.ok(requests.some((url) => url.startsWith(pageUrl)));
   assert.deepEqual(problems, []);

@@ -378,8 +378,8 @@ async function recompute() {
   if (profiling) await runProfile(price, generation, profiling);
   if (generation !== state.generation) return;
   await hedge.update(doc, price, generation, hedging);
-  await ladder.update(doc, generation, laddering);
-  await solve.update(doc, price, generation, solving);
+  await ladder.update(generation, laddering);
+  await solve.update(generation, solving, price);
   simulate.update(doc, price);
   if (generation === state.generation && !changed.pending) delete document.body.dataset.computing;
 }

@@ -10,6 +10,38 @@ import { contractKey, fillInput } from './form.js';
 import { setPath } from './paths.js';
 import { bound, field, fillTable, make, select, setText } from './dom.js';
 
+/**
+ * What the folded cards (Scenarios, Solve) share: opening one asks for a recompute;
+ * request(doc) starts the card's engine call when the card is open and `wanted(doc)`;
+ * update(generation, pending, price) shows what it brings unless a newer edit came first.
+ */
+function foldedCard({ card, has, live, state, command, wanted = () => true, render, draw, setStale, showError }) {
+  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
+  return {
+    setup() {
+      card.hidden = !has();
+      render();
+    },
+    render,
+    request(doc) {
+      return has() && card.open && wanted(doc) ? started(live.call(command, doc)) : null;
+    },
+    async update(generation, pending, price) {
+      if (!pending) return;
+      try {
+        const r = await pending;
+        if (generation !== state.generation) return;
+        draw(r, price);
+        setStale([command], false);
+      } catch (err) {
+        if (generation !== state.generation || err instanceof Cancelled) return;
+        setStale([command], true);
+        if (err instanceof EngineError) showError(err.field, err.message);
+      }
+    },
+  };
+}
+
 /** The Scenarios card (`ladder` command). */
 export function ladderPanel({ live, state, showError, setStale, bindControls }) {
   const card = document.getElementById('ladder-card');
@@ -78,31 +110,7 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
     setText(notesLine, `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.`);
   }
 
-  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
-  return {
-    setup() {
-      card.hidden = !has();
-      render();
-    },
-    render,
-    /** Start the `ladder` call now if the card shows one; null otherwise. */
-    request(doc) {
-      return has() && card.open ? started(live.call('ladder', doc)) : null;
-    },
-    async update(doc, generation, pending) {
-      if (!pending) return;
-      try {
-        const r = await pending;
-        if (generation !== state.generation) return;
-        draw(r);
-        setStale(['ladder'], false);
-      } catch (err) {
-        if (generation !== state.generation || err instanceof Cancelled) return;
-        setStale(['ladder'], true);
-        if (err instanceof EngineError) showError(err.field, err.message);
-      }
-    },
-  };
+  return foldedCard({ card, has, live, state, command: 'ladder', render, draw, setStale, showError });
 }
 
 /** Where the strike of result leg `leg` lives in the document, or null. */
@@ -185,29 +193,5 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
     output.replaceChildren(solution, use, make('p', { className: 'hint', text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; ') }));
   }
 
-  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
-  return {
-    setup() {
-      card.hidden = !has();
-      render();
-    },
-    render,
-    /** Start the `solve` call now if the card is open with a target; null otherwise. */
-    request(doc) {
-      return has() && card.open && doc.solve ? started(live.call('solve', doc)) : null;
-    },
-    async update(doc, price, generation, pending) {
-      if (!pending) return;
-      try {
-        const r = await pending;
-        if (generation !== state.generation) return;
-        draw(r, price);
-        setStale(['solve'], false);
-      } catch (err) {
-        if (generation !== state.generation || err instanceof Cancelled) return;
-        setStale(['solve'], true);
-        if (err instanceof EngineError) showError(err.field, err.message);
-      }
-    },
-  };
+  return foldedCard({ card, has, live, state, command: 'solve', wanted: (doc) => Boolean(doc.solve), render, draw, setStale, showError });
 }
