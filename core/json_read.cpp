@@ -92,6 +92,19 @@ std::string index_path(const std::string& parent, std::size_t index) {
 }
 
 double as_number(const json& value, const std::string& path) {
+    if (value.is_string()) {
+        // A number sent as text ("48.2", "1e400"): say what is wrong with it.
+        const auto& text = value.get_ref<const std::string&>();
+        const bool decimal = !text.empty() && text.size() < 64 &&
+                             text.find_first_not_of("0123456789+-.eE") == std::string::npos &&
+                             text.find_first_of("0123456789") != std::string::npos;
+        char* end = nullptr;
+        const double x = decimal ? std::strtod(text.c_str(), &end) : 0.0;
+        if (decimal && end == text.c_str() + text.size()) {
+            if (!std::isfinite(x)) fail(path, "must be a finite number, got " + describe(value) + ", too large to hold");
+            fail(path, "must be a number, got " + describe(value) + " (write numbers without quotes)");
+        }
+    }
     if (!value.is_number()) fail(path, "must be a number, got " + describe(value));
     const double x = value.get<double>();
     if (!std::isfinite(x)) fail(path, "must be a finite number, got " + format_number(x));

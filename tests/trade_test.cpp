@@ -57,7 +57,7 @@ TEST_CASE("each bad field gets one message naming it", "[trade]") {
     const bad_case cases[] = {
         {R"({"market": {"volatility": -0.2}})", "market.volatility: must be > 0, got -0.2"},
         {R"({"market": {"volatility": 6}})", "market.volatility: must be <= 5, got 6"},
-        {R"({"market": {"spot": "100"}})", "market.spot: must be a number, got string \"100\""},
+        {R"({"market": {"spot": "100"}})", "market.spot: must be a number, got string \"100\" (write numbers without quotes)"},
         {R"({"market": {"spot": "NaN"}})", "market.spot: must be a number, got string \"NaN\""},
         {R"({"market": {"spot": 0}})", "market.spot: must be > 0, got 0"},
         {R"({"market": {"volatilty": 0.2}})", "market.volatilty: unknown field (did you mean \"volatility\"?)"},

@@ -47,7 +47,8 @@ export function parseNumber(text) {
   if (trimmed === '') return null;
   const cleaned = trimmed.replace(/[\s,_'\u00a0\u202f]/g, '').replace(/^[−–]/, '-').replace(/%$/, '');
   if (!/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(cleaned)) return trimmed;
-  return Number(cleaned);
+  const value = Number(cleaned);
+  return Number.isFinite(value) ? value : cleaned;  // 1e400: the engine names the field ("too large to hold")
 }
 
 /** A percent field: "31" -> 0.31 (exact to the digits typed, no 0.31000000000000005). */
