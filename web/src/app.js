@@ -124,8 +124,14 @@ function attachError(input) {
 function syncErrorPaths() {
   for (const input of scope.querySelectorAll('[data-path], [data-role]')) {
     attachError(input);
-    if (!input.errorNode) continue;
     const path = errorPathOf(state.doc, input);
+    // Inputs whose field moves with the contract (expiry, exercise, dividend dates) carry
+    // the path they write now, so automation finds every input by data-path.
+    if (input.dataset.role && input.type !== 'radio' && input.dataset.path !== path) {
+      if (path) input.dataset.path = path;
+      else delete input.dataset.path;
+    }
+    if (!input.errorNode) continue;
     if (input.errorNode.dataset.error !== path) input.errorNode.dataset.error = path;
   }
 }
