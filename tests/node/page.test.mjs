@@ -11,8 +11,8 @@ import { fileURLToPath } from 'node:url';
 import { formatNumber, formatSmart, inputText, parseNumber, parsePercent, parseTenor, percentText } from '../../web/src/format.js';
 import { fromBase64Url, toBase64Url, tradeFromHash, autosave } from '../../web/src/share.js';
 import { getPath, pathAncestors, setPath } from '../../web/src/paths.js';
-import { changeShape, readDateList, readWhen } from '../../web/src/form.js';
-import { addYears, yearsBetween } from '../../web/src/dates.js';
+import { changeShape, defaultExerciseSchedule, readDateList, readWhen } from '../../web/src/form.js';
+import { addMonths, addYears, yearsBetween } from '../../web/src/dates.js';
 import { routeThrough } from '../../web/src/hedge.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
@@ -23,6 +23,7 @@ test('numbers typed with separators and percentages read as the file stores them
   assert.equal(parseNumber('−3.5'), -3.5);
   assert.equal(parseNumber(''), null);
   assert.equal(parseNumber('12abc'), '12abc');  // handed to the engine, which names the field
+  assert.equal(parseNumber('1e400'), '1e400');  // too large for a double: sent as typed, not as null
   assert.equal(parsePercent('31'), 0.31);
   assert.equal(parsePercent('3.5'), 0.035);
   assert.equal(parsePercent('0.1'), 0.001);
@@ -83,6 +84,23 @@ test('date-or-years fields and exercise date lists pick the right key', () => {
   // ACT/365F as the engine counts (2026-12-02 to 2027-06-18 is 198 days)
   assert.equal(yearsBetween('2026-12-02', '2027-06-18'), 198 / 365);
   assert.equal(addYears('2026-12-02', 198 / 365), '2027-06-18');
+});
+
+test('a contract turning Bermudan gets monthly exercise dates before expiry (quarterly past two years)', () => {
+  // calendar months, the day clamped to the month's end (common practice for monthly schedules)
+  assert.equal(addMonths('2027-01-31', 1), '2027-02-28');
+  assert.equal(addMonths('2028-01-31', 1), '2028-02-29');
+  assert.equal(addMonths('2026-12-02', 13), '2028-01-02');
+  const dated = { valuation_date: '2026-12-02', option: { expiry_date: '2027-06-18' } };
+  assert.deepEqual(defaultExerciseSchedule(dated, 'option'),
+    { key: 'exercise_dates', value: ['2027-01-02', '2027-02-02', '2027-03-02', '2027-04-02', '2027-05-02', '2027-06-02'] });
+  const tenor = { structure: { expiry_years: 3 } };
+  const quarterly = defaultExerciseSchedule(tenor, 'structure');
+  assert.equal(quarterly.key, 'exercise_years');
+  assert.deepEqual(quarterly.value.slice(0, 3), [0.25, 0.5, 0.75]);
+  assert.equal(quarterly.value.at(-1), 2.75);  // the expiry itself is always an exercise date
+  assert.equal(defaultExerciseSchedule({ option: { expiry_years: 0.05 } }, 'option'), null);  // under a month: expiry only
+  assert.equal(defaultExerciseSchedule({ option: { expiry_date: '2027-06-18' } }, 'option'), null);  // no valuation date
 });
 
 test('changing the shape keeps expiry and exercise and keeps the file order', () => {

@@ -299,7 +299,10 @@ function onInput(event) {
     if (leg && input.value === 'stock') state.doc.legs[Number(leg[1])] = { type: 'stock', quantity: state.doc.legs[Number(leg[1])].quantity };
     if (path === 'option.type' && !input.value.startsWith('digital')) delete state.doc.option.payout;
     if (leg) renderLegs();
-    for (const node of form.querySelectorAll('[data-path], [data-role]')) if (node !== input && node.closest('.leg-row')) fillInput(state.doc, node);
+    for (const node of form.querySelectorAll('[data-path], [data-role]')) {
+      // leg rows, and the Bermudan dates a change of exercise style may have filled in
+      if (node !== input && (node.closest('.leg-row') || node.dataset.role === 'exercise-dates')) fillInput(state.doc, node);
+    }
     updateVisibility();
   }
   // choices that change which fields a card shows: redraw the card, keep the focus

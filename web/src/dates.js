@@ -25,6 +25,16 @@ export function addYears(from, years) {
   return new Date(ms).toISOString().slice(0, 10);
 }
 
+/** The date `months` calendar months after `from` (the day clamped to the month's end), or null. */
+export function addMonths(from, months) {
+  if (!isIsoDate(from) || !Number.isInteger(months)) return null;
+  const [y, m, d] = from.split('-').map(Number);
+  const first = new Date(Date.UTC(y, m - 1 + months, 1));
+  const last = new Date(Date.UTC(first.getUTCFullYear(), first.getUTCMonth() + 1, 0)).getUTCDate();
+  first.setUTCDate(Math.min(d, last));
+  return first.toISOString().slice(0, 10);
+}
+
 /** Today in the computer's time zone, as YYYY-MM-DD. */
 export function todayIso(now = new Date()) {
   const pad = (n) => String(n).padStart(2, '0');

@@ -5,7 +5,7 @@
 // one value into the document, so parts of a file the form does not show
 // (hedge, simulate and solve sections, extra legs) pass through untouched.
 // Unreadable text goes to the engine as typed, and the engine names the field.
-import { addYears, isIsoDate, yearsBetween } from './dates.js';
+import { addMonths, addYears, isIsoDate, yearsBetween } from './dates.js';
 import { inputText, parseNumber, parsePercent, parseTenor, percentText } from './format.js';
 import { getPath, setPath } from './paths.js';
 
@@ -81,6 +81,27 @@ function sharedBase(doc) {
   return key === 'legs' ? null : key;
 }
 
+/**
+ * A starting Bermudan schedule for a contract that has none: monthly exercise dates
+ * before expiry (quarterly past two years, at most 24), as dates when the expiry is a
+ * date and the trade has a valuation date, else as years. The user edits it from there.
+ */
+export function defaultExerciseSchedule(doc, base) {
+  const holder = doc[base] ?? {};
+  const byDate = typeof holder.expiry_date === 'string';
+  const years = byDate ? yearsBetween(doc.valuation_date, holder.expiry_date) : holder.expiry_years;
+  if (!(typeof years === 'number' && years > 0)) return null;
+  const months = years > 2 ? 3 : 1;  // monthly, quarterly past two years
+  const out = [];
+  for (let k = 1; out.length < 24; k++) {
+    const when = byDate ? addMonths(doc.valuation_date, k * months) : Number(((k * months) / 12).toFixed(6));
+    const t = byDate ? yearsBetween(doc.valuation_date, when) : when;
+    if (t === null || t >= years - 1 / 365) break;  // the expiry itself is always an exercise date
+    out.push(when);
+  }
+  return out.length ? { key: byDate ? 'exercise_dates' : 'exercise_years', value: out } : null;
+}
+
 /** Write one bound input into the document. Returns the path written (for its error span). */
 export function writeInput(doc, input) {
   const role = input.dataset.role;
@@ -102,6 +123,9 @@ export function writeInput(doc, input) {
     if (value !== 'bermudan') {
       setPath(doc, `${base}.exercise_dates`, undefined);
       setPath(doc, `${base}.exercise_years`, undefined);
+    } else if (getPath(doc, `${base}.exercise_dates`) === undefined && getPath(doc, `${base}.exercise_years`) === undefined) {
+      const schedule = defaultExerciseSchedule(doc, base);
+      if (schedule) setPath(doc, `${base}.${schedule.key}`, schedule.value);
     }
     return `${base}.exercise`;
   }
