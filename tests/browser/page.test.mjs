@@ -158,8 +158,14 @@ test('the print view is the quote sheet, with the cautions; client text stays te
   else assert.ok(!text.includes('Client price'));
   assert.ok(text.includes('<b>Orchard</b> & Lane') && text.includes('<img src=x>'), 'client text shown as typed');
   assert.equal(await page.locator('#quote-sheet b, #quote-sheet img, .workbench b').count(), 0, 'client text never becomes HTML');
+  // one A4 page, the caution at its head and the full notes at its foot (printed scrolled down,
+  // as from the button at the foot of a long page)
+  await page.evaluate(() => window.scrollTo(0, 400));
   const pdf = await page.pdf({ format: 'A4' });
   assert.ok(pdf.length > 10000);
+  const pages = pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? [];
+  assert.equal(pages.length, 1, 'the quote sheet prints on one A4 page');
+  assert.ok(text.indexOf('Indicative only') < text.indexOf('Terms'), 'the caution heads the sheet');
   await page.close();
 });
 
