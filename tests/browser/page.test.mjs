@@ -221,6 +221,33 @@ test('scenario ladder and solver: cards open, recompute with the trade, and the 
   await page.close();
 });
 
+test('on a phone and a tablet no card cuts off its figures (wide tables scroll inside the card)', async () => {
+  const page = await open();
+  await page.evaluate(() => { for (const d of document.querySelectorAll('details.card')) d.open = true; });
+  for (const width of [360, 768]) {
+    await page.setViewportSize({ width, height: 800 });
+    await until(page, () => document.querySelector('table[data-result="ladder"] tbody tr') && !('computing' in document.body.dataset));
+    const cut = await page.evaluate(() => {
+      const out = [];
+      for (const card of document.querySelectorAll('.card:not([hidden])')) {
+        card.scrollIntoView();  // cards off screen may skip layout (content-visibility)
+        const edge = card.getBoundingClientRect().right;
+        for (const el of card.querySelectorAll('*')) {
+          const box = el.getBoundingClientRect();
+          if (box.width === 0 || box.right <= edge + 1) continue;
+          let scrolls = false;
+          for (let p = el.parentElement; p && p !== card && !scrolls; p = p.parentElement) scrolls = ['auto', 'scroll'].includes(getComputedStyle(p).overflowX);
+          if (!scrolls) out.push(`${card.dataset.panel}: <${el.tagName.toLowerCase()}> ends at ${Math.round(box.right)}, card at ${Math.round(edge)}`);
+        }
+      }
+      return out.slice(0, 5);
+    });
+    assert.deepEqual(cut, [], `at ${width} px wide`);
+    assert.equal(await page.evaluate(() => document.documentElement.scrollWidth), width, `the page scrolls sideways at ${width} px`);
+  }
+  await page.close();
+});
+
 test('nothing but the page was requested and the console stayed clean', () => {
   assert.ok(requests.some((url) => url.startsWith(pageUrl)));
   assert.deepEqual(problems, []);
