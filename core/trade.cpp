@@ -207,6 +207,29 @@ option_leg read_option_leg(field_reader& r, const time_reader& times, bool signe
 json parse_json_text(const std::string& text) {
     // nlohmann reports empty input as an error at character 1; say what it is.
     if (text.find_first_not_of(" \t\r\n") == std::string::npos) fail("", "not a valid JSON document (empty input)");
+    // Copying and printing a JSON value recurse once per level: a document nested
+    // thousands deep would overflow the stack (found by a hand-made 150,000-level
+    // object: a crash natively, "maximum call stack size exceeded" in the module).
+    // A trade is a few levels deep; refuse deep nesting before building anything.
+    int depth = 0, deepest = 0;
+    bool in_string = false, escaped = false;
+    for (const char c : text) {
+        if (in_string) {
+            if (escaped) escaped = false;
+            else if (c == '\\') escaped = true;
+            else if (c == '"') in_string = false;
+        } else if (c == '"') {
+            in_string = true;
+        } else if (c == '{' || c == '[') {
+            deepest = std::max(deepest, ++depth);
+            if (depth > max_document_depth) break;
+        } else if (c == '}' || c == ']') {
+            --depth;
+        }
+    }
+    if (deepest > max_document_depth)
+        fail("", "not a valid trade document (nested more than " + std::to_string(max_document_depth) +
+                     " levels deep; a trade needs fewer than 10)");
     json doc = json::parse(text, nullptr, false);
     if (doc.is_discarded()) {
         try {

@@ -117,7 +117,10 @@ struct time_reader {
 
 /// Parse and validate a trade document. Throws input_error naming the field.
 trade parse_trade(const json& document);
-/// Parse text (reports malformed JSON as an input_error with an empty field).
+/// Deepest nesting of objects and arrays a trade document may have.
+inline constexpr int max_document_depth = 64;
+/// Parse text (reports malformed JSON, and nesting past max_document_depth, as an
+/// input_error with an empty field).
 json parse_json_text(const std::string& text);
 
 /// Read one option leg from an object (shared by `option`, `legs[i]` and structures).

@@ -201,6 +201,14 @@ test('strings of an imported file, its name and a link\'s trade stay text', asyn
   assert.deepEqual(foreign, []);
 });
 
+test('a link whose trade is nested thousands deep is refused with a notice; the page keeps working', async () => {
+  const deep = `{"market": ${'{"a": '.repeat(5000)}1${'}'.repeat(5000)}}`;
+  const page = await open(linkTo(deep));
+  await page.locator('#notice').filter({ hasText: 'could not be read (it is nested more than 64 levels deep' }).waitFor();
+  assert.ok(Number(await premiumOf(page)) > 0, 'the last trade is priced instead');
+  await page.close();
+});
+
 test('an edited trade is back after a reload', async () => {
   const page = await open();
   const first = await premiumOf(page);
@@ -232,6 +240,8 @@ test('a corrupt import leaves the current trade as it was', async () => {
     ['nan.json', exampleText.replace('"spot": 48.20', '"spot": NaN'), 'not a JSON trade file'],
     ['wrong.json', exampleText.replace('"spot": 48.20', '"spot": "48.20"'), 'market.spot: must be a number'],
     ['huge.json', `{"notes": "${'x'.repeat((1 << 20) + 10)}"}`, 'larger than 1 MB'],
+    // nesting this deep once stopped the engine (a stack overflow when the document was copied)
+    ['deep.json', `{"market": ${'{"a": '.repeat(5000)}1${'}'.repeat(5000)}}`, 'nested more than 64 levels deep'],
   ];
   for (const [name, content, why] of corrupt) {
     await page.evaluate(() => { document.getElementById('notice').textContent = ''; });

@@ -9,7 +9,7 @@ import { test } from 'node:test';
 import { fileURLToPath } from 'node:url';
 
 import { formatNumber, formatSmart, inputText, parseNumber, parsePercent, parseTenor, percentText } from '../../web/src/format.js';
-import { fromBase64Url, toBase64Url, tradeFromHash, autosave } from '../../web/src/share.js';
+import { fromBase64Url, toBase64Url, tradeFromHash, autosave, parseTradeText } from '../../web/src/share.js';
 import { getPath, pathAncestors, setPath } from '../../web/src/paths.js';
 import { changeShape, defaultExerciseSchedule, readDateList, readWhen } from '../../web/src/form.js';
 import { addMonths, addYears, yearsBetween } from '../../web/src/dates.js';
@@ -54,6 +54,13 @@ test('a trade survives the #trade= link, unicode and all', () => {
   assert.deepEqual(JSON.parse(fromBase64Url(code)), doc);
   assert.equal(tradeFromHash('#other'), null);
   assert.throws(() => fromBase64Url('a+b/'), /damaged/);
+});
+
+test('trade text from outside is refused when nested deeper than any trade (the engine limit, 64)', () => {
+  assert.deepEqual(parseTradeText('{"a": [1, {"b": "[[[{{{"}]}'), { a: [1, { b: '[[[{{{' }] });  // brackets in text do not count
+  assert.deepEqual(parseTradeText(`${'['.repeat(64)}${']'.repeat(64)}`).length, 1);
+  assert.throws(() => parseTradeText(`${'['.repeat(65)}${']'.repeat(65)}`), /nested more than 64 levels deep/);
+  assert.throws(() => parseTradeText('{"a": "\\"'), SyntaxError);  // an escaped backslash then an unclosed object
 });
 
 test('autosave reports a full store instead of failing silently', () => {

@@ -15,7 +15,7 @@ import {
 import { pathAncestors } from './paths.js';
 import { renderPrice, renderSheet, setResult } from './render.js';
 import {
-  autosave, download, fingerprint, loadAutosave, slug, toBase64Url, tradeFileText, tradeFromHash,
+  autosave, download, fingerprint, loadAutosave, parseTradeText, slug, toBase64Url, tradeFileText, tradeFromHash,
 } from './share.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { hedgePanel } from './hedge.js';
@@ -483,14 +483,16 @@ async function importFile(file) {
   const refuse = (why) => notice(`“${file.name}” was not opened: ${why} The current trade is unchanged.`, 'warning');
   if (file.size > 1 << 20) return refuse('it is larger than 1 MB.');
   let doc;
+  let text;
   try {
-    doc = JSON.parse(await file.text());
-  } catch {
-    return refuse('it is not a JSON trade file.');
+    text = await file.text();
+    doc = parseTradeText(text);
+  } catch (err) {
+    return refuse(err instanceof SyntaxError ? 'it is not a JSON trade file.' : `${err.message}.`);
   }
   if (!doc || typeof doc !== 'object' || Array.isArray(doc)) return refuse('it does not hold a trade (a JSON object).');
   try {
-    await live.call('price', doc);
+    await live.call('price', text);  // the file's own text: the engine's checks (nesting, size) come first
   } catch (err) {
     return refuse(err instanceof EngineError ? `${err.message}.` : `the engine failed (${err.message}).`);
   }
@@ -542,7 +544,7 @@ function initialTrade() {
   try {
     const fromLink = tradeFromHash(location.hash);
     if (fromLink !== null) {
-      const doc = JSON.parse(fromLink);
+      const doc = parseTradeText(fromLink);
       if (!doc || typeof doc !== 'object' || Array.isArray(doc)) throw new Error('it does not hold a trade');
       history.replaceState(null, '', location.href.split('#')[0]);  // from now on autosave keeps the edits
       return { doc, message: 'Opened the trade from the link.' };
@@ -624,7 +626,7 @@ function start() {
       const text = tradeFromHash(location.hash);
       if (text !== null) {
         history.replaceState(null, '', location.href.split('#')[0]);
-        adopt(JSON.parse(text), 'Opened the trade from the link.');
+        adopt(parseTradeText(text), 'Opened the trade from the link.');
       }
     } catch (err) {
       notice(`The trade in the link could not be read (${err.message}).`, 'warning');

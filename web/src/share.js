@@ -25,6 +25,31 @@ export function tradeFromHash(hash) {
   return match ? fromBase64Url(match[1]) : null;
 }
 
+/** Deepest nesting of objects and arrays a trade may have (max_document_depth in core/trade.hpp). */
+export const maxDocumentDepth = 64;
+
+/**
+ * Parse trade text from outside the page (link, file, autosave). Throws SyntaxError
+ * for text that is not JSON and Error for nesting deeper than any trade, which the
+ * page could not even copy (the engine refuses it the same way).
+ */
+export function parseTradeText(text) {
+  let depth = 0;
+  let inString = false;
+  let escaped = false;
+  for (const c of text) {
+    if (inString) {
+      if (escaped) escaped = false;
+      else if (c === '\\') escaped = true;
+      else if (c === '"') inString = false;
+    } else if (c === '"') inString = true;
+    else if (c === '{' || c === '[') {
+      if (++depth > maxDocumentDepth) throw new Error(`it is nested more than ${maxDocumentDepth} levels deep, which no trade is`);
+    } else if (c === '}' || c === ']') depth -= 1;
+  }
+  return JSON.parse(text);
+}
+
 /** The file text for a trade document (what Export writes and the CLI reads). */
 export function tradeFileText(doc) {
   return `${JSON.stringify(doc, null, 2)}\n`;
@@ -61,7 +86,7 @@ export function autosave(storage, record) {
 export function loadAutosave(storage) {
   try {
     const text = storage?.getItem(storageKey);
-    return text ? JSON.parse(text) : null;
+    return text ? parseTradeText(text) : null;
   } catch {
     return null;
   }
