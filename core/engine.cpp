@@ -52,7 +52,9 @@ json run_command(const std::string& command, const json& document, double work_b
     if (it == commands().end()) {
         std::string list;
         for (const auto& n : command_names()) list += (list.empty() ? "" : ", ") + n;
-        fail("", "unknown command \"" + shorten(command, 40) + "\" (one of " + list + ")");
+        const std::string hint = nearest(command, command_names());
+        fail("", "unknown command \"" + shorten(command, 40) + "\" (one of " + list + ")" +
+                     (hint.empty() ? std::string() : "; did you mean \"" + hint + "\"?"));
     }
     const trade t = parse_trade(document);
     check_work_budget(command, t, work_budget);  // refuse up front, before any work

@@ -185,14 +185,31 @@ bool field_reader::boolean_or(const std::string& key, bool fallback) {
     return v->get<bool>();
 }
 
+std::string nearest(const std::string& word, const std::vector<std::string>& candidates) {
+    std::string best;
+    std::size_t best_distance = 3;  // at most two edits away
+    if (word.size() > 60) return best;
+    for (const auto& c : candidates) {
+        const std::size_t d = distance(word, c);
+        if (d < best_distance) {
+            best_distance = d;
+            best = c;
+        }
+    }
+    return best;
+}
+
 std::string field_reader::choice(const std::string& key, const std::vector<std::string>& choices) {
     const json& v = raw(key);
     std::string list;
     for (const auto& c : choices) list += (list.empty() ? "" : ", ") + c;
     if (!v.is_string()) fail(child(key), "must be one of " + list + ", got " + describe(v));
     const auto& s = v.get_ref<const std::string&>();
-    if (std::find(choices.begin(), choices.end(), s) == choices.end())
-        fail(child(key), "must be one of " + list + ", got " + describe(v));
+    if (std::find(choices.begin(), choices.end(), s) == choices.end()) {
+        const std::string hint = nearest(s, choices);
+        fail(child(key), "must be one of " + list + ", got " + describe(v) +
+                             (hint.empty() ? std::string() : " (did you mean \"" + hint + "\"?)"));
+    }
     return s;
 }
 

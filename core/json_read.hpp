@@ -29,6 +29,9 @@ std::string index_path(const std::string& parent, std::size_t index);
 /// Read a finite number at `path` from `value` (not from an object).
 double as_number(const json& value, const std::string& path);
 
+/// The candidate at most two edits from `word` (the nearest), or "": the did-you-mean hints.
+std::string nearest(const std::string& word, const std::vector<std::string>& candidates);
+
 /// Reads the fields of one JSON object; call finish() to reject unknown keys.
 class field_reader {
 public:

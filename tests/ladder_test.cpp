@@ -132,7 +132,7 @@ TEST_CASE("the ladder section is read strictly and its limits named", "[ladder]"
     json doc = call_doc();
     doc["ladder"] = {{"kind", "spots"}};
     CHECK_THROWS_WITH(run_command("ladder", doc),
-                      "ladder.kind: must be one of spot, volatility, time, grid, got string \"spots\"");
+                      "ladder.kind: must be one of spot, volatility, time, grid, got string \"spots\" (did you mean \"spot\"?)");
     doc["ladder"] = {{"spot_form", -0.1}};
     CHECK_THROWS_WITH(run_command("ladder", doc), "ladder.spot_form: unknown field (did you mean \"spot_from\"?)");
     doc["ladder"] = {{"spot_from", -1.5}};
