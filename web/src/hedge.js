@@ -224,7 +224,13 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       }
       root.append(g);
     }
-    const legend = make('p', { className: 'hint', text: `Spot above each node, the trade's value (V) on the path. Up ×${formatNumber(tree.up, 4)}, down ×${formatNumber(tree.down, 4)}, up-probability ${formatNumber(tree.p_up, 4)} per ${formatNumber(tree.dt_years * 365, 1)} days. Ringed nodes: the holder exercises early.` });
+    // the forward growth of one step under the pricing probabilities: p u + (1 - p) d
+    const growth = tree.p_up * tree.up + (1 - tree.p_up) * tree.down;
+    const legend = make('p', { className: 'hint', text: `Spot above each node, the trade's value (V) on the path. ` +
+      `Per ${formatNumber(tree.dt_years * 365, 1)} days: up ×${formatNumber(tree.up, 4)}, down ×${formatNumber(tree.down, 4)}, ` +
+      `forward growth ×${formatNumber(growth, 4)} (down < growth < up: no arbitrage), up-probability ${formatNumber(tree.p_up, 4)}. ` +
+      'At each node the hedge holds Δ = (V up − V down) / (S up − S down) shares and B = V − Δ·S in cash. ' +
+      'Ringed nodes: the holder exercises early.' });
     treeHost.replaceChildren(root, legend);
   }
 
