@@ -2,7 +2,6 @@
 // examples, early-exercise facts, convergence orders and the no-arbitrage check.
 #include "closed_form.hpp"
 #include "lattice.hpp"
-#include "test_support.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -10,8 +9,6 @@
 
 using namespace hedgeleaf;
 
-using testing::make_leg;
-using testing::market;
 namespace {
 lattice_settings plain(lattice_method m, int steps) { return {m, steps, false}; }
 const lattice_method all_methods[] = {lattice_method::crr, lattice_method::jarrow_rudd, lattice_method::tian,
@@ -20,11 +17,11 @@ const lattice_method all_methods[] = {lattice_method::crr, lattice_method::jarro
 
 TEST_CASE("every lattice converges to the closed form for European options", "[lattice]") {
     // Binomial prices converge to Black-Scholes as steps grow (Cox, Ross and Rubinstein, 1979).
-    const auto m = market(100, 0.25, 0.05, 0.02);
+    const auto m = flat_market(100, 0.25, 0.05, 0.02);
     for (auto method : all_methods)
         for (auto type : {payoff_kind::call, payoff_kind::put})
             for (double strike : {85.0, 100.0, 120.0}) {
-                const auto leg = make_leg(type, strike, 1.0);
+                const auto leg = single_leg(type, strike, 1.0);
                 const double exact = closed_form(m, leg).premium;
                 const double lat = price_lattice_only(m, leg, plain(method, 2001)).premium;
                 INFO("method " << to_string(method) << " strike " << strike);
@@ -34,8 +31,8 @@ TEST_CASE("every lattice converges to the closed form for European options", "[l
 
 TEST_CASE("Leisen-Reimer converges at second order for European options", "[lattice]") {
     // Leisen and Reimer (1996), Applied Mathematical Finance 3: O(1/N^2) for odd N.
-    const auto m = market(100, 0.30, 0.05, 0.0);
-    const auto leg = make_leg(payoff_kind::call, 110, 1.0);
+    const auto m = flat_market(100, 0.30, 0.05, 0.0);
+    const auto leg = single_leg(payoff_kind::call, 110, 1.0);
     const double exact = closed_form(m, leg).premium;
     const double e1 = std::fabs(price_lattice_only(m, leg, plain(lattice_method::leisen_reimer, 51)).premium - exact);
     const double e2 = std::fabs(price_lattice_only(m, leg, plain(lattice_method::leisen_reimer, 153)).premium - exact);
@@ -50,8 +47,8 @@ TEST_CASE("published binomial tree for an American put", "[lattice]") {
     // Hull, Options, Futures, and Other Derivatives, 8th ed., Figure 20.3 (from memory):
     // S=50, K=50, r=10 %, sigma=40 %, T=5 months, 5-step CRR tree: American put 4.49;
     // the text gives 4.263, 4.272 and 4.278 with 30, 50 and 100 steps.
-    const auto m = market(50, 0.40, 0.10);
-    const auto put = make_leg(payoff_kind::put, 50, 5.0 / 12, exercise_style::american);
+    const auto m = flat_market(50, 0.40, 0.10);
+    const auto put = single_leg(payoff_kind::put, 50, 5.0 / 12, exercise_style::american);
     CHECK(price_lattice_only(m, put, plain(lattice_method::crr, 5)).premium == Approx(4.49).margin(0.005));
     CHECK(price_lattice_only(m, put, plain(lattice_method::crr, 30)).premium == Approx(4.263).margin(0.0005));
     CHECK(price_lattice_only(m, put, plain(lattice_method::crr, 50)).premium == Approx(4.272).margin(0.0005));
@@ -61,9 +58,9 @@ TEST_CASE("published binomial tree for an American put", "[lattice]") {
 TEST_CASE("default settings price an American option within 1e-4 relative", "[lattice]") {
     // Converged value: Leisen-Reimer at 8,001 steps with Richardson (its own two
     // extrapolated levels 4,001/8,001 agree to better than 5e-6 relative, far inside the 1e-4 checked; common practice).
-    const auto m = market(100, 0.30, 0.05, 0.02);
+    const auto m = flat_market(100, 0.30, 0.05, 0.02);
     for (double strike : {90.0, 125.0}) {
-        const auto put = make_leg(payoff_kind::put, strike, 1.5, exercise_style::american);
+        const auto put = single_leg(payoff_kind::put, strike, 1.5, exercise_style::american);
         const double converged = price_lattice_only(m, put, {lattice_method::leisen_reimer, 8001, true}).premium;
         const double coarser = price_lattice_only(m, put, {lattice_method::leisen_reimer, 4001, true}).premium;
         REQUIRE(std::fabs(converged - coarser) / converged < 5e-6);
@@ -78,13 +75,13 @@ TEST_CASE("early exercise facts", "[lattice]") {
     const lattice_settings s{lattice_method::leisen_reimer, 401, true};
     // An American call on a stock paying nothing is never exercised early: equals the European
     // (Merton, 1973; Hull 8th ed. section 11.5, from memory).
-    const auto m = market(100, 0.3, 0.06);
-    const auto eu = make_leg(payoff_kind::call, 95, 1.0);
+    const auto m = flat_market(100, 0.3, 0.06);
+    const auto eu = single_leg(payoff_kind::call, 95, 1.0);
     auto am = eu;
     am.exercise = exercise_style::american;
     CHECK(price_lattice_only(m, am, s).premium == Approx(price_lattice_only(m, eu, s).premium).epsilon(1e-10));
     // American >= Bermudan >= European, for a put (common practice).
-    const auto put_eu = make_leg(payoff_kind::put, 110, 1.0);
+    const auto put_eu = single_leg(payoff_kind::put, 110, 1.0);
     auto put_am = put_eu;
     put_am.exercise = exercise_style::american;
     auto put_berm = put_eu;
@@ -104,11 +101,11 @@ TEST_CASE("early exercise facts", "[lattice]") {
 
 TEST_CASE("lattice Greeks agree with the closed form for European options", "[lattice]") {
     // Delta, gamma and theta read off the tree; vega and rho by central differences (common practice).
-    auto m = market(100, 0.25, 0.04, 0.01);
+    auto m = flat_market(100, 0.25, 0.04, 0.01);
     for (bool dividend : {false, true}) {
         if (dividend) m.dividends = {{0.3, 2.0}};
         for (auto type : {payoff_kind::call, payoff_kind::put}) {
-            const auto leg = make_leg(type, 105, 0.75);
+            const auto leg = single_leg(type, 105, 0.75);
             const greeks exact = closed_form(m, leg).sensitivities;
             const greeks lat = price_on_lattice(m, leg, lattice_settings{}).sensitivities;
             CHECK(lat.delta == Approx(exact.delta).margin(2e-4));
@@ -121,8 +118,8 @@ TEST_CASE("lattice Greeks agree with the closed form for European options", "[la
 }
 
 TEST_CASE("digital options on the lattice approach the closed form", "[lattice]") {
-    const auto m = market(100, 0.2, 0.03);
-    option_leg digital = make_leg(payoff_kind::digital_call, 100, 1.0);
+    const auto m = flat_market(100, 0.2, 0.03);
+    option_leg digital = single_leg(payoff_kind::digital_call, 100, 1.0);
     digital.payout = 10;
     const double exact = closed_form(m, digital).premium;
     CHECK(price_lattice_only(m, digital, lattice_settings{}).premium == Approx(exact).margin(2e-3));
@@ -130,8 +127,8 @@ TEST_CASE("digital options on the lattice approach the closed form", "[lattice]"
 
 TEST_CASE("the no-arbitrage condition is checked and named", "[lattice]") {
     // CRR needs |r - q| sqrt(dt) < sigma; a 1 % vol with a 50 % rate gap over one step breaks it.
-    const auto m = market(100, 0.01, 0.5);
-    const auto leg = make_leg(payoff_kind::call, 100, 1.0);
+    const auto m = flat_market(100, 0.01, 0.5);
+    const auto leg = single_leg(payoff_kind::call, 100, 1.0);
     try {
         (void)price_lattice_only(m, leg, plain(lattice_method::crr, 1));
         FAIL("no error");
@@ -144,7 +141,7 @@ TEST_CASE("the no-arbitrage condition is checked and named", "[lattice]") {
     }
     // Every method's step satisfies it in a normal market, with p from the growth factor.
     for (auto method : all_methods) {
-        const lattice_step st = make_step(method, market(100, 0.3, 0.05, 0.01), 100, 1.0, 50);
+        const lattice_step st = make_step(method, flat_market(100, 0.3, 0.05, 0.01), 100, 1.0, 50);
         CHECK(st.down < st.growth);
         CHECK(st.growth < st.up);
         CHECK(st.p_up == Approx((st.growth - st.down) / (st.up - st.down)));
@@ -153,8 +150,8 @@ TEST_CASE("the no-arbitrage condition is checked and named", "[lattice]") {
 
 TEST_CASE("memory stays linear at the largest step count", "[lattice]") {
     // 50,000 steps with O(N) memory: a quadratic tree would need 10 GB and fail.
-    const auto m = market(100, 0.3, 0.05);
-    const auto put = make_leg(payoff_kind::put, 100, 1.0, exercise_style::american);
+    const auto m = flat_market(100, 0.3, 0.05);
+    const auto put = single_leg(payoff_kind::put, 100, 1.0, exercise_style::american);
     const auto p = price_lattice_only(m, put, {lattice_method::crr, 50000, false});
     CHECK(std::isfinite(p.premium));
     CHECK(p.premium > closed_form(m, put).premium);
