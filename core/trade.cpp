@@ -211,7 +211,7 @@ json parse_json_text(const std::string& text) {
     // thousands deep would overflow the stack (found by a hand-made 150,000-level
     // object: a crash natively, "maximum call stack size exceeded" in the module).
     // A trade is a few levels deep; refuse deep nesting before building anything.
-    int depth = 0, deepest = 0;
+    int depth = 0;
     bool in_string = false, escaped = false;
     for (const char c : text) {
         if (in_string) {
@@ -221,15 +221,13 @@ json parse_json_text(const std::string& text) {
         } else if (c == '"') {
             in_string = true;
         } else if (c == '{' || c == '[') {
-            deepest = std::max(deepest, ++depth);
-            if (depth > max_document_depth) break;
+            if (++depth > max_document_depth)
+                fail("", "not a valid trade document (nested more than " + std::to_string(max_document_depth) +
+                             " levels deep; a trade needs fewer than 10)");
         } else if (c == '}' || c == ']') {
             --depth;
         }
     }
-    if (deepest > max_document_depth)
-        fail("", "not a valid trade document (nested more than " + std::to_string(max_document_depth) +
-                     " levels deep; a trade needs fewer than 10)");
     json doc = json::parse(text, nullptr, false);
     if (doc.is_discarded()) {
         try {

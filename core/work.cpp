@@ -54,26 +54,32 @@ double induction_work(int steps) {
     return below + above;
 }
 
+std::string work_field(const std::string& command) {
+    if (command == "hedge") return "hedge.lattice_steps";
+    if (command == "ladder") return "ladder.steps";
+    if (command == "profile") return "profile.steps";
+    if (command == "tree") return "hedge.path";
+    return "lattice.steps";
+}
+
 work_estimate estimate_work(const std::string& command, const trade& t) {
     work_estimate w;
     const leg_work legs = count_legs(t);
     const double one_price = price_work(t.lattice.method, t.lattice.steps);
+    w.field = work_field(command);
     if (command == "price") {
         // The price, four re-prices for vega and rho, two for a quote's volatility margin.
         w.node_updates = 7 * legs.option_legs * one_price;
-        w.field = "lattice.steps";
         w.what = legs_text(legs.option_legs) + " at " + steps_text(t) + ", priced 7 times (premium, vega, rho, quote)";
     } else if (command == "solve") {
         // A bracketed root search: about 20 evaluations without sensitivities.
         w.node_updates = 20 * legs.option_legs * one_price;
-        w.field = "lattice.steps";
         w.what = legs_text(legs.option_legs) + " at " + steps_text(t) + ", priced about 20 times by the search";
     } else if (command == "hedge" && legs.early_legs > 0) {
         // American and Bermudan legs are re-priced on their own lattice at every date.
         const hedge_settings hs = read_hedge_settings(t);
         const double dates = static_cast<double>(schedule_dates(t, hs.rebalance, "hedge.rebalance").size());
         w.node_updates = dates * legs.early_legs * price_work(t.lattice.method, hs.lattice_steps);
-        w.field = "hedge.lattice_steps";
         w.what = std::to_string(legs.early_legs) + " American or Bermudan leg" + (legs.early_legs == 1 ? "" : "s") +
                  " re-priced at " + std::to_string(hs.lattice_steps) + " steps on " + format_number(dates) + " dates";
     }
@@ -109,13 +115,6 @@ void charge_work(double node_updates) {
     }
 }
 
-std::string work_field(const std::string& command) {
-    if (command == "hedge") return "hedge.lattice_steps";
-    if (command == "ladder") return "ladder.steps";
-    if (command == "profile") return "profile.steps";
-    if (command == "tree") return "hedge.path";
-    return "lattice.steps";
-}
 
 void check_work_budget(const std::string& command, const trade& t, double budget) {
     if (!std::isfinite(budget)) return;
