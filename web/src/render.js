@@ -6,23 +6,18 @@
 import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
 
-// While renderPrice runs, the figure elements found by one query of the page
-// (it writes some thirty figures; one query each would be most of its time).
-let figureIndex = null;
-
-function figureNodes(name) {
-  if (figureIndex) return figureIndex.get(name) ?? [];
-  return document.querySelectorAll(`[data-result="${name}"]`);
-}
-
-/** Write one figure: shown text and, when numeric, the raw value. Unchanged text is left alone. */
-export function setResult(name, text, value) {
-  for (const node of figureNodes(name)) {
+function writeFigure(nodes, text, value) {
+  for (const node of nodes) {
     if (node.textContent !== text) node.textContent = text;
     if (typeof value === 'number') {
       if (node.dataset.value !== String(value)) node.dataset.value = String(value);
     } else if ('value' in node.dataset) delete node.dataset.value;
   }
+}
+
+/** Write one figure: shown text and, when numeric, the raw value. Unchanged text is left alone. */
+export function setResult(name, text, value) {
+  writeFigure(document.querySelectorAll(`[data-result="${name}"]`), text, value);
 }
 
 const typeNames = { call: 'call', put: 'put', 'digital-call': 'digital call', 'digital-put': 'digital put', stock: 'share' };
@@ -61,73 +56,70 @@ function perUnitDigitsOf(x) {
 
 /** Fill every price figure from a `price` result. */
 export function renderPrice(doc, r) {
-  figureIndex = new Map();
+  // some thirty figures: find them all with one query of the page, not one query each
+  const index = new Map();
   for (const node of document.querySelectorAll('[data-result]')) {
     const name = node.dataset.result;
-    if (!figureIndex.has(name)) figureIndex.set(name, []);
-    figureIndex.get(name).push(node);
+    if (!index.has(name)) index.set(name, []);
+    index.get(name).push(node);
   }
-  try {
-    writeFigures(doc, r);
-  } finally {
-    figureIndex = null;
-  }
+  writeFigures(doc, r, (name, text, value) => writeFigure(index.get(name) ?? [], text, value));
 }
 
-function writeFigures(doc, r) {
+function writeFigures(doc, r, set) {
   const q = r.position.quantity;
   const sign = r.position.side === 'sell' ? -1 : 1;
   const perUnitDigits = perUnitDigitsOf(r.premium);
-  setResult('premium', formatNumber(r.premium, perUnitDigits), r.premium);
-  setResult('premium-total', formatNumber(q * r.premium, 2), q * r.premium);
-  setResult('premium-percent-spot', formatPercent(r.premium / r.spot, 2), r.premium / r.spot);
-  setResult('notional', formatNumber(q * r.spot, 2), q * r.spot);
-  setResult('premium-percent-notional', formatPercent((q * r.premium) / (q * r.spot), 2), r.premium / r.spot);
+  set('premium', formatNumber(r.premium, perUnitDigits), r.premium);
+  set('premium-total', formatNumber(q * r.premium, 2), q * r.premium);
+  set('premium-percent-spot', formatPercent(r.premium / r.spot, 2), r.premium / r.spot);
+  set('notional', formatNumber(q * r.spot, 2), q * r.spot);
+  set('premium-percent-notional', formatPercent((q * r.premium) / (q * r.spot), 2), r.premium / r.spot);
 
   const cp = r.client_price;
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
   if (cp) {
-    setResult('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`, cp.per_unit);
-    setResult('client-price-total', formatNumber(cp.total, 2), cp.total);
-    setResult('desk-margin-total', formatNumber(cp.desk_margin_total, 2), cp.desk_margin_total);
+    set('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`, cp.per_unit);
+    set('client-price-total', formatNumber(cp.total, 2), cp.total);
+    set('desk-margin-total', formatNumber(cp.desk_margin_total, 2), cp.desk_margin_total);
     document.getElementById('client-side').textContent = `per unit, ${cp.client_side}`;
   }
 
   const g = r.greeks;
   const p = r.position.greeks;
-  setResult('delta', formatNumber(g.delta, 4), g.delta);
-  setResult('delta-position', formatNumber(p.delta, 2), p.delta);
-  setResult('gamma', formatSmart(g.gamma, 4, 4), g.gamma);
-  setResult('gamma-position', formatSmart(p.gamma, 4, 2), p.gamma);
-  setResult('theta', formatNumber(g.theta, 4), g.theta);
-  setResult('theta-position', formatNumber(p.theta, 2), p.theta);
-  setResult('theta-day', formatSmart(g.theta / 365, 4, 4), g.theta / 365);
-  setResult('theta-day-position', formatNumber(p.theta / 365, 2), p.theta / 365);
-  setResult('vega', formatSmart(g.vega / 100, 4, 4), g.vega);
-  setResult('vega-position', formatNumber(p.vega / 100, 2), p.vega);
-  setResult('rho', formatSmart(g.rho / 100, 4, 4), g.rho);
-  setResult('rho-position', formatNumber(p.rho / 100, 2), p.rho);
+  set('delta', formatNumber(g.delta, 4), g.delta);
+  set('delta-position', formatNumber(p.delta, 2), p.delta);
+  set('gamma', formatSmart(g.gamma, 4, 4), g.gamma);
+  set('gamma-position', formatSmart(p.gamma, 4, 2), p.gamma);
+  set('theta', formatNumber(g.theta, 4), g.theta);
+  set('theta-position', formatNumber(p.theta, 2), p.theta);
+  set('theta-day', formatSmart(g.theta / 365, 4, 4), g.theta / 365);
+  set('theta-day-position', formatNumber(p.theta / 365, 2), p.theta / 365);
+  set('vega', formatSmart(g.vega / 100, 4, 4), g.vega);
+  set('vega-position', formatNumber(p.vega / 100, 2), p.vega);
+  set('rho', formatSmart(g.rho / 100, 4, 4), g.rho);
+  set('rho-position', formatNumber(p.rho / 100, 2), p.rho);
 
   const lattice = r.lattice;
   const method = { 'leisen-reimer': 'Leisen-Reimer', crr: 'Cox-Ross-Rubinstein', 'jarrow-rudd': 'Jarrow-Rudd', tian: 'Tian' }[lattice.method] ?? lattice.method;
-  setResult('lattice', `${method}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`);
-  setResult('closed-form-premium', formatNumber(r.closed_form.premium, perUnitDigits), r.closed_form.premium);
-  setResult('error-estimate', `± ${formatSmart(lattice.error_estimate, 2, 4)}`, lattice.error_estimate);
-  if (r.early_exercise_premium === null) setResult('early-exercise-premium', 'none (exercise only at expiry)');
-  else setResult('early-exercise-premium', formatNumber(r.early_exercise_premium, perUnitDigits), r.early_exercise_premium);
+  set('lattice', `${method}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`);
+  set('closed-form-premium', formatNumber(r.closed_form.premium, perUnitDigits), r.closed_form.premium);
+  set('error-estimate', `± ${formatSmart(lattice.error_estimate, 2, 4)}`, lattice.error_estimate);
+  if (r.early_exercise_premium === null) set('early-exercise-premium', 'none (exercise only at expiry)');
+  else set('early-exercise-premium', formatNumber(r.early_exercise_premium, perUnitDigits), r.early_exercise_premium);
 
   const rep = r.replication;
-  setResult('replication-shares', formatNumber(rep.shares, 4), rep.shares);
-  setResult('replication-cash', formatNumber(rep.cash, 4), rep.cash);
-  setResult('replication-shares-position', formatNumber(sign * q * rep.shares, 2), sign * q * rep.shares);
-  setResult('replication-cash-position', formatNumber(sign * q * rep.cash, 2), sign * q * rep.cash);
-  setResult('replication-check',
+  set('replication-shares', formatNumber(rep.shares, 4), rep.shares);
+  set('replication-cash', formatNumber(rep.cash, 4), rep.cash);
+  set('replication-shares-position', formatNumber(sign * q * rep.shares, 2), sign * q * rep.shares);
+  set('replication-cash-position', formatNumber(sign * q * rep.cash, 2), sign * q * rep.cash);
+  set('replication-check',
     `Δ·S + B = ${formatNumber(rep.shares, 4)} × ${formatNumber(rep.spot, 2)} + ${formatNumber(rep.cash, 4)} = ${formatNumber(rep.shares * rep.spot + rep.cash, 4)} = premium ${formatNumber(r.premium, 4)}`,
     rep.shares * rep.spot + rep.cash);
-  setResult('engine-version', r.engine_version);
+  set('engine-version', r.engine_version);
 
   const side = r.position.side === 'sell' ? 'Client sells' : 'Client buys';
-  setResult('trade-summary', '');
+  set('trade-summary', '');
   document.getElementById('trade-summary').textContent =
     `${side} ${inputText(q)} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${inputText(r.spot)}`;
 }

@@ -10,7 +10,8 @@ import { EngineError, loadEngine } from './engine.js';
 // optimised only after it has run for a while; a long call stays on the code it
 // started with. So once the first results are back, price a few small trades
 // (some 20 ms in all) so that the lattice kernels are optimised before the
-// user's first edit.
+// user's first edit. All four commands share the kernel, so a worker asked for
+// any of them warms them all; a worker that only simulates (its own card) does not.
 const warmUpTrades = [
   { market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
     option: { type: 'put', strike: 100, expiry_years: 0.5, exercise: 'american' }, lattice: { steps: 301 } },
@@ -20,14 +21,14 @@ const warmUpTrades = [
 const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
 let warmUp = null;
 
-function scheduleWarmUp(engine) {
-  if (warmUp) return;
+function scheduleWarmUp(engine, command) {
+  if (warmUp || !warmUpCommands.includes(command)) return;
   warmUp = setTimeout(() => {
-    for (const command of warmUpCommands) {
+    for (const name of warmUpCommands) {
+      if (!engine.commands.includes(name)) continue;
       for (const trade of warmUpTrades) {
-        if (!engine.commands.includes(command)) continue;
         try {
-          engine.run(command, trade);
+          engine.run(name, trade);
         } catch {
           // a refusal here changes nothing for the user: warming up is best effort
         }
@@ -52,5 +53,5 @@ self.onmessage = async (event) => {
     if (err instanceof EngineError) self.postMessage({ id, error: { field: err.field, message: err.message } });
     else self.postMessage({ id, fatal: String(err.message || err) });
   }
-  scheduleWarmUp(engine);
+  scheduleWarmUp(engine, command);
 };
