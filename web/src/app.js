@@ -565,8 +565,8 @@ function bindControls() {
 
 const hedge = hedgePanel({ live: desk, state, showError, setStale, changed, bindControls });
 const simulate = simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed, bindControls });
-const ladder = ladderPanel({ live: desk, state, showError, setStale, bindControls });
-const solve = solvePanel({ live: desk, state, showError, setStale, changed, bindControls, notice });
+const ladder = ladderPanel({ live: desk, state, showError, setStale, changed, bindControls });
+const solve = solvePanel({ live: desk, state, showError, setStale, changed, bindControls, notice, refill: fillForm });
 
 function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`;
@@ -581,8 +581,6 @@ function start() {
   ladder.setup();
   solve.setup();
   fillForm();
-  scope.addEventListener('refresh', () => changed(0));  // a folded card opened: compute what it shows
-  document.addEventListener('hedgeleaf:refill', fillForm);
   scope.addEventListener('input', onInput);
   scope.addEventListener('change', (event) => {
     if (event.target.tagName === 'SELECT' || event.target.type === 'checkbox' || event.target.type === 'radio' || event.target.type === 'date') onInput(event);

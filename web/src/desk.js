@@ -3,26 +3,24 @@
 // Both read their settings from the trade's own sections (`ladder`, `solve`;
 // core/ladder.hpp, core/solver.hpp), so the exported file gives the CLI the
 // same table. They run only while their card is open.
+import { cardBasics, cardParts, showControls } from './card.js';
 import { Cancelled, started } from './compute.js';
+import { bound, button, errorLine, field, fillTable, make, optionList, select, setText } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
-import { contractKey, fillInput } from './form.js';
+import { contractKey } from './form.js';
 import { setPath } from './paths.js';
-import { bound, field, fillTable, make, select, setText } from './dom.js';
 
 /**
- * What the folded cards (Scenarios, Solve) share: opening one asks for a recompute;
+ * What the folded cards (Scenarios, Solve) share: opening one asks for a recompute (`changed`);
  * request(doc) starts the card's engine call when the card is open and `wanted(doc)`;
  * update(generation, pending, price) shows what it brings unless a newer edit came first.
  */
-function foldedCard({ card, has, live, state, command, wanted = () => true, render, draw, setStale, showError }) {
-  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
+function foldedCard({ elements, live, state, command, wanted = () => true, render, draw, setStale, showError, changed }) {
+  const { card, has } = elements;
+  card.addEventListener('toggle', () => card.open && changed(0));
   return {
-    setup() {
-      card.hidden = !has();
-      render();
-    },
-    render,
+    ...cardBasics(elements, render),
     request(doc) {
       return has() && card.open && wanted(doc) ? started(live.call(command, doc)) : null;
     },
@@ -43,11 +41,9 @@ function foldedCard({ card, has, live, state, command, wanted = () => true, rend
 }
 
 /** The Scenarios card (`ladder` command). */
-export function ladderPanel({ live, state, showError, setStale, bindControls }) {
-  const card = document.getElementById('ladder-card');
-  const controls = document.getElementById('ladder-controls');
-  const output = document.getElementById('ladder-output');
-  const has = () => state.commands.includes('ladder');
+export function ladderPanel({ live, state, showError, setStale, changed, bindControls }) {
+  const elements = cardParts('ladder', state);
+  const { controls, output, has } = elements;
 
   function render() {
     if (!has()) return;
@@ -67,10 +63,8 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
       parts.push(make('div', { className: 'row' }, [field('Every … days', bound('ladder.time_step_days', 'number', { placeholder: 'a tenth of the life' })),
         field('Up to day', bound('ladder.time_to_days', 'number', { placeholder: 'expiry' }))]));
     }
-    parts.push(make('span', { className: 'field-error', dataset: { error: 'ladder' }, role: 'alert' }));
-    controls.replaceChildren(...parts);
-    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
-    bindControls(controls);
+    parts.push(errorLine('ladder'));
+    showControls(controls, parts, state.doc, bindControls);
   }
 
   function draw(r) {
@@ -110,7 +104,7 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
     setText(notesLine, `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.`);
   }
 
-  return foldedCard({ card, has, live, state, command: 'ladder', render, draw, setStale, showError });
+  return foldedCard({ elements, live, state, command: 'ladder', render, draw, setStale, showError, changed });
 }
 
 /** Where the strike of result leg `leg` lives in the document, or null. */
@@ -123,19 +117,15 @@ export function strikePath(doc, leg, oldStrike) {
 }
 
 /** The Solve card (`solve` command). */
-export function solvePanel({ live, state, showError, setStale, changed, bindControls, notice }) {
-  const card = document.getElementById('solve-card');
-  const controls = document.getElementById('solve-controls');
-  const output = document.getElementById('solve-output');
-  const has = () => state.commands.includes('solve');
+export function solvePanel({ live, state, showError, setStale, changed, bindControls, notice, refill }) {
+  const elements = cardParts('solve', state);
+  const { controls, output, has } = elements;
 
   function render() {
     if (!has()) return;
     const unknown = state.doc.solve?.for;
-    const what = make('select', { id: 'solve-for' });
-    for (const [value, text] of [['', 'nothing'], ['volatility', 'the volatility that gives a premium'], ['strike', 'the strike that gives a premium'], ['quantity', 'the quantity a budget buys']]) {
-      what.append(new Option(text, value));
-    }
+    const what = make('select', { id: 'solve-for' }, optionList([['', 'nothing'], ['volatility', 'the volatility that gives a premium'],
+      ['strike', 'the strike that gives a premium'], ['quantity', 'the quantity a budget buys']]));
     what.value = unknown ?? '';
     what.addEventListener('change', () => {
       if (!what.value) delete state.doc.solve;
@@ -153,10 +143,8 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
     } else if (unknown === 'quantity') {
       parts.push(make('div', { className: 'row' }, [field('Budget', bound('solve.budget', 'number', { placeholder: '' })), field('Lot size', bound('solve.lot_size', 'number', { placeholder: 'none' }))]));
     }
-    parts.push(make('span', { className: 'field-error', dataset: { error: 'solve' }, role: 'alert' }));
-    controls.replaceChildren(...parts);
-    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
-    bindControls(controls);
+    parts.push(errorLine('solve'));
+    showControls(controls, parts, state.doc, bindControls);
     if (!unknown) output.replaceChildren();
   }
 
@@ -178,7 +166,7 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
     }
     delete state.doc.solve;
     notice(`Applied the solution to the trade: ${done}.`);
-    document.dispatchEvent(new CustomEvent('hedgeleaf:refill'));
+    refill();
     changed(0);
   }
 
@@ -187,11 +175,10 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
     const text = unknown === 'volatility' ? `Volatility ${formatPercent(r.solution, 3)}`
       : unknown === 'quantity' ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
         : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
-    const use = make('button', { type: 'button', className: 'small', text: 'Use it in the trade' });
-    use.addEventListener('click', () => apply(r, price));
+    const use = button('Use it in the trade', () => apply(r, price), { className: 'small' });
     const solution = make('p', { className: 'equation' }, [make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text })]);
     output.replaceChildren(solution, use, make('p', { className: 'hint', text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; ') }));
   }
 
-  return foldedCard({ card, has, live, state, command: 'solve', wanted: (doc) => Boolean(doc.solve), render, draw, setStale, showError });
+  return foldedCard({ elements, live, state, command: 'solve', wanted: (doc) => Boolean(doc.solve), render, draw, setStale, showError, changed });
 }

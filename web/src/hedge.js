@@ -5,12 +5,12 @@
 // clicked on a small tree (kind "lattice", moves "UDDU..."), spots typed per
 // date ("spots"), a random path ("scenario", the engine's default) and a
 // stress shape ("stress"). The tree view comes from the `tree` command.
-import { Cancelled, started } from './compute.js';
+import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
+import { Cancelled, started } from './compute.js';
+import { bound, button, byId, errorLine, field, fillTable, make, makeSvg, select, whenInput } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
-import { fillInput } from './form.js';
-import { bound, field, fillTable, make } from './dom.js';
 
 const kinds = [
   ['lattice', 'Steps on a tree'],
@@ -19,14 +19,6 @@ const kinds = [
   ['stress', 'Stress'],
 ];
 const maxTreeSteps = 12;  // what fits on screen; the CLI takes longer paths
-const svgNs = 'http://www.w3.org/2000/svg';
-
-function svg(tag, attrs = {}, text) {
-  const node = document.createElementNS(svgNs, tag);
-  for (const [key, value] of Object.entries(attrs)) node.setAttribute(key, String(value));
-  if (text !== undefined) node.textContent = text;
-  return node;
-}
 
 /** The kind of path the trade asks for (the engine's default is a random path). */
 export function pathKind(doc) {
@@ -47,14 +39,13 @@ export function routeThrough(moves, step, index) {
 
 /** The hedge card: path controls, tree, chart and schedule table. */
 export function hedgePanel({ live, state, showError, setStale, changed, bindControls }) {
-  const card = document.getElementById('hedge-card');
-  const controls = document.getElementById('hedge-controls');
-  const treeHost = document.getElementById('hedge-tree');
+  const elements = cardParts('hedge', state);
+  const { card, controls, has } = elements;
+  const treeHost = byId('hedge-tree');
   const table = card.querySelector('[data-result="hedge-schedule"]');
+  const hasTree = () => state.commands.includes('tree');
   let lastRows = [];
   let lastTree = null;
-
-  const has = (command) => state.commands.includes(command);
 
   function hedgeSection() {
     if (!state.doc.hedge || typeof state.doc.hedge !== 'object' || Array.isArray(state.doc.hedge)) state.doc.hedge = {};
@@ -104,8 +95,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
   }
 
   function rebalanceFields() {
-    const unit = make('select', { dataset: { path: 'hedge.rebalance.unit', kind: 'choice' } });
-    for (const [value, text] of [['', 'weeks (default)'], ['days', 'business days'], ['weeks', 'weeks'], ['months', 'months']]) unit.append(new Option(text, value));
+    const unit = select('hedge.rebalance.unit', [['', 'weeks (default)'], ['days', 'business days'], ['weeks', 'weeks'], ['months', 'months']]);
     return make('div', { className: 'row' }, [
       field('Rebalance every', bound('hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' })),
       field('Unit', unit),
@@ -114,7 +104,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
 
   /** Build the controls for the current kind of path. */
   function render() {
-    if (!has('hedge')) return;
+    if (!has()) return;
     const doc = state.doc;
     const kind = pathKind(doc);
     const choice = make('fieldset', { className: 'field choice-field' }, [make('legend', { text: 'Path of spot' })]);
@@ -134,19 +124,20 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       const buttons = make('div', { className: 'path-buttons', role: 'group', 'aria-label': 'Moves of spot, step by step' });
       [...moves].forEach((m, i) => {
         const up = m === 'U';
-        const button = make('button', { type: 'button', className: `move ${up ? 'up' : 'down'}`, text: up ? '▲' : '▼',
-          title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})` });
-        button.setAttribute('aria-label', `Step ${i + 1}: ${up ? 'up' : 'down'}`);
-        button.setAttribute('aria-pressed', up ? 'true' : 'false');
-        button.addEventListener('click', () => {
+        const flip = () => {
           setMoves(moves.slice(0, i) + (up ? 'D' : 'U') + moves.slice(i + 1));
           controls.querySelectorAll('.move')[i]?.focus();
-        });
-        buttons.append(button);
+        };
+        buttons.append(button(up ? '▲' : '▼', flip, {
+          className: `move ${up ? 'up' : 'down'}`,
+          title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})`,
+          'aria-label': `Step ${i + 1}: ${up ? 'up' : 'down'}`,
+          'aria-pressed': up ? 'true' : 'false',
+        }));
       });
       parts.push(make('div', { className: 'row' }, [field(`Tree steps (1–${maxTreeSteps})`, steps)]),
         make('p', { className: 'hint', text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.' }),
-        buttons, make('span', { className: 'field-error', dataset: { error: 'hedge.path.moves' }, role: 'alert' }));
+        buttons, errorLine('hedge.path.moves'));
     } else if (kind === 'spots') {
       const spots = Array.isArray(doc.hedge?.path?.spots) ? doc.hedge.path.spots : [];
       const list = make('div', { className: 'spot-list' });
@@ -154,10 +145,9 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         const date = lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
         list.append(field(String(date), bound(`hedge.path.spots[${i}]`, 'number'), 'field cell'));
       });
-      const fit = make('button', { type: 'button', className: 'small', text: 'One spot per date' });
-      fit.addEventListener('click', fitSpots);
+      const fit = button('One spot per date', fitSpots, { className: 'small' });
       parts.push(rebalanceFields(), make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
-        list, make('span', { className: 'field-error', dataset: { error: 'hedge.path.spots' }, role: 'alert' }));
+        list, errorLine('hedge.path.spots'));
     } else if (kind === 'scenario') {
       parts.push(rebalanceFields(), make('div', { className: 'row' }, [
         field('Drift % p.a.', bound('hedge.path.drift', 'percent', { placeholder: 'the rate' })),
@@ -165,19 +155,16 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         field('Seed', bound('hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' })),
       ]));
     } else {
-      const shape = make('select', { dataset: { path: 'hedge.path.shape', kind: 'choice' } });
-      for (const [value, text] of [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]) shape.append(new Option(text, value));
+      const shape = select('hedge.path.shape', [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]);
       const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
       if (doc.hedge?.path?.shape === 'gap-down') {
-        row.push(field('Gap date or years', make('input', { dataset: { role: 'when', base: 'hedge.path', keys: 'date,years' }, autocomplete: 'off' })));
+        row.push(field('Gap date or years', whenInput('hedge.path', 'date,years')));
       }
       parts.push(rebalanceFields(), make('div', { className: 'row' }, row));
     }
     parts.push(make('div', { className: 'row' }, [field('Trading cost, bp of traded value', bound('hedge.cost_bp', 'number', { placeholder: '0' }))]),
-      make('span', { className: 'field-error', dataset: { error: 'hedge' }, role: 'alert' }));
-    controls.replaceChildren(...parts);
-    for (const input of controls.querySelectorAll('[data-path], [data-role]')) fillInput(doc, input);
-    bindControls(controls);
+      errorLine('hedge'));
+    showControls(controls, parts, doc, bindControls);
     treeHost.hidden = kind !== 'lattice';
   }
 
@@ -197,21 +184,21 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const height = 40 + steps * 2 * dy;
     const x = (n) => 40 + n * dx;
     const y = (n, i) => height / 2 - (2 * i - n) * dy;
-    const root = svg('svg', { viewBox: `0 0 ${width} ${height}`, class: 'tree-svg', role: 'group', 'aria-label': 'Lattice of spot; pick a node to route the path through it' });
+    const root = makeSvg('svg', { viewBox: `0 0 ${width} ${height}`, class: 'tree-svg', role: 'group', 'aria-label': 'Lattice of spot; pick a node to route the path through it' });
     for (const node of nodes) {
       if (node.step >= steps) continue;
       for (const k of [0, 1]) {
         const on = onPath.has(`${node.step}:${node.index}`) && onPath.has(`${node.step + 1}:${node.index + k}`);
-        root.append(svg('line', { x1: x(node.step), y1: y(node.step, node.index), x2: x(node.step + 1), y2: y(node.step + 1, node.index + k), class: `edge${on ? ' on-path' : ''}` }));
+        root.append(makeSvg('line', { x1: x(node.step), y1: y(node.step, node.index), x2: x(node.step + 1), y2: y(node.step + 1, node.index + k), class: `edge${on ? ' on-path' : ''}` }));
       }
     }
     for (const node of nodes) {
       const on = onPath.has(`${node.step}:${node.index}`);
-      const g = svg('g', { class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`, tabindex: -1, role: 'button',
+      const g = makeSvg('g', { class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`, tabindex: -1, role: 'button',
         'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, 2)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}` });
-      g.append(svg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
-      g.append(svg('text', { x: x(node.step), y: y(node.step, node.index) - 9, 'text-anchor': 'middle' }, formatNumber(node.spot, 2)));
-      if (on) g.append(svg('text', { x: x(node.step), y: y(node.step, node.index) + 17, 'text-anchor': 'middle', class: 'value' }, `V ${formatNumber(node.value, 2)}`));
+      g.append(makeSvg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
+      g.append(makeSvg('text', { x: x(node.step), y: y(node.step, node.index) - 9, 'text-anchor': 'middle' }, formatNumber(node.spot, 2)));
+      if (on) g.append(makeSvg('text', { x: x(node.step), y: y(node.step, node.index) + 17, 'text-anchor': 'middle', class: 'value' }, `V ${formatNumber(node.value, 2)}`));
       if (node.step > 0) {
         const pick = () => setMoves(routeThrough(moves, node.step, node.index));
         g.addEventListener('click', pick);
@@ -243,13 +230,13 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     table.dataset.rows = String(result.rows.length);
     const t = result.totals;
     const desk = result.desk;
-    document.getElementById('hedge-totals').textContent =
+    byId('hedge-totals').textContent =
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
       `replication error ${formatSmart(t.replication_error, 2, 4)}, shares traded ${formatNumber(t.total_shares_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
       `The desk holds ${formatNumber(desk.shares_at_start, 0)} shares at the start and ${formatNumber(desk.shares_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
       (result.notes?.length ? ` Note: ${result.notes.join('; ')}.` : '');
     const xs = (row) => row.years;
-    drawChart(document.getElementById('hedge-chart'), {
+    drawChart(byId('hedge-chart'), {
       series: [
         { kind: 'portfolio', label: 'Hedge portfolio (shares + cash)', dots: true, points: result.rows.map((r) => [xs(r), r.portfolio_value]) },
         { kind: 'option', label: 'Option value', dots: true, points: result.rows.map((r) => [xs(r), r.option_value]) },
@@ -259,14 +246,10 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
   }
 
   return {
-    setup() {
-      card.hidden = !has('hedge');
-      render();
-    },
-    render,
+    ...cardBasics(elements, render),
     /** Start the `hedge` call for `doc` now (it queues behind the price on the engine); null if the page has no hedge card. */
     request(doc) {
-      return has('hedge') ? started(live.call('hedge', doc)) : null;
+      return has() ? started(live.call('hedge', doc)) : null;
     },
     /** Show the schedule `pending` (from request) brings, unless a newer edit came first. */
     async update(doc, price, generation, pending) {
@@ -284,7 +267,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
             if (row) span.textContent = row.date ?? `${formatNumber(row.years, 3)} y`;
           });
         }
-        if (kind === 'lattice' && has('tree')) {
+        if (kind === 'lattice' && hasTree()) {
           lastTree = await live.call('tree', doc);
           if (generation !== state.generation) return;
           drawTree(lastTree, movesOf(doc));

@@ -3,6 +3,7 @@
 // Every figure is written into elements marked data-result="<name>" (text for
 // people, data-value with the engine's number in file units for automation;
 // see docs/page contract). Text only ever goes in through textContent.
+import { byId, tableRow } from './dom.js';
 import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
 
@@ -82,7 +83,7 @@ function writeFigures(doc, r, set) {
     set('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`, cp.per_unit);
     set('client-price-total', formatNumber(cp.total, 2), cp.total);
     set('desk-margin-total', formatNumber(cp.desk_margin_total, 2), cp.desk_margin_total);
-    document.getElementById('client-side').textContent = `per unit, ${cp.client_side}`;
+    byId('client-side').textContent = `per unit, ${cp.client_side}`;
   }
 
   const g = r.greeks;
@@ -120,20 +121,15 @@ function writeFigures(doc, r, set) {
 
   const side = r.position.side === 'sell' ? 'Client sells' : 'Client buys';
   set('trade-summary', '');
-  document.getElementById('trade-summary').textContent =
+  byId('trade-summary').textContent =
     `${side} ${inputText(q)} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${inputText(r.spot)}`;
 }
 
+/** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
 function rows(table, entries) {
   table.replaceChildren(...entries.map(([label, value, name]) => {
-    const tr = document.createElement('tr');
-    const th = document.createElement('th');
-    th.scope = 'row';
-    th.textContent = label;
-    const td = document.createElement('td');
-    td.textContent = value;
-    if (name) td.dataset.sheet = name;
-    tr.append(th, td);
+    const tr = tableRow([label, value]);
+    if (name) tr.cells[1].dataset.sheet = name;
     return tr;
   }));
 }
@@ -157,7 +153,7 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   if (Array.isArray(m.dividends) && m.dividends.length) {
     terms.push(['Cash dividends', m.dividends.map((d) => `${d.date ?? `${d.time_years} y`}: ${inputText(d.amount)}`).join('; ')]);
   }
-  rows(document.getElementById('sheet-terms'), terms);
+  rows(byId('sheet-terms'), terms);
 
   const figures = [
     ['Premium per unit', `${formatNumber(r.premium, 4)}${ccy}`],
@@ -177,10 +173,10 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   figures.push(['European closed-form value', formatNumber(r.closed_form.premium, 4)]);
   if (r.early_exercise_premium !== null) figures.push(['Early-exercise premium', formatNumber(r.early_exercise_premium, 4)]);
   figures.push(['Lattice error estimate', `± ${formatSmart(r.lattice.error_estimate, 2, 4)}`]);
-  rows(document.getElementById('sheet-figures'), figures);
+  rows(byId('sheet-figures'), figures);
 
-  document.getElementById('sheet-notes').textContent = typeof quote.notes === 'string' ? quote.notes : '';
-  rows(document.getElementById('sheet-meta'), [
+  byId('sheet-notes').textContent = typeof quote.notes === 'string' ? quote.notes : '';
+  rows(byId('sheet-meta'), [
     ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
     ['Engine', `Hedgeleaf ${r.engine_version}, ${r.lattice.method} lattice, ${inputText(r.lattice.steps)} steps`],

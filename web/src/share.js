@@ -1,6 +1,7 @@
 // Hedgeleaf page: the trade outside the page (fragment links, autosave, files).
 //
 // The trade always travels as the same JSON document the CLI reads.
+import { make } from './dom.js';
 
 /** UTF-8 JSON text -> base64url (no padding), for #trade=... */
 export function toBase64Url(text) {
@@ -95,9 +96,7 @@ export function loadAutosave(storage) {
 /** Offer `text` as a download named `name`. */
 export function download(name, text, type) {
   const url = URL.createObjectURL(new Blob([text], { type }));
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = name;
+  const link = make('a', { href: url, download: name });
   document.body.append(link);
   link.click();
   link.remove();

@@ -5,12 +5,12 @@
 // Cancel terminates its worker. The engine reports no progress from inside the
 // call, so the bar shows elapsed time against an estimate from the last run
 // (indeterminate on the first).
-import { Cancelled, EngineChannel } from './compute.js';
+import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
+import { Cancelled, EngineChannel } from './compute.js';
+import { bound, button, errorLine, field, fillTable, make } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart, inputText } from './format.js';
-import { fillInput } from './form.js';
-import { bound, field, make } from './dom.js';
 
 const units = [['days', 'Every business day'], ['weeks', 'Every week'], ['months', 'Every month']];
 
@@ -29,15 +29,12 @@ function chosenUnits(doc) {
 
 /** The simulation card. */
 export function simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed, bindControls }) {
-  const card = document.getElementById('simulate-card');
-  const controls = document.getElementById('simulate-controls');
-  const output = document.getElementById('simulate-output');
+  const elements = cardParts('simulate', state);
+  const { card, controls, output, has } = elements;
   const channel = new EngineChannel(makeWorker, mainThreadFactory);
   let msPerPath = null;   // from the last finished run
   let ranOn = null;       // the document text of the run on screen
   let timer = null;
-
-  const has = () => state.commands.includes('simulate');
 
   function section() {
     if (!state.doc.simulate || typeof state.doc.simulate !== 'object' || Array.isArray(state.doc.simulate)) state.doc.simulate = {};
@@ -52,8 +49,8 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
     changed();
   }
 
-  const run = make('button', { type: 'button', className: 'primary', text: 'Run simulation', id: 'simulate-run' });
-  const cancel = make('button', { type: 'button', text: 'Cancel', id: 'simulate-cancel', disabled: true });
+  const run = button('Run simulation', start, { className: 'primary', id: 'simulate-run' });
+  const cancel = button('Cancel', () => channel.cancel(), { id: 'simulate-cancel', disabled: true });
   const progress = make('progress', { max: 1, id: 'simulate-progress' });
   const status = make('p', { className: 'hint', id: 'simulate-status', role: 'status' });
   progress.hidden = true;
@@ -76,7 +73,7 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
       });
       boxes.append(make('label', {}, [box, ` ${text}`]));
     }
-    controls.replaceChildren(
+    showControls(controls, [
       make('p', { className: 'hint', text: 'Many random spot paths, each hedged in shares on the chosen dates: how far the hedge ends from what the trade pays (per unit; the desk that sold the trade keeps this).' }),
       make('div', { className: 'row' }, [
         field('Paths', bound('simulate.paths', 'number', { placeholder: '10,000', inputMode: 'numeric' })),
@@ -88,12 +85,10 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
         field('Seed', bound('simulate.seed', 'number', { placeholder: '1', inputMode: 'numeric' })),
         boxes,
       ]),
-      make('span', { className: 'field-error', dataset: { error: 'simulate' }, role: 'alert' }),
+      errorLine('simulate'),
       make('div', { className: 'path-buttons' }, [run, cancel]),
       progress, status,
-    );
-    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
-    bindControls(controls);
+    ], state.doc, bindControls);
   }
 
   function finish() {
@@ -143,15 +138,10 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
 
   function draw(result) {
     const head = ['Rebalancing', 'Trades', 'Mean P&L', 'Spread (sd)', '5 % worst', 'Median', '5 % best', 'Mean costs', 'Desk sd (position)'];
-    const table = make('table', { className: 'figures', dataset: { result: 'simulation' } }, [
-      make('thead', {}, [make('tr', {}, head.map((h) => make('th', { scope: 'col', text: h })))]),
-      make('tbody', {}, result.rows.map((row) => make('tr', {}, [
-        make('th', { scope: 'row', text: frequencyName(row.frequency) }),
-        ...[inputText(row.rebalancings), formatSmart(row.mean, 3, 4), `${formatNumber(row.sd, 4)} ± ${formatSmart(2 * row.sd_standard_error, 1, 4)}`,
-          formatNumber(row.p05, 4), formatNumber(row.p50, 4), formatNumber(row.p95, 4), formatNumber(row.mean_costs, 4),
-          formatNumber(row.desk_sd, 2)].map((text) => make('td', { text })),
-      ]))),
-    ]);
+    const rows = result.rows.map((row) => [frequencyName(row.frequency), inputText(row.rebalancings), formatSmart(row.mean, 3, 4),
+      `${formatNumber(row.sd, 4)} ± ${formatSmart(2 * row.sd_standard_error, 1, 4)}`, formatNumber(row.p05, 4), formatNumber(row.p50, 4),
+      formatNumber(row.p95, 4), formatNumber(row.mean_costs, 4), formatNumber(row.desk_sd, 2)]);
+    const table = fillTable(make('table', { className: 'figures', dataset: { result: 'simulation' } }), head, rows);
     const edges = result.histogram.edges;
     const width = edges[1] - edges[0];
     const series = result.histogram.series.map((s, i) => ({
@@ -164,15 +154,8 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
     drawChart(chart, { series, xLabel: 'P&L per unit at the end', yLabel: 'Density', height: 220 });
   }
 
-  run.addEventListener('click', start);
-  cancel.addEventListener('click', () => channel.cancel());
-
   return {
-    setup() {
-      card.hidden = !has();
-      render();
-    },
-    render,
+    ...cardBasics(elements, render),
     update(doc) {
       if (ranOn === null) return;
       const stale = JSON.stringify(doc) !== ranOn;
