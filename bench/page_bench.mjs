@@ -19,7 +19,7 @@ const pagePath = resolve(process.argv[2] ?? join(root, 'dist/hedgeleaf.html'));
 const require = createRequire(join(root, 'web/package.json'));
 const { chromium } = require('playwright-core');
 const debounceMs = 250;
-const editsPerContext = 4;  // web/src/app.js: changed(delay = 250)
+const editsPerContext = 4;  // web/src/recompute.js: changed(delay = 250)
 
 // Injected before the page's own scripts (by the browser, so the page's CSP does
 // not apply): timestamps of the first premium and of every later change.

@@ -80,7 +80,7 @@ async function engineFacts() {
 async function main() {
   const engineJs = inlineSafe(readFileSync(modulePath, 'utf8'), 'script', 'the engine module');
   const { version, commands } = await engineFacts();
-  const appJs = inlineSafe(bundle(join(web, 'src/app.js')), 'script', 'the page script');
+  const appJs = inlineSafe(bundle(join(web, 'src/main.js')), 'script', 'the page script');
   const workerJs = inlineSafe(bundle(join(web, 'src/worker.js')), 'script', 'the worker script');
   const css = inlineSafe(readFileSync(join(web, 'style.css'), 'utf8'), 'style', 'the style sheet');
   const icon = `data:image/svg+xml;base64,${readFileSync(join(web, 'icons/leaf.svg')).toString('base64')}`;

@@ -24,6 +24,15 @@ export function started(promise) {
   return promise;
 }
 
+/**
+ * Workers built from the page's inlined engine module followed by the worker code
+ * (one Blob, made once: no network, no eval). Returns a function that starts one.
+ */
+export function workerMaker(engineText, workerText) {
+  const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
+  return () => new Worker(url, { name: 'hedgeleaf-engine' });
+}
+
 export class EngineChannel {
   /** @param {() => Worker} makeWorker  @param {() => Function} mainThreadFactory */
   constructor(makeWorker, mainThreadFactory) {
