@@ -51,7 +51,8 @@ export class EngineChannel {
     if (!this.worker) {
       try {
         this.worker = this.makeWorker();
-      } catch (err) {
+      } catch {
+        // no worker here (a browser that refuses them from this page): run on the main thread
         this.inline = true;
         return this.callInline(command, trade);
       }
