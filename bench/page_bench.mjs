@@ -8,16 +8,15 @@
 // debounce to the last change the recompute makes to the page (premium,
 // sensitivities, profit chart, hedge schedule, spot ladder (opened first), print
 // sheet). Uses Debian's
-// Chromium through playwright-core from web/node_modules.
+// Chromium through playwright-core from web/node_modules (tests/browser/harness.mjs).
 import { statSync } from 'node:fs';
-import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
+import { launchChromium } from '../tests/browser/harness.mjs';
+
 const root = dirname(dirname(fileURLToPath(import.meta.url)));
 const pagePath = resolve(process.argv[2] ?? join(root, 'dist/hedgeleaf.html'));
-const require = createRequire(join(root, 'web/package.json'));
-const { chromium } = require('playwright-core');
 const debounceMs = 250;
 const editsPerContext = 4;  // web/src/recompute.js: changed(delay = 250)
 
@@ -58,11 +57,7 @@ const median = (xs) => quantile(xs, 0.5);
 async function main() {
   const size = statSync(pagePath).size;
   const url = pathToFileURL(pagePath).href;
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run'],
-  });
+  const browser = await launchChromium();
   try {
     const opens = [];
     const recomputes = [];

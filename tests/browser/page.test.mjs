@@ -12,11 +12,11 @@ import { dirname, join } from 'node:path';
 import { after, before, test } from 'node:test';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
+import { launchChromium, until } from './harness.mjs';
+
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const pagePath = join(root, 'dist/hedgeleaf.html');
 const pageUrl = pathToFileURL(pagePath).href;
-const require = createRequire(join(root, 'web/package.json'));
-const { chromium } = require('playwright-core');
 const cli = process.env.HEDGELEAF_CLI ?? join(root, 'build/native/hedgeleaf');
 const exampleText = readFileSync(join(root, 'examples/american-put.json'), 'utf8');
 const linkTo = (text) => `${pageUrl}#trade=${Buffer.from(text).toString('base64url')}`;
@@ -28,11 +28,7 @@ const requests = [];
 
 before(async () => {
   assert.ok(existsSync(pagePath), 'build the page first: node web/build.mjs');
-  browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run'],
-  });
+  browser = await launchChromium();
   context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
   await context.setOffline(true);
   context.on('request', (request) => {
@@ -56,20 +52,6 @@ async function open(url = linkTo(exampleText)) {
   await page.goto(url);
   await premiumShown(page);
   return page;
-}
-
-/**
- * Poll `fn` in the page until it returns something truthy. (page.waitForFunction
- * compiles its predicate with eval, which the page's CSP rightly refuses.)
- */
-async function until(page, fn, arg, timeout = 20000) {
-  const end = Date.now() + timeout;
-  for (;;) {
-    const value = await page.evaluate(fn, arg);
-    if (value) return value;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${fn}`);
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
 }
 
 async function premiumShown(page) {

@@ -10,18 +10,16 @@
 //     last good result.
 import assert from 'node:assert/strict';
 import { existsSync, readFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { after, before, test } from 'node:test';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 import { badInputs, caseText } from '../bad_inputs.mjs';
+import { launchChromium, until } from './harness.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const pagePath = resolve(process.env.HEDGELEAF_PAGE ?? join(root, 'dist/hedgeleaf.html'));
 const pageUrl = pathToFileURL(pagePath).href;
-const require = createRequire(join(root, 'web/package.json'));
-const { chromium } = require('playwright-core');
 const exampleText = readFileSync(join(root, 'examples/american-put.json'), 'utf8');
 const linkTo = (text) => `${pageUrl}#trade=${Buffer.from(text).toString('base64url')}`;
 
@@ -39,11 +37,7 @@ const foreign = [];   // requests other than the page file and the engine worker
 
 before(async () => {
   assert.ok(existsSync(pagePath), `build the page first: node web/build.mjs (${pagePath})`);
-  browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run'],
-  });
+  browser = await launchChromium();
   context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
   await context.grantPermissions(['clipboard-read', 'clipboard-write']);
   await context.setOffline(true);
@@ -64,17 +58,6 @@ before(async () => {
 after(async () => {
   await browser?.close();
 });
-
-/** Poll `fn` in the page (page.waitForFunction needs eval, which the CSP refuses). */
-async function until(page, fn, arg, timeout = 20000) {
-  const end = Date.now() + timeout;
-  for (;;) {
-    const value = await page.evaluate(fn, arg);
-    if (value) return value;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${fn}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 const premiumOf = (page) => until(page, () => document.querySelector('[data-result="premium"]')?.dataset.value);
 

@@ -5,7 +5,7 @@
 // same table. They run only while their card is open.
 import { cardBasics, cardParts, showControls } from './card.js';
 import { Cancelled, started } from './compute.js';
-import { bound, button, errorLine, field, fillTable, make, optionList, select, setText } from './dom.js';
+import { boundFields, button, errorLine, field, fieldRow, fillTable, make, optionList, select, setText } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
 import { contractKey } from './form.js';
@@ -40,6 +40,22 @@ function foldedCard({ elements, live, state, command, wanted = () => true, rende
   };
 }
 
+// What a ladder moves, by kind: [label, path, kind, input properties] of each field.
+const spotRange = [
+  ['Spot from %', 'ladder.spot_from', 'percent', { placeholder: '−20' }],
+  ['to %', 'ladder.spot_to', 'percent', { placeholder: '20' }],
+  ['step %', 'ladder.spot_step', 'percent', { placeholder: '2' }],
+];
+const volRange = [
+  ['Vol from (points)', 'ladder.vol_from', 'percent', { placeholder: '−5' }],
+  ['to', 'ladder.vol_to', 'percent', { placeholder: '5' }],
+  ['step', 'ladder.vol_step', 'percent', { placeholder: '1' }],
+];
+const timeRange = [
+  ['Every … days', 'ladder.time_step_days', 'number', { placeholder: 'a tenth of the life' }],
+  ['Up to day', 'ladder.time_to_days', 'number', { placeholder: 'expiry' }],
+];
+
 /** The Scenarios card (`ladder` command). */
 export function ladderPanel({ live, state, showError, setStale, changed, bindControls }) {
   const elements = cardParts('ladder', state);
@@ -48,21 +64,12 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
   function render() {
     if (!has()) return;
     const kind = state.doc.ladder?.kind ?? 'spot';
-    const parts = [make('div', { className: 'row' }, [field('Move', select('ladder.kind', [
+    const parts = [fieldRow([field('Move', select('ladder.kind', [
       ['', 'Spot (default)'], ['spot', 'Spot'], ['volatility', 'Volatility'], ['time', 'Time passing'], ['grid', 'Spot × volatility'],
     ]))])];
-    if (kind === 'spot' || kind === 'grid') {
-      parts.push(make('div', { className: 'row' }, [field('Spot from %', bound('ladder.spot_from', 'percent', { placeholder: '−20' })),
-        field('to %', bound('ladder.spot_to', 'percent', { placeholder: '20' })), field('step %', bound('ladder.spot_step', 'percent', { placeholder: '2' }))]));
-    }
-    if (kind === 'volatility' || kind === 'grid') {
-      parts.push(make('div', { className: 'row' }, [field('Vol from (points)', bound('ladder.vol_from', 'percent', { placeholder: '−5' })),
-        field('to', bound('ladder.vol_to', 'percent', { placeholder: '5' })), field('step', bound('ladder.vol_step', 'percent', { placeholder: '1' }))]));
-    }
-    if (kind === 'time') {
-      parts.push(make('div', { className: 'row' }, [field('Every … days', bound('ladder.time_step_days', 'number', { placeholder: 'a tenth of the life' })),
-        field('Up to day', bound('ladder.time_to_days', 'number', { placeholder: 'expiry' }))]));
-    }
+    if (kind === 'spot' || kind === 'grid') parts.push(fieldRow(boundFields(spotRange)));
+    if (kind === 'volatility' || kind === 'grid') parts.push(fieldRow(boundFields(volRange)));
+    if (kind === 'time') parts.push(fieldRow(boundFields(timeRange)));
     parts.push(errorLine('ladder'));
     showControls(controls, parts, state.doc, bindControls);
   }
@@ -135,13 +142,13 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
       render();
       changed(0);
     });
-    const parts = [make('div', { className: 'row' }, [field('Find', what)])];
+    const parts = [fieldRow([field('Find', what)])];
     if (unknown === 'volatility' || unknown === 'strike') {
-      const row = [field('Target premium per unit', bound('solve.target_premium', 'number', { placeholder: unknown === 'strike' ? '0 = zero cost' : '' }))];
-      if (unknown === 'strike' && contractKey(state.doc) !== 'option') row.push(field('Leg (0 = first)', bound('solve.leg', 'number', { placeholder: '0' })));
-      parts.push(make('div', { className: 'row' }, row));
+      const target = ['Target premium per unit', 'solve.target_premium', 'number', { placeholder: unknown === 'strike' ? '0 = zero cost' : '' }];
+      const leg = ['Leg (0 = first)', 'solve.leg', 'number', { placeholder: '0' }];
+      parts.push(fieldRow(boundFields(unknown === 'strike' && contractKey(state.doc) !== 'option' ? [target, leg] : [target])));
     } else if (unknown === 'quantity') {
-      parts.push(make('div', { className: 'row' }, [field('Budget', bound('solve.budget', 'number', { placeholder: '' })), field('Lot size', bound('solve.lot_size', 'number', { placeholder: 'none' }))]));
+      parts.push(fieldRow(boundFields([['Budget', 'solve.budget', 'number', { placeholder: '' }], ['Lot size', 'solve.lot_size', 'number', { placeholder: 'none' }]])));
     }
     parts.push(errorLine('solve'));
     showControls(controls, parts, state.doc, bindControls);

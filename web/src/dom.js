@@ -45,6 +45,16 @@ export function removeButton(label, onClick) {
   return button('✕', onClick, { className: 'small remove', title: label, 'aria-label': label });
 }
 
+/** A row of fields side by side. */
+export function fieldRow(fields) {
+  return make('div', { className: 'row' }, fields);
+}
+
+/** Labelled inputs bound to the trade document, from [label, path, kind, input properties?] entries. */
+export function boundFields(entries) {
+  return entries.map(([label, path, kind, props]) => field(label, bound(path, kind, props)));
+}
+
 /** A labelled field around an input. */
 export function field(label, input, className = 'field') {
   return make('label', { className }, [make('span', { text: label }), input]);

@@ -8,7 +8,7 @@
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, started } from './compute.js';
-import { bound, button, byId, errorLine, field, fillTable, make, makeSvg, select, whenInput } from './dom.js';
+import { bound, boundFields, button, byId, errorLine, field, fieldRow, fillTable, make, makeSvg, select, whenInput } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
 
@@ -96,10 +96,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
 
   function rebalanceFields() {
     const unit = select('hedge.rebalance.unit', [['', 'weeks (default)'], ['days', 'business days'], ['weeks', 'weeks'], ['months', 'months']]);
-    return make('div', { className: 'row' }, [
-      field('Rebalance every', bound('hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' })),
-      field('Unit', unit),
-    ]);
+    return fieldRow([...boundFields([['Rebalance every', 'hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' }]]), field('Unit', unit)]);
   }
 
   /** Build the controls for the current kind of path. */
@@ -135,7 +132,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
           'aria-pressed': up ? 'true' : 'false',
         }));
       });
-      parts.push(make('div', { className: 'row' }, [field(`Tree steps (1–${maxTreeSteps})`, steps)]),
+      parts.push(fieldRow([field(`Tree steps (1–${maxTreeSteps})`, steps)]),
         make('p', { className: 'hint', text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.' }),
         buttons, errorLine('hedge.path.moves'));
     } else if (kind === 'spots') {
@@ -149,20 +146,20 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       parts.push(rebalanceFields(), make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
         list, errorLine('hedge.path.spots'));
     } else if (kind === 'scenario') {
-      parts.push(rebalanceFields(), make('div', { className: 'row' }, [
-        field('Drift % p.a.', bound('hedge.path.drift', 'percent', { placeholder: 'the rate' })),
-        field('Realised vol % p.a.', bound('hedge.path.volatility', 'percent', { placeholder: 'as priced' })),
-        field('Seed', bound('hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' })),
-      ]));
+      parts.push(rebalanceFields(), fieldRow(boundFields([
+        ['Drift % p.a.', 'hedge.path.drift', 'percent', { placeholder: 'the rate' }],
+        ['Realised vol % p.a.', 'hedge.path.volatility', 'percent', { placeholder: 'as priced' }],
+        ['Seed', 'hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
+      ])));
     } else {
       const shape = select('hedge.path.shape', [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]);
       const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
       if (doc.hedge?.path?.shape === 'gap-down') {
         row.push(field('Gap date or years', whenInput('hedge.path', 'date,years')));
       }
-      parts.push(rebalanceFields(), make('div', { className: 'row' }, row));
+      parts.push(rebalanceFields(), fieldRow(row));
     }
-    parts.push(make('div', { className: 'row' }, [field('Trading cost, bp of traded value', bound('hedge.cost_bp', 'number', { placeholder: '0' }))]),
+    parts.push(fieldRow(boundFields([['Trading cost, bp of traded value', 'hedge.cost_bp', 'number', { placeholder: '0' }]])),
       errorLine('hedge'));
     showControls(controls, parts, doc, bindControls);
     treeHost.hidden = kind !== 'lattice';

@@ -8,7 +8,7 @@
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, EngineChannel } from './compute.js';
-import { bound, button, errorLine, field, fillTable, make } from './dom.js';
+import { boundFields, button, errorLine, fieldRow, fillTable, make } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart, inputText } from './format.js';
 
@@ -75,14 +75,16 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
     }
     showControls(controls, [
       make('p', { className: 'hint', text: 'Many random spot paths, each hedged in shares on the chosen dates: how far the hedge ends from what the trade pays (per unit; the desk that sold the trade keeps this).' }),
-      make('div', { className: 'row' }, [
-        field('Paths', bound('simulate.paths', 'number', { placeholder: '10,000', inputMode: 'numeric' })),
-        field('Realised vol % p.a.', bound('simulate.volatility', 'percent', { placeholder: 'as priced' })),
-        field('Drift % p.a.', bound('simulate.drift', 'percent', { placeholder: 'the rate' })),
-      ]),
-      make('div', { className: 'row' }, [
-        field('Trading cost, bp', bound('simulate.cost_bp', 'number', { placeholder: '0' })),
-        field('Seed', bound('simulate.seed', 'number', { placeholder: '1', inputMode: 'numeric' })),
+      fieldRow(boundFields([
+        ['Paths', 'simulate.paths', 'number', { placeholder: '10,000', inputMode: 'numeric' }],
+        ['Realised vol % p.a.', 'simulate.volatility', 'percent', { placeholder: 'as priced' }],
+        ['Drift % p.a.', 'simulate.drift', 'percent', { placeholder: 'the rate' }],
+      ])),
+      fieldRow([
+        ...boundFields([
+          ['Trading cost, bp', 'simulate.cost_bp', 'number', { placeholder: '0' }],
+          ['Seed', 'simulate.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
+        ]),
         boxes,
       ]),
       errorLine('simulate'),
