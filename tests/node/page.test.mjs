@@ -13,7 +13,7 @@ import { fromBase64Url, toBase64Url, tradeFromHash, autosave, parseTradeText } f
 import { getPath, pathAncestors, setPath } from '../../web/src/paths.js';
 import { changeShape, defaultExerciseSchedule, readDateList, readWhen } from '../../web/src/form.js';
 import { addMonths, addYears, yearsBetween } from '../../web/src/dates.js';
-import { routeThrough } from '../../web/src/hedge.js';
+import { routeThrough } from '../../web/src/tree.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 

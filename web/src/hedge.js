@@ -4,13 +4,14 @@
 // the page exports gives the CLI the same schedule. Four kinds of path: steps
 // clicked on a small tree (kind "lattice", moves "UDDU..."), spots typed per
 // date ("spots"), a random path ("scenario", the engine's default) and a
-// stress shape ("stress"). The tree view comes from the `tree` command.
+// stress shape ("stress"). The tree view (tree.js) comes from the `tree` command.
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, started } from './compute.js';
-import { bound, boundFields, button, byId, errorLine, field, fieldRow, fillTable, make, makeSvg, select, whenInput } from './dom.js';
+import { bound, boundFields, button, byId, errorLine, field, fieldRow, fillTable, make, select, whenInput } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
+import { drawTree } from './tree.js';
 
 const kinds = [
   ['lattice', 'Steps on a tree'],
@@ -24,17 +25,6 @@ const maxTreeSteps = 12;  // what fits on screen; the CLI takes longer paths
 export function pathKind(doc) {
   const kind = doc.hedge?.path?.kind;
   return kinds.some(([k]) => k === kind) ? kind : 'scenario';
-}
-
-/** Moves that reach node (step, index) keeping as much of `moves` as possible. */
-export function routeThrough(moves, step, index) {
-  const list = [...moves];
-  let ups = list.slice(0, step).filter((m) => m === 'U').length;
-  for (let i = step - 1; i >= 0 && ups !== index; i -= 1) {
-    if (ups > index && list[i] === 'U') { list[i] = 'D'; ups -= 1; }
-    else if (ups < index && list[i] === 'D') { list[i] = 'U'; ups += 1; }
-  }
-  return list.join('');
 }
 
 /** The hedge card: path controls, tree, chart and schedule table. */
@@ -99,6 +89,67 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     return fieldRow([...boundFields([['Rebalance every', 'hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' }]]), field('Unit', unit)]);
   }
 
+  /** Steps on a tree: how many, and each step up or down. */
+  function latticeControls(doc) {
+    const moves = movesOf(doc);
+    const steps = make('input', { type: 'number', min: 1, max: maxTreeSteps, value: moves.length, id: 'hedge-steps' });
+    steps.addEventListener('change', () => {
+      const n = Math.max(1, Math.min(maxTreeSteps, Math.round(Number(steps.value)) || 1));
+      setMoves(moves.length >= n ? moves.slice(0, n) : moves + 'UD'.repeat(n).slice(0, n - moves.length));
+    });
+    const buttons = make('div', { className: 'path-buttons', role: 'group', 'aria-label': 'Moves of spot, step by step' });
+    [...moves].forEach((m, i) => {
+      const up = m === 'U';
+      const flip = () => {
+        setMoves(moves.slice(0, i) + (up ? 'D' : 'U') + moves.slice(i + 1));
+        controls.querySelectorAll('.move')[i]?.focus();
+      };
+      buttons.append(button(up ? '▲' : '▼', flip, {
+        className: `move ${up ? 'up' : 'down'}`,
+        title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})`,
+        'aria-label': `Step ${i + 1}: ${up ? 'up' : 'down'}`,
+        'aria-pressed': up ? 'true' : 'false',
+      }));
+    });
+    return [fieldRow([field(`Tree steps (1–${maxTreeSteps})`, steps)]),
+      make('p', { className: 'hint', text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.' }),
+      buttons, errorLine('hedge.path.moves')];
+  }
+
+  /** Spots typed per rebalancing date, each labelled with its date from the last schedule. */
+  function spotsControls(doc) {
+    const spots = Array.isArray(doc.hedge?.path?.spots) ? doc.hedge.path.spots : [];
+    const list = make('div', { className: 'spot-list' });
+    spots.forEach((_, i) => {
+      const date = lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
+      list.append(field(String(date), bound(`hedge.path.spots[${i}]`, 'number'), 'field cell'));
+    });
+    const fit = button('One spot per date', fitSpots, { className: 'small' });
+    return [rebalanceFields(), make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
+      list, errorLine('hedge.path.spots')];
+  }
+
+  /** A random path: its drift, realised volatility and seed. */
+  function scenarioControls() {
+    return [rebalanceFields(), fieldRow(boundFields([
+      ['Drift % p.a.', 'hedge.path.drift', 'percent', { placeholder: 'the rate' }],
+      ['Realised vol % p.a.', 'hedge.path.volatility', 'percent', { placeholder: 'as priced' }],
+      ['Seed', 'hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
+    ]))];
+  }
+
+  /** A stress: its shape, size and, for a gap, the date. */
+  function stressControls(doc) {
+    const shape = select('hedge.path.shape', [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]);
+    const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
+    if (doc.hedge?.path?.shape === 'gap-down') {
+      row.push(field('Gap date or years', whenInput('hedge.path', 'date,years')));
+    }
+    return [rebalanceFields(), fieldRow(row)];
+  }
+
+  const pathControls = { lattice: latticeControls, spots: spotsControls, scenario: scenarioControls, stress: stressControls };
+
   /** Build the controls for the current kind of path. */
   function render() {
     if (!has()) return;
@@ -110,112 +161,11 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       radio.addEventListener('change', () => setKind(value));
       choice.append(make('label', {}, [radio, ` ${text}`]));
     }
-    const parts = [choice];
-    if (kind === 'lattice') {
-      const moves = movesOf(doc);
-      const steps = make('input', { type: 'number', min: 1, max: maxTreeSteps, value: moves.length, id: 'hedge-steps' });
-      steps.addEventListener('change', () => {
-        const n = Math.max(1, Math.min(maxTreeSteps, Math.round(Number(steps.value)) || 1));
-        setMoves(moves.length >= n ? moves.slice(0, n) : moves + 'UD'.repeat(n).slice(0, n - moves.length));
-      });
-      const buttons = make('div', { className: 'path-buttons', role: 'group', 'aria-label': 'Moves of spot, step by step' });
-      [...moves].forEach((m, i) => {
-        const up = m === 'U';
-        const flip = () => {
-          setMoves(moves.slice(0, i) + (up ? 'D' : 'U') + moves.slice(i + 1));
-          controls.querySelectorAll('.move')[i]?.focus();
-        };
-        buttons.append(button(up ? '▲' : '▼', flip, {
-          className: `move ${up ? 'up' : 'down'}`,
-          title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})`,
-          'aria-label': `Step ${i + 1}: ${up ? 'up' : 'down'}`,
-          'aria-pressed': up ? 'true' : 'false',
-        }));
-      });
-      parts.push(fieldRow([field(`Tree steps (1–${maxTreeSteps})`, steps)]),
-        make('p', { className: 'hint', text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.' }),
-        buttons, errorLine('hedge.path.moves'));
-    } else if (kind === 'spots') {
-      const spots = Array.isArray(doc.hedge?.path?.spots) ? doc.hedge.path.spots : [];
-      const list = make('div', { className: 'spot-list' });
-      spots.forEach((_, i) => {
-        const date = lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
-        list.append(field(String(date), bound(`hedge.path.spots[${i}]`, 'number'), 'field cell'));
-      });
-      const fit = button('One spot per date', fitSpots, { className: 'small' });
-      parts.push(rebalanceFields(), make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
-        list, errorLine('hedge.path.spots'));
-    } else if (kind === 'scenario') {
-      parts.push(rebalanceFields(), fieldRow(boundFields([
-        ['Drift % p.a.', 'hedge.path.drift', 'percent', { placeholder: 'the rate' }],
-        ['Realised vol % p.a.', 'hedge.path.volatility', 'percent', { placeholder: 'as priced' }],
-        ['Seed', 'hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
-      ])));
-    } else {
-      const shape = select('hedge.path.shape', [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]);
-      const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
-      if (doc.hedge?.path?.shape === 'gap-down') {
-        row.push(field('Gap date or years', whenInput('hedge.path', 'date,years')));
-      }
-      parts.push(rebalanceFields(), fieldRow(row));
-    }
-    parts.push(fieldRow(boundFields([['Trading cost, bp of traded value', 'hedge.cost_bp', 'number', { placeholder: '0' }]])),
-      errorLine('hedge'));
+    const parts = [choice, ...pathControls[kind](doc),
+      fieldRow(boundFields([['Trading cost, bp of traded value', 'hedge.cost_bp', 'number', { placeholder: '0' }]])),
+      errorLine('hedge')];
     showControls(controls, parts, doc, bindControls);
     treeHost.hidden = kind !== 'lattice';
-  }
-
-  function drawTree(tree, moves) {
-    const nodes = tree.nodes;
-    const steps = tree.to_step;
-    const onPath = new Set();
-    let j = 0;
-    onPath.add('0:0');
-    [...moves].forEach((m, n) => {
-      if (m === 'U') j += 1;
-      onPath.add(`${n + 1}:${j}`);
-    });
-    const dx = 92;
-    const dy = 24;
-    const width = 60 + steps * dx + 50;
-    const height = 40 + steps * 2 * dy;
-    const x = (n) => 40 + n * dx;
-    const y = (n, i) => height / 2 - (2 * i - n) * dy;
-    const root = makeSvg('svg', { viewBox: `0 0 ${width} ${height}`, class: 'tree-svg', role: 'group', 'aria-label': 'Lattice of spot; pick a node to route the path through it' });
-    for (const node of nodes) {
-      if (node.step >= steps) continue;
-      for (const k of [0, 1]) {
-        const on = onPath.has(`${node.step}:${node.index}`) && onPath.has(`${node.step + 1}:${node.index + k}`);
-        root.append(makeSvg('line', { x1: x(node.step), y1: y(node.step, node.index), x2: x(node.step + 1), y2: y(node.step + 1, node.index + k), class: `edge${on ? ' on-path' : ''}` }));
-      }
-    }
-    for (const node of nodes) {
-      const on = onPath.has(`${node.step}:${node.index}`);
-      const g = makeSvg('g', { class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`, tabindex: -1, role: 'button',
-        'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, 2)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}` });
-      g.append(makeSvg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
-      g.append(makeSvg('text', { x: x(node.step), y: y(node.step, node.index) - 9, 'text-anchor': 'middle' }, formatNumber(node.spot, 2)));
-      if (on) g.append(makeSvg('text', { x: x(node.step), y: y(node.step, node.index) + 17, 'text-anchor': 'middle', class: 'value' }, `V ${formatNumber(node.value, 2)}`));
-      if (node.step > 0) {
-        const pick = () => setMoves(routeThrough(moves, node.step, node.index));
-        g.addEventListener('click', pick);
-        g.addEventListener('keydown', (event) => {
-          if (event.key === 'Enter' || event.key === ' ') {
-            event.preventDefault();
-            pick();
-          }
-        });
-      }
-      root.append(g);
-    }
-    // the forward growth of one step under the pricing probabilities: p u + (1 - p) d
-    const growth = tree.p_up * tree.up + (1 - tree.p_up) * tree.down;
-    const legend = make('p', { className: 'hint', text: `Spot above each node, the trade's value (V) on the path. ` +
-      `Per ${formatNumber(tree.dt_years * 365, 1)} days: up ×${formatNumber(tree.up, 4)}, down ×${formatNumber(tree.down, 4)}, ` +
-      `forward growth ×${formatNumber(growth, 4)} (down < growth < up: no arbitrage), up-probability ${formatNumber(tree.p_up, 4)}. ` +
-      'At each node the hedge holds Δ = (V up − V down) / (S up − S down) shares and B = V − Δ·S in cash. ' +
-      'Ringed nodes: the holder exercises early.' });
-    treeHost.replaceChildren(root, legend);
   }
 
   function drawSchedule(result) {
@@ -267,7 +217,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         if (kind === 'lattice' && hasTree()) {
           lastTree = await live.call('tree', doc);
           if (generation !== state.generation) return;
-          drawTree(lastTree, movesOf(doc));
+          drawTree(treeHost, lastTree, movesOf(doc), setMoves);
         }
         setStale(['hedge'], false);
       } catch (err) {
