@@ -98,6 +98,7 @@ case "$mode" in
         say "page written to dist/hedgeleaf.html (open it in a browser; it needs no network)"
         ;;
     test)
+        check_javascript
         build_native
         say "native tests"
         (cd build/native && ctest --output-on-failure -j"$jobs")
