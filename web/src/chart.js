@@ -33,7 +33,12 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
   const pad = { left: 64, right: 16, top: 14, bottom: 44 };
   const xs = series.flatMap((s) => s.points.map((p) => p[0])).concat(marks.map((m) => m.x));
   const ys = series.flatMap((s) => s.points.map((p) => p[1]));
-  const svg = makeSvg('svg', { viewBox: `0 0 ${width} ${height}`, class: 'chart-svg', focusable: 'false', 'aria-hidden': 'true' });
+  const svg = makeSvg('svg', {
+    viewBox: `0 0 ${width} ${height}`,
+    class: 'chart-svg',
+    focusable: 'false',
+    'aria-hidden': 'true',
+  });
   host.replaceChildren(svg);
   if (xs.length === 0 || ys.length === 0) return;
   let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
@@ -50,18 +55,39 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
   const yTicks = ticks(y0, y1, 5);
   const yDigits = digitsFor(yTicks);
   for (const t of yTicks) {
-    grid.append(makeSvg('line', { x1: pad.left, x2: width - pad.right, y1: sy(t), y2: sy(t), class: t === 0 ? 'zero' : '' }));
+    grid.append(
+      makeSvg('line', { x1: pad.left, x2: width - pad.right, y1: sy(t), y2: sy(t), class: t === 0 ? 'zero' : '' }),
+    );
     grid.append(makeSvg('text', { x: pad.left - 6, y: sy(t) + 4, 'text-anchor': 'end' }, formatNumber(t, yDigits)));
   }
   const xTicks = ticks(x0, x1, 6);
   const xDigits = digitsFor(xTicks);
   for (const t of xTicks) {
     grid.append(makeSvg('line', { x1: sx(t), x2: sx(t), y1: pad.top, y2: height - pad.bottom, class: 'vertical' }));
-    grid.append(makeSvg('text', { x: sx(t), y: height - pad.bottom + 16, 'text-anchor': 'middle' }, formatNumber(t, xDigits)));
+    grid.append(
+      makeSvg('text', { x: sx(t), y: height - pad.bottom + 16, 'text-anchor': 'middle' }, formatNumber(t, xDigits)),
+    );
   }
-  grid.append(makeSvg('text', { x: (pad.left + width - pad.right) / 2, y: height - 6, 'text-anchor': 'middle', class: 'axis-label' }, xLabel));
-  grid.append(makeSvg('text', { x: 12, y: (pad.top + height - pad.bottom) / 2, 'text-anchor': 'middle', class: 'axis-label',
-    transform: `rotate(-90 12 ${(pad.top + height - pad.bottom) / 2})` }, yLabel));
+  grid.append(
+    makeSvg(
+      'text',
+      { x: (pad.left + width - pad.right) / 2, y: height - 6, 'text-anchor': 'middle', class: 'axis-label' },
+      xLabel,
+    ),
+  );
+  grid.append(
+    makeSvg(
+      'text',
+      {
+        x: 12,
+        y: (pad.top + height - pad.bottom) / 2,
+        'text-anchor': 'middle',
+        class: 'axis-label',
+        transform: `rotate(-90 12 ${(pad.top + height - pad.bottom) / 2})`,
+      },
+      yLabel,
+    ),
+  );
   svg.append(grid);
 
   for (const mark of marks) {
@@ -77,14 +103,18 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     g.append(makeSvg('path', { d }));
     if (s.dots) {
       // every dot in one path (a circle of radius 3 is two arcs): one node, not one per point
-      const dots = s.points.map((p) => `M${(sx(p[0]) - 3).toFixed(1)},${sy(p[1]).toFixed(1)}a3,3 0 1,0 6,0a3,3 0 1,0 -6,0`).join('');
+      const dots = s.points
+        .map((p) => `M${(sx(p[0]) - 3).toFixed(1)},${sy(p[1]).toFixed(1)}a3,3 0 1,0 6,0a3,3 0 1,0 -6,0`)
+        .join('');
       g.append(makeSvg('path', { d: dots, class: 'dots' }));
     }
     svg.append(g);
   }
   const items = [
     ...series.filter((x) => x.label).map((s) => make('span', { className: `legend-item ${s.kind}`, text: s.label })),
-    ...marks.filter((m) => m.legend).map((m) => make('span', { className: `legend-item mark ${m.kind}`, text: m.legend })),
+    ...marks
+      .filter((m) => m.legend)
+      .map((m) => make('span', { className: `legend-item mark ${m.kind}`, text: m.legend })),
   ];
   host.append(make('p', { className: 'chart-legend' }, items));
 }

@@ -99,7 +99,7 @@ export class EngineChannel {
     if (message.error) entry.reject(new EngineError(message.error.field, message.error.message));
     else if (message.fatal) {
       entry.reject(new Error(message.fatal));
-      this.fail(new Error(message.fatal));  // an aborted runtime is dead: start afresh next time
+      this.fail(new Error(message.fatal)); // an aborted runtime is dead: start afresh next time
     } else entry.resolve(message.result);
   }
 
@@ -113,7 +113,7 @@ export class EngineChannel {
 
   async callInline(command, trade) {
     const engine = await loadEngine(this.mainThreadFactory());
-    await new Promise((resolve) => setTimeout(resolve, 0));  // let the page paint first
+    await new Promise((resolve) => setTimeout(resolve, 0)); // let the page paint first
     return engine.run(command, trade);
   }
 }

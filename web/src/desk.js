@@ -5,7 +5,18 @@
 // same table. They run only while their card is open.
 import { cardBasics, cardParts, showControls } from './card.js';
 import { Cancelled, started } from './compute.js';
-import { boundFields, button, errorLine, field, fieldRow, fillTable, make, optionList, select, setText } from './dom.js';
+import {
+  boundFields,
+  button,
+  errorLine,
+  field,
+  fieldRow,
+  fillTable,
+  make,
+  optionList,
+  select,
+  setText,
+} from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
 import { contractKey } from './form.js';
@@ -16,7 +27,18 @@ import { setPath } from './paths.js';
  * request(doc) starts the card's engine call when the card is open and `wanted(doc)`;
  * update(generation, pending, price) shows what it brings unless a newer edit came first.
  */
-function foldedCard({ elements, live, state, command, wanted = () => true, render, draw, setStale, showError, changed }) {
+function foldedCard({
+  elements,
+  live,
+  state,
+  command,
+  wanted = () => true,
+  render,
+  draw,
+  setStale,
+  showError,
+  changed,
+}) {
   const { card, has } = elements;
   card.addEventListener('toggle', () => card.open && changed(0));
   return {
@@ -64,9 +86,20 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
   function render() {
     if (!has()) return;
     const kind = state.doc.ladder?.kind ?? 'spot';
-    const parts = [fieldRow([field('Move', select('ladder.kind', [
-      ['', 'Spot (default)'], ['spot', 'Spot'], ['volatility', 'Volatility'], ['time', 'Time passing'], ['grid', 'Spot × volatility'],
-    ]))])];
+    const parts = [
+      fieldRow([
+        field(
+          'Move',
+          select('ladder.kind', [
+            ['', 'Spot (default)'],
+            ['spot', 'Spot'],
+            ['volatility', 'Volatility'],
+            ['time', 'Time passing'],
+            ['grid', 'Spot × volatility'],
+          ]),
+        ),
+      ]),
+    ];
     if (kind === 'spot' || kind === 'grid') parts.push(fieldRow(boundFields(spotRange)));
     if (kind === 'volatility' || kind === 'grid') parts.push(fieldRow(boundFields(volRange)));
     if (kind === 'time') parts.push(fieldRow(boundFields(timeRange)));
@@ -76,7 +109,11 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
 
   function draw(r) {
     const ccy = typeof state.doc.quote?.currency === 'string' ? ` ${state.doc.quote.currency}` : '';
-    const per = (row) => [formatNumber(row.value, 4), formatNumber(row.pnl, 4), `${formatNumber(row.position_pnl, 0)}${ccy}`];
+    const per = (row) => [
+      formatNumber(row.value, 4),
+      formatNumber(row.pnl, 4),
+      `${formatNumber(row.position_pnl, 0)}${ccy}`,
+    ];
     const greeks = (row) => [formatNumber(row.delta, 4), formatNumber(row.position_delta, 0)];
     const tail = ['Value', 'P&L per unit', 'Position P&L'];
     let lead = '';
@@ -85,24 +122,40 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
     if (r.kind === 'grid') {
       const g = r.grid;
       head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
-      rows = g.spot_shifts.map((s, i) => [`${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
-        ...g.position_pnl[i].map((x) => formatNumber(x, 0))]);
+      rows = g.spot_shifts.map((s, i) => [
+        `${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
+        ...g.position_pnl[i].map((x) => formatNumber(x, 0)),
+      ]);
       lead = `Position P&L${ccy} against today, spot down the side, volatility across.`;
     } else if (r.kind === 'time') {
       head = ['Day', 'Date', ...tail, 'Delta', 'Position delta'];
-      rows = r.rows.map((row) => [inputText(row.days), row.date ?? `${formatNumber(row.years, 3)} y`, ...per(row), ...greeks(row)]);
+      rows = r.rows.map((row) => [
+        inputText(row.days),
+        row.date ?? `${formatNumber(row.years, 3)} y`,
+        ...per(row),
+        ...greeks(row),
+      ]);
     } else if (r.kind === 'volatility') {
       head = ['Volatility', ...tail, 'Delta', 'Position delta'];
       rows = r.rows.map((row) => [formatPercent(row.volatility, 1), ...per(row), ...greeks(row)]);
     } else {
       head = ['Spot', 'Move', ...tail, 'Delta', 'Position delta'];
-      rows = r.rows.map((row) => [formatNumber(row.spot, 2), `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`, ...per(row), ...greeks(row)]);
+      rows = r.rows.map((row) => [
+        formatNumber(row.spot, 2),
+        `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`,
+        ...per(row),
+        ...greeks(row),
+      ]);
     }
     // one layout for every kind (lead line, table, notes), filled in place on each recompute
     let table = output.querySelector('table[data-result="ladder"]');
     if (!table) {
       table = make('table', { className: 'figures', dataset: { result: 'ladder' } });
-      output.replaceChildren(make('p', { className: 'hint' }), make('div', { className: 'table-scroll' }, [table]), make('p', { className: 'hint' }));
+      output.replaceChildren(
+        make('p', { className: 'hint' }),
+        make('div', { className: 'table-scroll' }, [table]),
+        make('p', { className: 'hint' }),
+      );
     }
     const [leadLine, , notesLine] = output.children;
     leadLine.hidden = !lead;
@@ -131,24 +184,50 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
   function render() {
     if (!has()) return;
     const unknown = state.doc.solve?.for;
-    const what = make('select', { id: 'solve-for' }, optionList([['', 'nothing'], ['volatility', 'the volatility that gives a premium'],
-      ['strike', 'the strike that gives a premium'], ['quantity', 'the quantity a budget buys']]));
+    const what = make(
+      'select',
+      { id: 'solve-for' },
+      optionList([
+        ['', 'nothing'],
+        ['volatility', 'the volatility that gives a premium'],
+        ['strike', 'the strike that gives a premium'],
+        ['quantity', 'the quantity a budget buys'],
+      ]),
+    );
     what.value = unknown ?? '';
     what.addEventListener('change', () => {
       if (!what.value) delete state.doc.solve;
-      else state.doc.solve = what.value === 'quantity' ? { for: 'quantity', budget: 100000 }
-        : what.value === 'strike' ? { for: 'strike', leg: contractKey(state.doc) === 'option' ? 0 : 1, target_premium: 0 }
-          : { for: 'volatility', target_premium: Number((state.price?.premium ?? 1).toPrecision(3)) };
+      else
+        state.doc.solve =
+          what.value === 'quantity'
+            ? { for: 'quantity', budget: 100000 }
+            : what.value === 'strike'
+              ? { for: 'strike', leg: contractKey(state.doc) === 'option' ? 0 : 1, target_premium: 0 }
+              : { for: 'volatility', target_premium: Number((state.price?.premium ?? 1).toPrecision(3)) };
       render();
       changed(0);
     });
     const parts = [fieldRow([field('Find', what)])];
     if (unknown === 'volatility' || unknown === 'strike') {
-      const target = ['Target premium per unit', 'solve.target_premium', 'number', { placeholder: unknown === 'strike' ? '0 = zero cost' : '' }];
+      const target = [
+        'Target premium per unit',
+        'solve.target_premium',
+        'number',
+        { placeholder: unknown === 'strike' ? '0 = zero cost' : '' },
+      ];
       const leg = ['Leg (0 = first)', 'solve.leg', 'number', { placeholder: '0' }];
-      parts.push(fieldRow(boundFields(unknown === 'strike' && contractKey(state.doc) !== 'option' ? [target, leg] : [target])));
+      parts.push(
+        fieldRow(boundFields(unknown === 'strike' && contractKey(state.doc) !== 'option' ? [target, leg] : [target])),
+      );
     } else if (unknown === 'quantity') {
-      parts.push(fieldRow(boundFields([['Budget', 'solve.budget', 'number', { placeholder: '' }], ['Lot size', 'solve.lot_size', 'number', { placeholder: 'none' }]])));
+      parts.push(
+        fieldRow(
+          boundFields([
+            ['Budget', 'solve.budget', 'number', { placeholder: '' }],
+            ['Lot size', 'solve.lot_size', 'number', { placeholder: 'none' }],
+          ]),
+        ),
+      );
     }
     parts.push(errorLine('solve'));
     showControls(controls, parts, state.doc, bindControls);
@@ -179,13 +258,36 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
 
   function draw(r, price) {
     const unknown = state.doc.solve?.for;
-    const text = unknown === 'volatility' ? `Volatility ${formatPercent(r.solution, 3)}`
-      : unknown === 'quantity' ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
-        : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
+    const text =
+      unknown === 'volatility'
+        ? `Volatility ${formatPercent(r.solution, 3)}`
+        : unknown === 'quantity'
+          ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
+          : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
     const use = button('Use it in the trade', () => apply(r, price), { className: 'small' });
-    const solution = make('p', { className: 'equation' }, [make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text })]);
-    output.replaceChildren(solution, use, make('p', { className: 'hint', text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; ') }));
+    const solution = make('p', { className: 'equation' }, [
+      make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text }),
+    ]);
+    output.replaceChildren(
+      solution,
+      use,
+      make('p', {
+        className: 'hint',
+        text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; '),
+      }),
+    );
   }
 
-  return foldedCard({ elements, live, state, command: 'solve', wanted: (doc) => Boolean(doc.solve), render, draw, setStale, showError, changed });
+  return foldedCard({
+    elements,
+    live,
+    state,
+    command: 'solve',
+    wanted: (doc) => Boolean(doc.solve),
+    render,
+    draw,
+    setStale,
+    showError,
+    changed,
+  });
 }

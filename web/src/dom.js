@@ -124,7 +124,13 @@ export function fillRows(body, rows) {
 
 /** A table head row of column titles. */
 export function headRow(titles) {
-  return make('thead', {}, [make('tr', {}, titles.map((h) => make('th', { scope: 'col', text: h })))]);
+  return make('thead', {}, [
+    make(
+      'tr',
+      {},
+      titles.map((h) => make('th', { scope: 'col', text: h })),
+    ),
+  ]);
 }
 
 /**

@@ -23,7 +23,8 @@ export function listenForEdits({ scope, state, terms, redraws, refill, syncError
     }
     if (!input.dataset.path && !input.dataset.role) return;
     writeInput(state.doc, input);
-    const structural = input.dataset.kind === 'choice' && (input.dataset.path?.endsWith('.type') || input.dataset.role === 'exercise');
+    const structural =
+      input.dataset.kind === 'choice' && (input.dataset.path?.endsWith('.type') || input.dataset.role === 'exercise');
     if (structural) terms.reshaped(input);
     // choices that change which fields a card shows: redraw the card, keep the focus
     const redraw = redraws.get(input.dataset.path);

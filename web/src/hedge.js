@@ -8,7 +8,19 @@
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, started } from './compute.js';
-import { bound, boundFields, button, byId, errorLine, field, fieldRow, fillTable, make, select, whenInput } from './dom.js';
+import {
+  bound,
+  boundFields,
+  button,
+  byId,
+  errorLine,
+  field,
+  fieldRow,
+  fillTable,
+  make,
+  select,
+  whenInput,
+} from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
 import { drawTree } from './tree.js';
@@ -19,7 +31,7 @@ const kinds = [
   ['scenario', 'Random path'],
   ['stress', 'Stress'],
 ];
-const maxTreeSteps = 12;  // what fits on screen; the CLI takes longer paths
+const maxTreeSteps = 12; // what fits on screen; the CLI takes longer paths
 
 /** The kind of path the trade asks for (the engine's default is a random path). */
 export function pathKind(doc) {
@@ -74,19 +86,35 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     hedge.path = { kind: 'scenario' };
     const doc = structuredClone(state.doc);
     hedge.path = saved;
-    live.call('hedge', doc).then((result) => {
-      const dates = result.rows.slice(1);
-      hedge.path = { kind: 'spots', spots: dates.map((row, i) => (typeof typed[i] === 'number' ? typed[i] : Number(row.spot.toPrecision(6)))) };
-      render();
-      changed(0);
-    }, (err) => {
-      if (err instanceof EngineError) showError(err.field, err.message);
-    });
+    live.call('hedge', doc).then(
+      (result) => {
+        const dates = result.rows.slice(1);
+        hedge.path = {
+          kind: 'spots',
+          spots: dates.map((row, i) => (typeof typed[i] === 'number' ? typed[i] : Number(row.spot.toPrecision(6)))),
+        };
+        render();
+        changed(0);
+      },
+      (err) => {
+        if (err instanceof EngineError) showError(err.field, err.message);
+      },
+    );
   }
 
   function rebalanceFields() {
-    const unit = select('hedge.rebalance.unit', [['', 'weeks (default)'], ['days', 'business days'], ['weeks', 'weeks'], ['months', 'months']]);
-    return fieldRow([...boundFields([['Rebalance every', 'hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' }]]), field('Unit', unit)]);
+    const unit = select('hedge.rebalance.unit', [
+      ['', 'weeks (default)'],
+      ['days', 'business days'],
+      ['weeks', 'weeks'],
+      ['months', 'months'],
+    ]);
+    return fieldRow([
+      ...boundFields([
+        ['Rebalance every', 'hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' }],
+      ]),
+      field('Unit', unit),
+    ]);
   }
 
   /** Steps on a tree: how many, and each step up or down. */
@@ -97,23 +125,35 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       const n = Math.max(1, Math.min(maxTreeSteps, Math.round(Number(steps.value)) || 1));
       setMoves(moves.length >= n ? moves.slice(0, n) : moves + 'UD'.repeat(n).slice(0, n - moves.length));
     });
-    const buttons = make('div', { className: 'path-buttons', role: 'group', 'aria-label': 'Moves of spot, step by step' });
+    const buttons = make('div', {
+      className: 'path-buttons',
+      role: 'group',
+      'aria-label': 'Moves of spot, step by step',
+    });
     [...moves].forEach((m, i) => {
       const up = m === 'U';
       const flip = () => {
         setMoves(moves.slice(0, i) + (up ? 'D' : 'U') + moves.slice(i + 1));
         controls.querySelectorAll('.move')[i]?.focus();
       };
-      buttons.append(button(up ? '▲' : '▼', flip, {
-        className: `move ${up ? 'up' : 'down'}`,
-        title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})`,
-        'aria-label': `Step ${i + 1}: ${up ? 'up' : 'down'}`,
-        'aria-pressed': up ? 'true' : 'false',
-      }));
+      buttons.append(
+        button(up ? '▲' : '▼', flip, {
+          className: `move ${up ? 'up' : 'down'}`,
+          title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})`,
+          'aria-label': `Step ${i + 1}: ${up ? 'up' : 'down'}`,
+          'aria-pressed': up ? 'true' : 'false',
+        }),
+      );
     });
-    return [fieldRow([field(`Tree steps (1–${maxTreeSteps})`, steps)]),
-      make('p', { className: 'hint', text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.' }),
-      buttons, errorLine('hedge.path.moves')];
+    return [
+      fieldRow([field(`Tree steps (1–${maxTreeSteps})`, steps)]),
+      make('p', {
+        className: 'hint',
+        text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.',
+      }),
+      buttons,
+      errorLine('hedge.path.moves'),
+    ];
   }
 
   /** Spots typed per rebalancing date, each labelled with its date from the last schedule. */
@@ -121,26 +161,40 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const spots = Array.isArray(doc.hedge?.path?.spots) ? doc.hedge.path.spots : [];
     const list = make('div', { className: 'spot-list' });
     spots.forEach((_, i) => {
-      const date = lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
+      const date =
+        lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
       list.append(field(String(date), bound(`hedge.path.spots[${i}]`, 'number'), 'field cell'));
     });
     const fit = button('One spot per date', fitSpots, { className: 'small' });
-    return [rebalanceFields(), make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
-      list, errorLine('hedge.path.spots')];
+    return [
+      rebalanceFields(),
+      make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
+      list,
+      errorLine('hedge.path.spots'),
+    ];
   }
 
   /** A random path: its drift, realised volatility and seed. */
   function scenarioControls() {
-    return [rebalanceFields(), fieldRow(boundFields([
-      ['Drift % p.a.', 'hedge.path.drift', 'percent', { placeholder: 'the rate' }],
-      ['Realised vol % p.a.', 'hedge.path.volatility', 'percent', { placeholder: 'as priced' }],
-      ['Seed', 'hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
-    ]))];
+    return [
+      rebalanceFields(),
+      fieldRow(
+        boundFields([
+          ['Drift % p.a.', 'hedge.path.drift', 'percent', { placeholder: 'the rate' }],
+          ['Realised vol % p.a.', 'hedge.path.volatility', 'percent', { placeholder: 'as priced' }],
+          ['Seed', 'hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
+        ]),
+      ),
+    ];
   }
 
   /** A stress: its shape, size and, for a gap, the date. */
   function stressControls(doc) {
-    const shape = select('hedge.path.shape', [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]);
+    const shape = select('hedge.path.shape', [
+      ['fall', 'steady fall'],
+      ['rise', 'steady rise'],
+      ['gap-down', 'gap down on a date'],
+    ]);
     const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
     if (doc.hedge?.path?.shape === 'gap-down') {
       row.push(field('Gap date or years', whenInput('hedge.path', 'date,years')));
@@ -148,7 +202,12 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     return [rebalanceFields(), fieldRow(row)];
   }
 
-  const pathControls = { lattice: latticeControls, spots: spotsControls, scenario: scenarioControls, stress: stressControls };
+  const pathControls = {
+    lattice: latticeControls,
+    spots: spotsControls,
+    scenario: scenarioControls,
+    stress: stressControls,
+  };
 
   /** Build the controls for the current kind of path. */
   function render() {
@@ -161,18 +220,41 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       radio.addEventListener('change', () => setKind(value));
       choice.append(make('label', {}, [radio, ` ${text}`]));
     }
-    const parts = [choice, ...pathControls[kind](doc),
+    const parts = [
+      choice,
+      ...pathControls[kind](doc),
       fieldRow(boundFields([['Trading cost, bp of traded value', 'hedge.cost_bp', 'number', { placeholder: '0' }]])),
-      errorLine('hedge')];
+      errorLine('hedge'),
+    ];
     showControls(controls, parts, doc, bindControls);
     treeHost.hidden = kind !== 'lattice';
   }
 
   function drawSchedule(result) {
-    const head = ['Date', 'Event', 'Spot', 'Option value', 'Target delta', 'Shares held', 'Shares traded', 'Cash', 'Portfolio', 'Portfolio − option'];
-    const rows = result.rows.map((row) => [row.date ?? `${formatNumber(row.years, 3)} y`, row.event, formatNumber(row.spot, 2), formatNumber(row.option_value, 4),
-      row.delta === null ? '–' : formatNumber(row.delta, 4), formatNumber(row.shares_held, 4), formatNumber(row.shares_traded, 4),
-      formatNumber(row.cash, 4), formatNumber(row.portfolio_value, 4), formatSmart(row.tracking_error, 2, 4)]);
+    const head = [
+      'Date',
+      'Event',
+      'Spot',
+      'Option value',
+      'Target delta',
+      'Shares held',
+      'Shares traded',
+      'Cash',
+      'Portfolio',
+      'Portfolio − option',
+    ];
+    const rows = result.rows.map((row) => [
+      row.date ?? `${formatNumber(row.years, 3)} y`,
+      row.event,
+      formatNumber(row.spot, 2),
+      formatNumber(row.option_value, 4),
+      row.delta === null ? '–' : formatNumber(row.delta, 4),
+      formatNumber(row.shares_held, 4),
+      formatNumber(row.shares_traded, 4),
+      formatNumber(row.cash, 4),
+      formatNumber(row.portfolio_value, 4),
+      formatSmart(row.tracking_error, 2, 4),
+    ]);
     fillTable(table, head, rows, 'Hedge schedule per unit of the trade');
     table.dataset.rows = String(result.rows.length);
     const t = result.totals;
@@ -185,10 +267,17 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const xs = (row) => row.years;
     drawChart(byId('hedge-chart'), {
       series: [
-        { kind: 'portfolio', label: 'Hedge portfolio (shares + cash)', dots: true, points: result.rows.map((r) => [xs(r), r.portfolio_value]) },
+        {
+          kind: 'portfolio',
+          label: 'Hedge portfolio (shares + cash)',
+          dots: true,
+          points: result.rows.map((r) => [xs(r), r.portfolio_value]),
+        },
         { kind: 'option', label: 'Option value', dots: true, points: result.rows.map((r) => [xs(r), r.option_value]) },
       ],
-      xLabel: 'Years from valuation', yLabel: 'Value per unit', height: 240,
+      xLabel: 'Years from valuation',
+      yLabel: 'Value per unit',
+      height: 240,
     });
   }
 

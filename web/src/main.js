@@ -42,7 +42,13 @@ const simulate = simulatePanel({ ...shared, makeWorker, mainThreadFactory, clear
 const ladder = ladderPanel({ ...shared, live: desk });
 const solve = solvePanel({ ...shared, live: desk, notice, refill: fillForm });
 const cards = [hedge, simulate, ladder, solve];
-const cycle = recomputeCycle({ state, live, desk, cards: { hedge, ladder, solve, simulate }, save: () => saveLocally(state, storage) });
+const cycle = recomputeCycle({
+  state,
+  live,
+  desk,
+  cards: { hedge, ladder, solve, simulate },
+  save: () => saveLocally(state, storage),
+});
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
 const files = fileActions({ state, live, refill: fillForm, changed });
 
@@ -78,7 +84,10 @@ function start() {
   terms.wire();
   files.wire();
   byId('action-print').addEventListener('click', () => window.print());
-  window.addEventListener('beforeprint', () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price));
+  window.addEventListener(
+    'beforeprint',
+    () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price),
+  );
   document.body.classList.add('ready');
   cycle.recompute();
 }

@@ -23,7 +23,7 @@ export function clearErrors(prefixes) {
   for (const node of document.querySelectorAll('[data-error]')) {
     const path = node.dataset.error;
     if (prefixes && !prefixes.some((p) => path === p || path.startsWith(`${p}.`) || path.startsWith(`${p}[`))) continue;
-    if (!node.classList.contains('shown') && node.textContent === '') continue;  // nothing to clear: leave the DOM alone
+    if (!node.classList.contains('shown') && node.textContent === '') continue; // nothing to clear: leave the DOM alone
     node.textContent = '';
     node.classList.remove('shown');
     const input = node.errorInput;
@@ -34,7 +34,9 @@ export function clearErrors(prefixes) {
 /** Put the engine's message beside the field it names (or its nearest shown parent). */
 export function showError(field, message) {
   for (const path of pathAncestors(field)) {
-    const node = [...document.querySelectorAll('[data-error]')].find((n) => n.dataset.error === path && !n.closest('[hidden]'));
+    const node = [...document.querySelectorAll('[data-error]')].find(
+      (n) => n.dataset.error === path && !n.closest('[hidden]'),
+    );
     if (!node) continue;
     node.textContent = message;
     node.classList.add('shown');

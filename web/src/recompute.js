@@ -152,12 +152,18 @@ function drawProfile(price, profile) {
   const [lo, hi] = [rows[0].spot, rows[rows.length - 1].spot];
   const evens = profile.break_even;
   const marks = [{ x: price.spot, label: `spot ${formatNumber(price.spot, 2)}`, kind: 'spot' }];
-  evens.filter((x) => x >= lo && x <= hi).forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i + 1 }));
+  evens
+    .filter((x) => x >= lo && x <= hi)
+    .forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i + 1 }));
   const ranges = profile.break_even_ranges.map(([a, b]) => `${formatNumber(a, 2)}–${formatNumber(b, 2)}`);
   const text = [...evens.map((x) => formatNumber(x, 2)), ...ranges].join(' and ') || 'none';
   setResult('break-even', text, evens[0]);
-  for (const node of document.querySelectorAll('[data-result="break-even"]')) node.dataset.values = JSON.stringify(evens);
-  const labels = { xLabel: `Spot (expiry ${profile.horizon_date ?? `in ${formatNumber(profile.horizon_years, 2)} y`})`, yLabel: 'Profit per unit' };
+  for (const node of document.querySelectorAll('[data-result="break-even"]'))
+    node.dataset.values = JSON.stringify(evens);
+  const labels = {
+    xLabel: `Spot (expiry ${profile.horizon_date ?? `in ${formatNumber(profile.horizon_years, 2)} y`})`,
+    yLabel: 'Profit per unit',
+  };
   drawChart(byId('profile-chart'), { series, marks, ...labels });
   drawChart(byId('sheet-chart'), { series, marks, ...labels, height: 220 });
 }
@@ -170,6 +176,10 @@ async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(
   const offset = -stamp.getTimezoneOffset();
   const valuedAt = `${clock.format(stamp)} (UTC${offset >= 0 ? '+' : '−'}${String(Math.abs(offset / 60)).padStart(2, '0')})`;
   const code = await fingerprinting;
-  renderSheet(doc, price, { fingerprint: code, valuedAt, currency: typeof doc.quote?.currency === 'string' ? doc.quote.currency : '' });
+  renderSheet(doc, price, {
+    fingerprint: code,
+    valuedAt,
+    currency: typeof doc.quote?.currency === 'string' ? doc.quote.currency : '',
+  });
   setResult('fingerprint', code ?? '–');
 }

@@ -9,7 +9,16 @@ import { byId } from './dom.js';
 import { EngineError } from './engine.js';
 import { contractKey } from './form.js';
 import { notice } from './messages.js';
-import { autosave, download, loadAutosave, parseTradeText, slug, toBase64Url, tradeFileText, tradeFromHash } from './share.js';
+import {
+  autosave,
+  download,
+  loadAutosave,
+  parseTradeText,
+  slug,
+  toBase64Url,
+  tradeFileText,
+  tradeFromHash,
+} from './share.js';
 
 /** Keep the trade in local storage; a failure, and its end, are said once at the top. */
 export function saveLocally(state, storage) {
@@ -59,7 +68,12 @@ export function fileActions({ state, live, refill, changed }) {
     state.doc = doc;
     refill();
     changed(0);
-    if (message) notice(message, 'info', previous && { label: 'Undo', run: () => adopt(previous, 'Brought back the previous trade.') });
+    if (message)
+      notice(
+        message,
+        'info',
+        previous && { label: 'Undo', run: () => adopt(previous, 'Brought back the previous trade.') },
+      );
   }
 
   function describeShort() {
@@ -98,7 +112,9 @@ export function fileActions({ state, live, refill, changed }) {
     const link = `${pageAddress()}#trade=${toBase64Url(JSON.stringify(state.doc))}`;
     try {
       await navigator.clipboard.writeText(link);
-      notice('A link to this page with the trade in it is on the clipboard. It works where the same page file sits at the same place.');
+      notice(
+        'A link to this page with the trade in it is on the clipboard. It works where the same page file sits at the same place.',
+      );
     } catch {
       history.replaceState(null, '', link);
       notice('The address bar now holds a link with this trade in it; copy it from there.');
@@ -108,7 +124,10 @@ export function fileActions({ state, live, refill, changed }) {
   /** The page as delivered, with this trade in its embedded-trade block. */
   function pageWithTrade(doc) {
     const json = JSON.stringify(doc).replace(/</g, '\\u003c');
-    return state.pristineHtml.replace(/(<script type="application\/json" id="embedded-trade">)[\s\S]*?(<\/script>)/, (_, open, close) => `${open}${json}${close}`);
+    return state.pristineHtml.replace(
+      /(<script type="application\/json" id="embedded-trade">)[\s\S]*?(<\/script>)/,
+      (_, open, close) => `${open}${json}${close}`,
+    );
   }
 
   function savePageCopy() {
@@ -119,13 +138,16 @@ export function fileActions({ state, live, refill, changed }) {
   function newTrade() {
     const today = todayIso();
     const spot = typeof state.doc.market?.spot === 'number' ? state.doc.market.spot : 100;
-    adopt({
-      valuation_date: today,
-      market: { spot, volatility: 0.25, rate: 0.03 },
-      option: { type: 'call', strike: spot, expiry_date: addYears(today, 0.5), exercise: 'american' },
-      quantity: 1000,
-      side: 'buy',
-    }, 'Started a new trade: at the money, six months, valued today.');
+    adopt(
+      {
+        valuation_date: today,
+        market: { spot, volatility: 0.25, rate: 0.03 },
+        option: { type: 'call', strike: spot, expiry_date: addYears(today, 0.5), exercise: 'american' },
+        quantity: 1000,
+        side: 'buy',
+      },
+      'Started a new trade: at the money, six months, valued today.',
+    );
   }
 
   /** A link pasted into the address bar of the open page. */
@@ -148,7 +170,9 @@ export function fileActions({ state, live, refill, changed }) {
       event.target.value = '';
       if (file) importFile(file);
     });
-    byId('action-export').addEventListener('click', () => download(fileName('.json'), tradeFileText(state.doc), 'application/json'));
+    byId('action-export').addEventListener('click', () =>
+      download(fileName('.json'), tradeFileText(state.doc), 'application/json'),
+    );
     byId('action-link').addEventListener('click', copyLink);
     byId('action-copy-page').addEventListener('click', savePageCopy);
     byId('action-new').addEventListener('click', newTrade);

@@ -45,7 +45,8 @@ export function parseTradeText(text) {
       else if (c === '"') inString = false;
     } else if (c === '"') inString = true;
     else if (c === '{' || c === '[') {
-      if (++depth > maxDocumentDepth) throw new Error(`it is nested more than ${maxDocumentDepth} levels deep, which no trade is`);
+      if (++depth > maxDocumentDepth)
+        throw new Error(`it is nested more than ${maxDocumentDepth} levels deep, which no trade is`);
     } else if (c === '}' || c === ']') depth -= 1;
   }
   return JSON.parse(text);
@@ -105,6 +106,11 @@ export function download(name, text, type) {
 
 /** A file name from free text: "Aldane Foods put" -> "aldane-foods-put". */
 export function slug(text, fallback) {
-  const s = String(text || '').toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40);
+  const s = String(text || '')
+    .toLowerCase()
+    .normalize('NFKD')
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 40);
   return s || fallback;
 }

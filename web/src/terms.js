@@ -8,10 +8,28 @@ import { addYears } from './dates.js';
 import { bound, byId, field, make, removeButton, select, whenInput } from './dom.js';
 import { changeShape, contractExpiry, contractKey, fillInput, shapes } from './form.js';
 
-const strikeNames = { 1: ['Strike'], 2: ['Lower strike', 'Upper strike'], 3: ['Low strike', 'Middle strike', 'High strike'] };
-const legTypes = [['call', 'Call'], ['put', 'Put'], ['digital-call', 'Digital call'], ['digital-put', 'Digital put'], ['stock', 'Share']];
-const exerciseStyles = [['european', 'European'], ['american', 'American'], ['bermudan', 'Bermudan']];
-const marginLabels = { absolute: 'Margin per unit', fraction_of_premium: 'Margin, % of premium', volatility: 'Margin, vol points' };
+const strikeNames = {
+  1: ['Strike'],
+  2: ['Lower strike', 'Upper strike'],
+  3: ['Low strike', 'Middle strike', 'High strike'],
+};
+const legTypes = [
+  ['call', 'Call'],
+  ['put', 'Put'],
+  ['digital-call', 'Digital call'],
+  ['digital-put', 'Digital put'],
+  ['stock', 'Share'],
+];
+const exerciseStyles = [
+  ['european', 'European'],
+  ['american', 'American'],
+  ['bermudan', 'Bermudan'],
+];
+const marginLabels = {
+  absolute: 'Margin per unit',
+  fraction_of_premium: 'Margin, % of premium',
+  volatility: 'Margin, vol points',
+};
 const whenHint = { placeholder: 'YYYY-MM-DD or years' };
 
 /**
@@ -46,7 +64,12 @@ export function termsForm({ form, state, refill, changed }) {
     bermudan.disabled = key === 'structure';
     const shape = key === 'structure' ? holder.shape : key;
     byId('shape').value = shape in shapes || shape === 'option' || shape === 'legs' ? shape : 'option';
-    byId('shape-hint').textContent = key === 'structure' ? shapes[holder.shape]?.[1] ?? '' : key === 'legs' ? 'Each leg is its own option with a signed quantity per unit of the structure.' : '';
+    byId('shape-hint').textContent =
+      key === 'structure'
+        ? (shapes[holder.shape]?.[1] ?? '')
+        : key === 'legs'
+          ? 'Each leg is its own option with a signed quantity per unit of the structure.'
+          : '';
   }
 
   /** The margin is typed in price units, percent of the premium or volatility points, by its type. */
@@ -69,14 +92,21 @@ export function termsForm({ form, state, refill, changed }) {
 
   function renderDividends() {
     const list = Array.isArray(state.doc.market?.dividends) ? state.doc.market.dividends : [];
-    byId('dividend-rows').replaceChildren(...list.map((_, i) => make('div', { className: 'row list-row' }, [
-      field(`Dividend ${i + 1}: pay date`, whenInput(`market.dividends[${i}]`, 'date,time_years', whenHint)),
-      field('Cash per share', bound(`market.dividends[${i}].amount`, 'number')),
-      removeButton(`Remove dividend ${i + 1}`, removeRow(() => {
-        state.doc.market.dividends.splice(i, 1);
-        if (state.doc.market.dividends.length === 0) delete state.doc.market.dividends;
-      })),
-    ])));
+    byId('dividend-rows').replaceChildren(
+      ...list.map((_, i) =>
+        make('div', { className: 'row list-row' }, [
+          field(`Dividend ${i + 1}: pay date`, whenInput(`market.dividends[${i}]`, 'date,time_years', whenHint)),
+          field('Cash per share', bound(`market.dividends[${i}].amount`, 'number')),
+          removeButton(
+            `Remove dividend ${i + 1}`,
+            removeRow(() => {
+              state.doc.market.dividends.splice(i, 1);
+              if (state.doc.market.dividends.length === 0) delete state.doc.market.dividends;
+            }),
+          ),
+        ]),
+      ),
+    );
   }
 
   function renderContract() {
@@ -84,7 +114,9 @@ export function termsForm({ form, state, refill, changed }) {
     if (key === 'structure') {
       const strikes = Array.isArray(state.doc.structure?.strikes) ? state.doc.structure.strikes : [];
       const names = strikeNames[strikes.length] ?? strikes.map((_, i) => `Strike ${i + 1}`);
-      byId('structure-strikes').replaceChildren(...strikes.map((_, i) => field(names[i], bound(`structure.strikes[${i}]`, 'number'))));
+      byId('structure-strikes').replaceChildren(
+        ...strikes.map((_, i) => field(names[i], bound(`structure.strikes[${i}]`, 'number'))),
+      );
     } else byId('structure-strikes').replaceChildren();
     if (key === 'legs') renderLegs();
     else byId('leg-rows').replaceChildren();
@@ -92,16 +124,29 @@ export function termsForm({ form, state, refill, changed }) {
 
   function renderLegs() {
     const legs = Array.isArray(state.doc.legs) ? state.doc.legs : [];
-    byId('leg-rows').replaceChildren(...legs.map((leg, i) => {
-      const base = `legs[${i}]`;
-      const cells = [field(`Leg ${i + 1}`, select(`${base}.type`, legTypes)), field('Quantity', bound(`${base}.quantity`, 'number'))];
-      if (leg && leg.type !== 'stock') {
-        cells.push(field('Strike', bound(`${base}.strike`, 'number')),
-          field('Expiry', whenInput(base, 'expiry_date,expiry_years', whenHint)),
-          field('Exercise', select({ role: 'exercise', base }, exerciseStyles)));
-      }
-      return make('div', { className: 'row list-row leg-row' }, [...cells, removeButton(`Remove leg ${i + 1}`, removeRow(() => state.doc.legs.splice(i, 1)))]);
-    }));
+    byId('leg-rows').replaceChildren(
+      ...legs.map((leg, i) => {
+        const base = `legs[${i}]`;
+        const cells = [
+          field(`Leg ${i + 1}`, select(`${base}.type`, legTypes)),
+          field('Quantity', bound(`${base}.quantity`, 'number')),
+        ];
+        if (leg && leg.type !== 'stock') {
+          cells.push(
+            field('Strike', bound(`${base}.strike`, 'number')),
+            field('Expiry', whenInput(base, 'expiry_date,expiry_years', whenHint)),
+            field('Exercise', select({ role: 'exercise', base }, exerciseStyles)),
+          );
+        }
+        return make('div', { className: 'row list-row leg-row' }, [
+          ...cells,
+          removeButton(
+            `Remove leg ${i + 1}`,
+            removeRow(() => state.doc.legs.splice(i, 1)),
+          ),
+        ]);
+      }),
+    );
   }
 
   /**
@@ -112,12 +157,14 @@ export function termsForm({ form, state, refill, changed }) {
   function reshaped(input) {
     const path = input.dataset.path ?? '';
     const leg = /^legs\[(\d+)\]\.type$/.exec(path);
-    if (leg && input.value === 'stock') state.doc.legs[Number(leg[1])] = { type: 'stock', quantity: state.doc.legs[Number(leg[1])].quantity };
+    if (leg && input.value === 'stock')
+      state.doc.legs[Number(leg[1])] = { type: 'stock', quantity: state.doc.legs[Number(leg[1])].quantity };
     if (path === 'option.type' && !input.value.startsWith('digital')) delete state.doc.option.payout;
     if (leg) renderLegs();
     for (const node of form.querySelectorAll('[data-path], [data-role]')) {
       // leg rows, and the Bermudan dates a change of exercise style may have filled in
-      if (node !== input && (node.closest('.leg-row') || node.dataset.role === 'exercise-dates')) fillInput(state.doc, node);
+      if (node !== input && (node.closest('.leg-row') || node.dataset.role === 'exercise-dates'))
+        fillInput(state.doc, node);
     }
     updateVisibility();
   }
