@@ -1,4 +1,5 @@
-// Hedgeleaf page: the trade-terms form, bound field by field to the document.
+// Hedgeleaf page: bound inputs, read and written field by field in the trade document
+// (terms.js decides which inputs the terms form shows; the cards draw their own).
 //
 // The trade document is the page's one source of truth. Every input names the
 // path it writes (data-path) and how to read it (data-kind); typing writes that
