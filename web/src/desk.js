@@ -56,7 +56,7 @@ function foldedCard({
       } catch (err) {
         if (generation !== state.generation || err instanceof Cancelled) return;
         setStale([command], true);
-        if (err instanceof EngineError) showError(err.field, err.message);
+        if (err instanceof EngineError) showError(err.field, err.message, err.detail);
       }
     },
   };

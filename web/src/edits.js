@@ -5,6 +5,7 @@
 // they write with data-path (or data-role for fields that move with the
 // contract), so nothing is wired input by input.
 import { fillInput, switchExpiryMode, writeInput } from './form.js';
+import { showWarning } from './messages.js';
 
 /**
  * Listen for edits in `scope`. `terms` is the terms form (terms.js); `redraws` (a Map) takes
@@ -23,6 +24,7 @@ export function listenForEdits({ scope, state, terms, redraws, refill, syncError
     }
     if (!input.dataset.path && !input.dataset.role) return;
     writeInput(state.doc, input);
+    showWarning(input);
     const structural =
       input.dataset.kind === 'choice' && (input.dataset.path?.endsWith('.type') || input.dataset.role === 'exercise');
     if (structural) terms.reshaped(input);

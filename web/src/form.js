@@ -8,6 +8,7 @@
 // Unreadable text goes to the engine as typed, and the engine names the field.
 import { addMonths, addYears, isIsoDate, yearsBetween } from './dates.js';
 import { inputText, parseNumber, parsePercent, parseTenor, percentText } from './format.js';
+import { decimalText, maxNumberChars } from './numbers.js';
 import { getPath, setPath } from './paths.js';
 
 /** Shapes with their strike count and a plain description. */
@@ -29,6 +30,14 @@ export function contractKey(doc) {
   return 'option';
 }
 
+/** The longest text a text field passes on (the engine's own limits are far below; see quote.hpp). */
+export const maxTextChars = 10000;
+
+/** The most characters `input` takes: longer text is refused beside it and never reaches the document. */
+export function charLimit(input) {
+  return ['number', 'percent', 'index', 'tenor'].includes(input.dataset.kind) ? maxNumberChars : maxTextChars;
+}
+
 /** Read an input's value as the document stores it (undefined = remove the field). */
 export function readInput(input) {
   const kind = input.dataset.kind;
@@ -41,7 +50,10 @@ export function readInput(input) {
   if (kind === 'text') return text.trim() === '' ? undefined : text;
   if (kind === 'choice') return text === '' ? undefined : text;
   if (kind === 'date') return text === '' ? undefined : text;
+  // a number the page cannot read goes into the document as typed (it stays on screen and in the
+  // autosave); the page says why beside the field and prices nothing (checks.js)
   const value = kind === 'percent' ? parsePercent(text) : kind === 'tenor' ? parseTenor(text) : parseNumber(text);
+  if (kind === 'index' && typeof value === 'number') return value - 1; // leg 1 on screen is legs[0] in the file
   return value === null ? undefined : value;
 }
 
@@ -52,10 +64,16 @@ export function showInput(input, value) {
   else if (kind === 'radio') input.checked = value === input.value;
   else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
   else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
-  else if (kind === 'tenor') input.value = value === undefined ? '' : String(value);
+  else if (kind === 'index') input.value = typeof value === 'number' ? inputText(value + 1) : (value ?? '');
+  else if (kind === 'tenor') input.value = value === undefined ? '' : tenorText(value);
   else if (kind === 'choice')
     input.value = value === undefined ? (input.querySelector('option[value=""]') ? '' : input.options[0].value) : value;
   else input.value = value ?? '';
+}
+
+/** Years as a tenor field shows them: 0.5 -> "0.5" ("0,5" in de-DE); text as typed. */
+function tenorText(value) {
+  return typeof value === 'number' ? decimalText(value) : String(value ?? '');
 }
 
 /** "2027-03-15" or "0.25" -> {key, value} for a field that takes a date or years. */
@@ -104,9 +122,13 @@ export function defaultExerciseSchedule(doc, base) {
   return out.length ? { key: byDate ? 'exercise_dates' : 'exercise_years', value: out } : null;
 }
 
-/** Write one bound input into the document. Returns the path written (for its error span). */
+/**
+ * Write one bound input into the document. Returns the path written (for its error span). Text
+ * longer than the input takes is not written: the document keeps what it had, the page refuses it.
+ */
 export function writeInput(doc, input) {
   const role = input.dataset.role;
+  if (input.value.length > charLimit(input)) return errorPathOf(doc, input);
   if (!role) {
     setPath(doc, input.dataset.path, readInput(input));
     return input.dataset.path;
@@ -180,7 +202,7 @@ export function fillInput(doc, input) {
   const base = input.dataset.base ?? sharedBase(doc);
   if (!base) return;
   if (role === 'expiry-date') input.value = getPath(doc, `${base}.expiry_date`) ?? '';
-  else if (role === 'expiry-tenor') input.value = getPath(doc, `${base}.expiry_years`) ?? '';
+  else if (role === 'expiry-tenor') input.value = tenorText(getPath(doc, `${base}.expiry_years`));
   else if (role === 'exercise') input.value = getPath(doc, `${base}.exercise`) ?? 'european';
   else if (role === 'exercise-dates') {
     const list = getPath(doc, `${base}.exercise_dates`) ?? getPath(doc, `${base}.exercise_years`) ?? [];

@@ -97,7 +97,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         changed(0);
       },
       (err) => {
-        if (err instanceof EngineError) showError(err.field, err.message);
+        if (err instanceof EngineError) showError(err.field, err.message, err.detail);
       },
     );
   }
@@ -312,7 +312,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       } catch (err) {
         if (generation !== state.generation || err instanceof Cancelled) return;
         setStale(['hedge'], true);
-        if (err instanceof EngineError) showError(err.field, err.message);
+        if (err instanceof EngineError) showError(err.field, err.message, err.detail);
         else showError('', `The hedge could not be computed: ${err.message}`);
       }
     },

@@ -48,6 +48,7 @@ const cycle = recomputeCycle({
   desk,
   cards: { hedge, ladder, solve, simulate },
   save: () => saveLocally(state, storage),
+  scope,
 });
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
 const files = fileActions({ state, live, refill: fillForm, changed });

@@ -13,7 +13,7 @@ import { Cancelled, started } from './compute.js';
 import { byId } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber } from './format.js';
-import { clearErrors, setStale, showError, showFailure } from './messages.js';
+import { clearErrors, pageProblems, setStale, showError, showFailure, showPageProblems } from './messages.js';
 import { renderPrice, renderSheet, setResult } from './render.js';
 import { fingerprint } from './share.js';
 
@@ -21,10 +21,11 @@ const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
 
 /**
  * The cycle over `live` and `desk` (EngineChannel) for the cards {hedge, ladder, solve,
- * simulate}; `save` keeps the edited trade (autosave). Returns changed(delay) for edits,
- * recompute() to run one now, and refreshSheet(doc, price) for the print view.
+ * simulate}; `save` keeps the edited trade (autosave); `scope` holds the inputs the page
+ * checks itself before anything is priced. Returns changed(delay) for edits, recompute()
+ * to run one now, and refreshSheet(doc, price) for the print view.
  */
-export function recomputeCycle({ state, live, desk, cards, save }) {
+export function recomputeCycle({ state, live, desk, cards, save, scope }) {
   const { hedge, ladder, solve, simulate } = cards;
   let pending = false; // an edit waits for its recompute
   let timer = null;
@@ -77,6 +78,16 @@ export function recomputeCycle({ state, live, desk, cards, save }) {
     document.body.dataset.computing = 'true';
     const generation = (state.generation += 1);
     const current = () => generation === state.generation;
+    // what the page cannot read (or could read two ways) is refused beside its field: nothing is priced
+    const refused = pageProblems(scope);
+    if (refused.length) {
+      notBusy();
+      clearErrors();
+      showPageProblems(refused);
+      setStale(allPanels, true);
+      caughtUp();
+      return;
+    }
     const doc = structuredClone(state.doc);
     stopStaleWork();
     // Dim the premium only when the price takes a while: a class change on every edit
@@ -132,7 +143,7 @@ async function showProfile(price, pending, current) {
   } catch (err) {
     if (!current() || err instanceof Cancelled) return;
     setStale(['profile'], true);
-    if (err instanceof EngineError) showError(err.field, err.message);
+    if (err instanceof EngineError) showError(err.field, err.message, err.detail);
   }
 }
 

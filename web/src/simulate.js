@@ -162,7 +162,7 @@ export function simulatePanel({
       if (err instanceof Cancelled) status.textContent = 'Cancelled. Nothing was changed.';
       else if (err instanceof EngineError) {
         status.textContent = 'Not run: see the message above.';
-        showError(err.field, err.message);
+        showError(err.field, err.message, err.detail);
       } else status.textContent = `The simulation failed: ${err.message}`;
     }
   }
