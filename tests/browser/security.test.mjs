@@ -312,7 +312,7 @@ test('local storage full: a clear warning, and the trade on screen keeps working
   assert.ok(filled > 0);
   await page.fill('[data-path="quote.client"]', 'Larkspur Ceramics');
   await page.locator('#notice').filter({ hasText: 'local storage is full' }).waitFor({ timeout: 5000 });
-  assert.match(await page.textContent('#notice'), /Export the trade to keep it/);
+  assert.match(await page.textContent('#notice'), /Save file to keep it/);
   assert.equal(await page.getAttribute('#notice', 'data-kind'), 'warning');
   await page.fill('[data-path="option.strike"]', '45');
   await until(page, () => !('computing' in document.body.dataset));

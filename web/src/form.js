@@ -61,7 +61,8 @@ export function readInput(input) {
 export function showInput(input, value) {
   const kind = input.dataset.kind;
   if (kind === 'bool') input.checked = value === undefined ? input.dataset.default === 'true' : value === true;
-  else if (kind === 'radio') input.checked = value === input.value;
+  else if (kind === 'radio')
+    input.checked = value === undefined ? input.dataset.default === 'true' : value === input.value;
   else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
   else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
   else if (kind === 'index') input.value = typeof value === 'number' ? inputText(value + 1) : (value ?? '');

@@ -287,13 +287,13 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     request(doc) {
       return has() ? started(live.call('hedge', doc)) : null;
     },
-    /** Show the schedule `pending` (from request) brings, unless a newer edit came first. */
+    /** Show the schedule `pending` (from request) brings, unless a newer edit came first; returns it, or null. */
     async update(doc, price, generation, pending) {
-      if (!pending) return;
+      if (!pending) return null;
       const kind = pathKind(doc);
       try {
         const result = await pending;
-        if (generation !== state.generation) return;
+        if (generation !== state.generation) return null;
         lastRows = result.rows;
         drawSchedule(result);
         if (kind === 'spots') {
@@ -305,16 +305,23 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         }
         if (kind === 'lattice' && hasTree()) {
           lastTree = await live.call('tree', doc);
-          if (generation !== state.generation) return;
+          if (generation !== state.generation) return null;
           drawTree(treeHost, lastTree, movesOf(doc), setMoves);
         }
         setStale(['hedge'], false);
+        return result;
       } catch (err) {
-        if (generation !== state.generation || err instanceof Cancelled) return;
+        if (generation !== state.generation || err instanceof Cancelled) return null;
         setStale(['hedge'], true);
         if (err instanceof EngineError) showError(err.field, err.message, err.detail);
         else showError('', `The hedge could not be computed: ${err.message}`);
+        return null;
       }
+    },
+    /** Show a schedule kept from before a reload (recompute.js marks it as such). */
+    showSchedule(result) {
+      lastRows = result.rows;
+      drawSchedule(result);
     },
   };
 }

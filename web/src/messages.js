@@ -11,13 +11,29 @@ import { errorPathOf } from './form.js';
 import { pathAncestors } from './paths.js';
 import { fieldName, screenMessage } from './wording.js';
 
-/** Show a line at the top; `action` = {label, run} adds a button to it (e.g. Undo). */
-export function notice(text, kind = 'info', action = null) {
+/**
+ * Show a line at the top; `action` = {label, run} adds a button to it (e.g. Undo). Every
+ * notice can be dismissed (✕); `topic` names what it is about, so that it can be taken
+ * away when that is over (clearNotice).
+ */
+export function notice(text, kind = 'info', action = null, topic = '') {
   const banner = byId('notice');
   banner.textContent = text;
   banner.dataset.kind = kind;
+  banner.dataset.topic = topic;
   banner.hidden = !text;
+  if (!text) return;
   if (action) banner.append(' ', button(action.label, action.run, { className: 'small' }));
+  const dismiss = () => {
+    banner.hidden = true;
+  };
+  banner.append(button('✕', dismiss, { className: 'small dismiss', 'aria-label': 'Dismiss', title: 'Dismiss' }));
+}
+
+/** Take the notice away if it is about `topic`. */
+export function clearNotice(topic) {
+  const banner = byId('notice');
+  if (banner.dataset.topic === topic) banner.hidden = true;
 }
 
 /** Empty the error lines (only those for `prefixes` and the fields below them, when given). */
@@ -90,10 +106,12 @@ export function showWarning(input) {
   node.hidden = !text;
 }
 
-/** Grey (or ungrey) the cards of `panels` (their data-panel names). */
+/** Grey (or ungrey) the cards of `panels` (their data-panel names); fresh figures are no longer "restored". */
 export function setStale(panels, stale) {
   for (const node of document.querySelectorAll('[data-panel]')) {
-    if (panels.includes(node.dataset.panel)) node.classList.toggle('stale', stale);
+    if (!panels.includes(node.dataset.panel)) continue;
+    node.classList.toggle('stale', stale);
+    if (!stale) node.classList.remove('restored'); // fresh figures: no longer the ones kept from before a reload
   }
 }
 

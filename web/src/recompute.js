@@ -21,11 +21,12 @@ const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
 
 /**
  * The cycle over `live` and `desk` (EngineChannel) for the cards {hedge, ladder, solve,
- * simulate}; `save` keeps the edited trade (autosave); `scope` holds the inputs the page
- * checks itself before anything is priced. Returns changed(delay) for edits, recompute()
- * to run one now, and refreshSheet(doc, price) for the print view.
+ * simulate}; `save` keeps the edited trade (autosave) and `keepFigures` the last good
+ * figures with it; `scope` holds the inputs the page checks itself before anything is
+ * priced. Returns changed(delay) for edits, recompute() to run one now, showKept(figures)
+ * to show figures kept from before a reload, and refreshSheet(doc, price) for the print view.
  */
-export function recomputeCycle({ state, live, desk, cards, save, scope }) {
+export function recomputeCycle({ state, live, desk, cards, save, keepFigures, scope }) {
   const { hedge, ladder, solve, simulate } = cards;
   let pending = false; // an edit waits for its recompute
   let timer = null;
@@ -121,29 +122,53 @@ export function recomputeCycle({ state, live, desk, cards, save, scope }) {
     setStale(['price'], false);
     renderCurrency(doc);
     refreshSheet(doc, price, calls.fingerprinting);
-    if (calls.profiling) await showProfile(price, calls.profiling, current);
+    const profile = calls.profiling ? await showProfile(price, calls.profiling, current) : null;
     if (!current()) return;
-    await hedge.update(doc, price, generation, calls.hedging);
+    const schedule = await hedge.update(doc, price, generation, calls.hedging);
     await ladder.update(generation, calls.laddering);
     await solve.update(generation, calls.solving, price);
     simulate.update(doc, price);
-    if (current()) caughtUp();
+    if (!current()) return;
+    keepFigures({ doc, price, profile, hedge: schedule });
+    caughtUp();
   }
 
-  return { changed, recompute, refreshSheet };
+  /**
+   * Show the last good figures kept from before a reload, greyed and marked as such, until the
+   * first recompute replaces them (or, if the trade is refused, stays on them).
+   */
+  function showKept({ doc, price, profile, hedge: schedule }) {
+    try {
+      renderPrice(doc, price);
+      renderCurrency(doc);
+      if (profile) drawProfile(price, profile);
+      if (schedule) hedge.showSchedule(schedule);
+    } catch {
+      return; // figures from another version of the page: the recompute draws afresh
+    }
+    state.price = price;
+    const panels = ['price', ...(profile ? ['profile'] : []), ...(schedule ? ['hedge'] : [])];
+    setStale(panels, true);
+    for (const node of document.querySelectorAll('[data-panel]'))
+      if (panels.includes(node.dataset.panel)) node.classList.add('restored');
+  }
+
+  return { changed, recompute, showKept, refreshSheet };
 }
 
-/** Draw the profile `pending` brings, unless a newer edit came first (`current()` false). */
+/** Draw the profile `pending` brings, unless a newer edit came first (`current()` false); returns it, or null. */
 async function showProfile(price, pending, current) {
   try {
     const profile = await pending;
-    if (!current()) return;
+    if (!current()) return null;
     drawProfile(price, profile);
     setStale(['profile'], false);
+    return profile;
   } catch (err) {
-    if (!current() || err instanceof Cancelled) return;
+    if (!current() || err instanceof Cancelled) return null;
     setStale(['profile'], true);
     if (err instanceof EngineError) showError(err.field, err.message, err.detail);
+    return null;
   }
 }
 
