@@ -4,22 +4,20 @@
 // One listener on <main> serves the terms form and every card: inputs say what
 // they write with data-path (or data-role for fields that move with the
 // contract), so nothing is wired input by input.
-import { fillInput, switchExpiryMode, writeInput } from './form.js';
+import { fillInput, writeInput } from './form.js';
 import { showWarning } from './messages.js';
 
 /**
  * Listen for edits in `scope`. `terms` is the terms form (terms.js); `redraws` (a Map) takes
  * a path to what must be drawn again when it changes (a choice that changes which fields
- * a card shows); `refill` draws every input again; `syncErrors` points the error lines
- * at the fields the inputs now write; `changed` recomputes soon.
+ * a card shows); `syncErrors` points the error lines at the fields the inputs now write;
+ * `changed` recomputes soon.
  */
-export function listenForEdits({ scope, state, terms, redraws, refill, syncErrors, changed }) {
+export function listenForEdits({ scope, state, terms, redraws, syncErrors, changed }) {
   function onInput(event) {
     const input = event.target;
     if (input.name === 'expiry-mode') {
-      switchExpiryMode(state.doc, input.value);
-      refill();
-      changed();
+      if (input.checked && event.type === 'change') terms.switchExpiry(input.value); // (a radio fires input and change)
       return;
     }
     if (!input.dataset.path && !input.dataset.role) return;

@@ -24,6 +24,7 @@ import {
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
 import { drawTree } from './tree.js';
+import { screenNote } from './wording.js';
 
 const kinds = [
   ['lattice', 'Steps on a tree'],
@@ -263,7 +264,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
       `replication error ${formatSmart(t.replication_error, 2, 4)}, shares traded ${formatNumber(t.total_shares_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
       `The desk holds ${formatNumber(desk.shares_at_start, 0)} shares at the start and ${formatNumber(desk.shares_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
-      (result.notes?.length ? ` Note: ${result.notes.join('; ')}.` : '');
+      (result.notes?.length ? ` Note: ${result.notes.map(screenNote).join('; ')}.` : '');
     const xs = (row) => row.years;
     drawChart(byId('hedge-chart'), {
       series: [
@@ -298,7 +299,8 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         drawSchedule(result);
         if (kind === 'spots') {
           // dates beside the typed spots follow the schedule
-          controls.querySelectorAll('.spot-list .field > span').forEach((span, i) => {
+          // (the label's own text, not the error line the field also holds)
+          controls.querySelectorAll('.spot-list .field > span:first-child').forEach((span, i) => {
             const row = result.rows[i + 1];
             if (row) span.textContent = row.date ?? `${formatNumber(row.years, 3)} y`;
           });

@@ -83,11 +83,10 @@ async function start() {
     state,
     terms,
     redraws: new Map([
-      ['ladder.kind', ladder.render],
+      ['ladder.kind', ladder.kindChanged],
       ['hedge.path.shape', hedge.render],
       ['quote.margin_type', terms.updateMarginField],
     ]),
-    refill: fillForm,
     syncErrors: bindControls,
     changed,
   });

@@ -39,6 +39,18 @@ const shapeNames = {
   'covered-call': 'covered call',
 };
 
+const methodNames = {
+  'leisen-reimer': 'Leisen–Reimer',
+  crr: 'Cox–Ross–Rubinstein (CRR)',
+  'jarrow-rudd': 'Jarrow–Rudd',
+  tian: 'Tian',
+};
+
+/** A lattice method as people write it: "leisen-reimer" -> "Leisen–Reimer" (the engine's word otherwise). */
+export function methodName(method) {
+  return methodNames[method] ?? method;
+}
+
 /** "American put, strike 46" and the like, in plain words. */
 export function describeContract(doc) {
   const key = contractKey(doc);
@@ -119,13 +131,9 @@ function writeFigures(doc, r, set) {
   set('rho-position', formatNumber(p.rho / 100, 2), p.rho);
 
   const lattice = r.lattice;
-  const method =
-    { 'leisen-reimer': 'Leisen-Reimer', crr: 'Cox-Ross-Rubinstein', 'jarrow-rudd': 'Jarrow-Rudd', tian: 'Tian' }[
-      lattice.method
-    ] ?? lattice.method;
   set(
     'lattice',
-    `${method}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`,
+    `${methodName(lattice.method)}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`,
   );
   set('closed-form-premium', formatNumber(r.closed_form.premium, perUnitDigits), r.closed_form.premium);
   set('error-estimate', `± ${formatSmart(lattice.error_estimate, 2, 4)}`, lattice.error_estimate);
@@ -213,7 +221,10 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   rows(byId('sheet-meta'), [
     ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
-    ['Engine', `Hedgeleaf ${r.engine_version}, ${r.lattice.method} lattice, ${inputText(r.lattice.steps)} steps`],
+    [
+      'Engine',
+      `Hedgeleaf ${r.engine_version}, ${methodName(r.lattice.method)} lattice, ${inputText(r.lattice.steps)} steps`,
+    ],
     [
       'Input fingerprint',
       fingerprint ? `${fingerprint} (first 12 hex digits of the SHA-256 of the saved trade file)` : '–',

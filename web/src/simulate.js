@@ -217,7 +217,10 @@ export function simulatePanel({
   return {
     ...cardBasics(elements, render),
     update(doc) {
-      if (ranOn === null) return;
+      if (ranOn === null) {
+        setStale(['simulate'], false); // nothing run yet: nothing on the card is out of date
+        return;
+      }
       const stale = JSON.stringify(doc) !== ranOn;
       setStale(['simulate'], stale);
       if (stale && !card.classList.contains('running'))

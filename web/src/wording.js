@@ -71,10 +71,14 @@ export function screenMessage(input, field, message, detail) {
     const [low, high, value] = range.slice(1).map(Number);
     return `${name} must be between ${unit.show(low)} and ${unit.show(high)}, got ${unit.show(value)}`;
   }
-  return `${name}: ${rest}`;
+  return `${name}: ${input.dataset.kind === 'index' ? screenNote(rest).replace(fromZero, fromOne) : rest}`;
 }
 
-/** Engine notes shown on screen count legs from 1, as the page does ("legs[0]" -> "leg 1"). */
+// "(0 to 2, in the order of the legs...)": the engine's count of legs from 0, on screen from 1
+const fromZero = /\((\d+) to (\d+),/;
+const fromOne = (_, a, b) => `(${Number(a) + 1} to ${Number(b) + 1},`;
+
+/** Engine text shown on screen counts legs from 1, as the page does ("legs[0]", "leg 0" -> "leg 1"). */
 export function screenNote(text) {
-  return String(text).replace(/\blegs\[(\d+)\]/g, (_, i) => `leg ${Number(i) + 1}`);
+  return String(text).replace(/\blegs?(?:\[(\d+)\]| (\d+)\b)/g, (_, a, b) => `leg ${Number(a ?? b) + 1}`);
 }
