@@ -21,7 +21,7 @@ import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
 import { contractKey } from './form.js';
 import { setPath } from './paths.js';
-import { methodName } from './render.js';
+import { methodName, priceDigits, priceText } from './render.js';
 import { screenNote } from './wording.js';
 
 /**
@@ -143,7 +143,7 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
       const g = r.grid;
       head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
       rows = g.spot_shifts.map((s, i) => [
-        `${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
+        `${priceText(state.doc, r.today.spot * (1 + s))} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
         ...g.position_pnl[i].map((x) => formatNumber(x, 0)),
       ]);
       lead = `Position P&L${ccy} against today, spot down the side, volatility across.`;
@@ -161,7 +161,7 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
     } else {
       head = ['Spot', 'Move', ...tail, 'Delta', 'Position delta'];
       rows = r.rows.map((row) => [
-        formatNumber(row.spot, 2),
+        priceText(state.doc, row.spot),
         `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`,
         ...per(row),
         ...greeks(row),
@@ -290,7 +290,7 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
         ? `Volatility ${formatPercent(r.solution, 3)}`
         : unknown === 'quantity'
           ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
-          : `Strike of leg ${r.leg + 1} ${formatNumber(r.solution, 4)}`;
+          : `Strike of leg ${r.leg + 1} ${formatNumber(r.solution, Math.max(4, priceDigits(state.doc)))}`;
     // greyed with the card (messages.js setStale): a stale answer cannot be put into the trade
     const use = button('Use it in the trade', () => apply(r, price), {
       className: 'small',

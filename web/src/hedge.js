@@ -23,6 +23,7 @@ import {
 } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
+import { priceDigits } from './render.js';
 import { drawTree } from './tree.js';
 import { screenNote } from './wording.js';
 
@@ -232,6 +233,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
   }
 
   function drawSchedule(result) {
+    const digits = priceDigits(state.doc);
     const head = [
       'Date',
       'Event',
@@ -247,7 +249,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const rows = result.rows.map((row) => [
       row.date ?? `${formatNumber(row.years, 3)} y`,
       row.event,
-      formatNumber(row.spot, 2),
+      formatNumber(row.spot, digits),
       formatNumber(row.option_value, 4),
       row.delta === null ? '–' : formatNumber(row.delta, 4),
       formatNumber(row.shares_held, 4),
@@ -308,7 +310,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         if (kind === 'lattice' && hasTree()) {
           lastTree = await live.call('tree', doc);
           if (generation !== state.generation) return null;
-          drawTree(treeHost, lastTree, movesOf(doc), setMoves);
+          drawTree(treeHost, lastTree, movesOf(doc), setMoves, priceDigits(doc));
         }
         setStale(['hedge'], false);
         return result;

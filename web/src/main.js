@@ -13,6 +13,7 @@ import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
 import { hedgePanel } from './hedge.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
+import { fillProfileRange } from './profile.js';
 import { recomputeCycle } from './recompute.js';
 import { describeWork, recentMenu } from './recent.js';
 import { fileActions, openingTrade, pageSeed } from './saving.js';
@@ -67,6 +68,7 @@ const recent = recentMenu({ work, state, adopt: files.adopt });
 /** Show the whole trade document: the terms form, every card's controls and their error lines. */
 function fillForm() {
   terms.fill();
+  fillProfileRange(state.doc);
   for (const card of cards) card.render();
   bindControls();
 }

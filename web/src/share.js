@@ -93,13 +93,15 @@ export function download(name, text, type) {
   setTimeout(() => URL.revokeObjectURL(url), 10000);
 }
 
-/** A file name from free text: "Aldane Foods put" -> "aldane-foods-put". */
+/**
+ * A file name from free text, in any script, accents kept: "Société Générale put" ->
+ * "société-générale-put". Letters, marks and digits stay; anything else becomes one "-".
+ */
 export function slug(text, fallback) {
   const s = String(text || '')
+    .normalize('NFC')
     .toLowerCase()
-    .normalize('NFKD')
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 40);
-  return s || fallback;
+    .replace(/[^\p{L}\p{M}\p{N}]+/gu, '-');
+  const cut = [...s.replace(/^-+/, '')].slice(0, 40).join('').replace(/-+$/, ''); // whole characters only
+  return cut || fallback;
 }

@@ -72,6 +72,8 @@ export function simulatePanel({
   const progress = make('progress', { max: 1, id: 'simulate-progress' });
   const status = make('p', { className: 'hint', id: 'simulate-status', role: 'status' });
   progress.hidden = true;
+  status.textContent =
+    'Not run yet. Run simulation hedges many random paths (10,000 by default) and shows the spread of the hedge’s P&L here.';
 
   function render() {
     if (!has()) return;
