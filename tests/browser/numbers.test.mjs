@@ -168,6 +168,7 @@ test('a huge paste is refused beside its field at once, and the page never block
         input.value = `${'7'.repeat(1 << 20)}${end}`;
         const start = performance.now();
         input.dispatchEvent(new Event('input', { bubbles: true }));
+        input.dispatchEvent(new FocusEvent('focusout', { bubbles: true })); // leaving the field keeps it as typed
         return performance.now() - start;
       }, tail),
       new Promise((resolve) => setTimeout(() => resolve(Infinity), 5000)),

@@ -4,6 +4,7 @@
 // One listener on <main> serves the terms form and every card: inputs say what
 // they write with data-path (or data-role for fields that move with the
 // contract), so nothing is wired input by input.
+import { inputProblem } from './checks.js';
 import { fillInput, writeInput } from './form.js';
 import { showWarning } from './messages.js';
 
@@ -36,10 +37,11 @@ export function listenForEdits({ scope, state, terms, redraws, syncErrors, chang
     changed();
   }
 
-  /** Tidy a number once the cursor leaves it (25000 -> 25,000), if it reads as one. */
+  /** Tidy a number once the cursor leaves it (25000 -> 25,000), if it reads as one (else it stays as typed). */
   function onBlur(event) {
     const input = event.target;
     if (!['number', 'percent'].includes(input.dataset?.kind) || input.getAttribute('aria-invalid') === 'true') return;
+    if (inputProblem(input)) return; // refused by the page (checks.js): what was typed stays to be fixed
     fillInput(state.doc, input);
   }
 
