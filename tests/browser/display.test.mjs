@@ -7,9 +7,7 @@
 import assert from 'node:assert/strict';
 import { after, before, test } from 'node:test';
 
-import { launchChromium, openPage, pageUnderTest, savedTrade, settled, tradeLink, until } from './harness.mjs';
-
-const { url: pageUrl } = pageUnderTest();
+import { chromiumForFile, linkToPage, offlineContext, openPage, savedTrade, settled, until } from './harness.mjs';
 
 // An invented currency trade: a put on an exchange rate quoted to four decimals.
 const fxPut = {
@@ -32,19 +30,14 @@ const equityPut = {
   side: 'buy',
 };
 
-let browser;
+const run = chromiumForFile(before, after);
 let context;
 const problems = [];
 before(async () => {
-  browser = await launchChromium();
-  context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1440, height: 900 } });
-  await context.setOffline(true);
-});
-after(async () => {
-  await browser?.close();
+  context = await offlineContext(await run.ready(), { width: 1440 });
 });
 
-const open = (trade) => openPage(context, tradeLink(pageUrl, JSON.stringify(trade)), problems);
+const open = (trade) => openPage(context, linkToPage(JSON.stringify(trade)), problems);
 /** "−1,234.5" -> -1234.5 (the page writes a real minus and groups thousands in en-US). */
 const numberOf = (text) => Number(text.replace(/−/g, '-').replace(/,/g, ''));
 const decimals = (text) => (text.split('.')[1] ?? '').length;

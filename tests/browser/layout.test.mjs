@@ -4,22 +4,15 @@
 import assert from 'node:assert/strict';
 import { after, before, test } from 'node:test';
 
-import { exampleTradeText, launchChromium, openPage, pageUnderTest, tradeLink } from './harness.mjs';
+import { chromiumForFile, linkToPage, offlineContext, openPage } from './harness.mjs';
 
-const { url: pageUrl } = pageUnderTest();
 const widths = [
   ['phone', 390, 844],
   ['tablet', 768, 1024],
   ['laptop', 1440, 900],
 ];
 
-let browser;
-before(async () => {
-  browser = await launchChromium();
-});
-after(async () => {
-  await browser?.close();
-});
+const run = chromiumForFile(before, after);
 
 /** Choices whose chosen text does not fit their box (measured with the select's own font). */
 function truncatedSelects(page) {
@@ -53,10 +46,9 @@ function truncatedSelects(page) {
 
 for (const [name, width, height] of widths) {
   test(`${name} (${width} px): the premium on the first screen, nothing cut off or scrolling sideways`, async () => {
-    const context = await browser.newContext({ viewport: { width, height } });
-    await context.setOffline(true);
+    const context = await offlineContext(await run.ready(), { width, height });
     const problems = [];
-    const page = await openPage(context, tradeLink(pageUrl, exampleTradeText), problems);
+    const page = await openPage(context, linkToPage(), problems);
     const premium = await page.evaluate(() => {
       const box = document.querySelector('[data-result="premium"]').getBoundingClientRect();
       return { top: box.top + scrollY, bottom: box.bottom + scrollY };

@@ -6,30 +6,14 @@
 import assert from 'node:assert/strict';
 import { after, before, test } from 'node:test';
 
-import {
-  exampleTradeText,
-  launchChromium,
-  openPage,
-  pageUnderTest,
-  savedTrade,
-  settled,
-  tradeLink,
-  until,
-} from './harness.mjs';
+import { chromiumForFile, offlineContext, openPage, settled, until } from './harness.mjs';
+import { exampleTrade, linkToPage, savedTrade } from './harness.mjs'; // trades to open, and the file saved
 
-const { url: pageUrl } = pageUnderTest();
-const exampleLink = tradeLink(pageUrl, exampleTradeText);
-
-let browser;
+const run = chromiumForFile(before, after);
 let context;
 const problems = [];
 before(async () => {
-  browser = await launchChromium();
-  context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
-  await context.setOffline(true);
-});
-after(async () => {
-  await browser?.close();
+  context = await offlineContext(await run.ready());
 });
 
 const staleCards = (page) =>
@@ -47,7 +31,7 @@ async function fill(page, selector, value) {
 }
 
 test('changing the scenario move after a custom range leaves settings the engine takes', async () => {
-  const page = await openPage(context, exampleLink, problems);
+  const page = await openPage(context, linkToPage(), problems);
   await page.click('#ladder-card summary');
   await until(page, () => document.querySelector('table[data-result="ladder"] tbody tr'));
   await fill(page, '[data-path="ladder.spot_from"]', '-10');
@@ -64,7 +48,7 @@ test('changing the scenario move after a custom range leaves settings the engine
 });
 
 test('a greyed solve result cannot be applied to the trade', async () => {
-  const page = await openPage(context, exampleLink, problems);
+  const page = await openPage(context, linkToPage(), problems);
   await page.click('#solve-card summary');
   await page.selectOption('#solve-for', 'volatility');
   await fill(page, '[data-path="solve.target_premium"]', '3.5');
@@ -80,7 +64,7 @@ test('a greyed solve result cannot be applied to the trade', async () => {
 });
 
 test('switching the expiry between a date and a tenor keeps it, and either can be chosen again', async () => {
-  const page = await openPage(context, pageUrl, problems);
+  const page = await openPage(context, undefined, problems);
   await page.click('#action-new');
   await settled(page);
   const mode = (m) => page.check(`input[name="expiry-mode"][value="${m}"]`).then(() => settled(page));
@@ -104,11 +88,11 @@ test('switching the expiry between a date and a tenor keeps it, and either can b
   assert.equal(await page.inputValue('[data-role="expiry-tenor"]'), 'soon');
   await page.close();
   // a trade in years without a valuation date gets a date counted from today
-  const inYears = JSON.parse(exampleTradeText);
+  const inYears = exampleTrade();
   delete inYears.valuation_date;
   delete inYears.market.dividends;
   inYears.option = { type: 'put', strike: 46, expiry_years: 0.5, exercise: 'american' };
-  const linked = await openPage(context, tradeLink(pageUrl, JSON.stringify(inYears)), problems);
+  const linked = await openPage(context, linkToPage(JSON.stringify(inYears)), problems);
   await linked.check('input[name="expiry-mode"][value="date"]');
   await settled(linked);
   assert.match(await linked.inputValue('[data-role="expiry-date"]'), /^\d{4}-\d\d-\d\d$/);
@@ -117,7 +101,7 @@ test('switching the expiry between a date and a tenor keeps it, and either can b
 });
 
 test('New, then a collar with a bad lower strike fixed by the upper one: no card stays greyed', async () => {
-  const page = await openPage(context, exampleLink, problems);
+  const page = await openPage(context, linkToPage(), problems);
   await page.click('#action-new');
   await settled(page);
   await page.selectOption('#shape', 'collar');
@@ -133,7 +117,7 @@ test('New, then a collar with a bad lower strike fixed by the upper one: no card
 });
 
 test('defaults that do not surprise: New is European, shapes start from spot and keep a typed strike', async () => {
-  const page = await openPage(context, exampleLink, problems);
+  const page = await openPage(context, linkToPage(), problems);
   await page.click('#action-new');
   await settled(page);
   assert.equal(await page.inputValue('[data-role="exercise"]'), 'european');
@@ -145,7 +129,7 @@ test('defaults that do not surprise: New is European, shapes start from spot and
 
   // From the example (an American put at 46, spot 48.20): a strangle keeps the put's 46 as its
   // lower strike and takes its call strike from spot, above it.
-  const example = await openPage(context, exampleLink, problems);
+  const example = await openPage(context, linkToPage(), problems);
   await example.selectOption('#shape', 'strangle');
   await settled(example);
   assert.equal(await example.inputValue('[data-path="structure.strikes[0]"]'), '46');
@@ -167,10 +151,10 @@ test('defaults that do not surprise: New is European, shapes start from spot and
 });
 
 test('legs are numbered from 1 on screen: the solver, its answer and refusals', async () => {
-  const collar = JSON.parse(exampleTradeText);
+  const collar = exampleTrade();
   delete collar.option;
   collar.structure = { shape: 'collar', strikes: [44, 52], expiry_date: '2027-06-18' };
-  const page = await openPage(context, tradeLink(pageUrl, JSON.stringify(collar)), problems);
+  const page = await openPage(context, linkToPage(JSON.stringify(collar)), problems);
   await page.click('#solve-card summary');
   await page.selectOption('#solve-for', 'strike');
   await settled(page);
@@ -189,13 +173,13 @@ test('legs are numbered from 1 on screen: the solver, its answer and refusals', 
   assert.doesNotMatch(refusal, /\b0\b/, refusal);
   await page.close();
   // own legs: a refused strike names "Leg 2", as the row is labelled
-  const legs = JSON.parse(exampleTradeText);
+  const legs = exampleTrade();
   delete legs.option;
   legs.legs = [
     { type: 'put', strike: 46, expiry_date: '2027-06-18', quantity: 1 },
     { type: 'call', strike: 52, expiry_date: '2027-06-18', quantity: -1 },
   ];
-  const own = await openPage(context, tradeLink(pageUrl, JSON.stringify(legs)), problems);
+  const own = await openPage(context, linkToPage(JSON.stringify(legs)), problems);
   await fill(own, '[data-path="legs[1].strike"]', '-5');
   const message = await own.textContent('[data-error="legs[1].strike"]');
   assert.match(message, /^Leg 2 strike/, message);
@@ -204,7 +188,7 @@ test('legs are numbered from 1 on screen: the solver, its answer and refusals', 
 });
 
 test('the spots typed per date are labelled with their own dates', async () => {
-  const page = await openPage(context, exampleLink, problems);
+  const page = await openPage(context, linkToPage(), problems);
   await page.check('input[name="hedge-kind"][value="spots"]');
   await settled(page);
   const pairs = await page.evaluate(() => {

@@ -10,28 +10,17 @@ import { join } from 'node:path';
 import { after, before, test } from 'node:test';
 import { pathToFileURL } from 'node:url';
 
-import { exampleTradeText, launchChromium, openPage, pageUnderTest, settled, tradeLink, until } from './harness.mjs';
+import { chromiumForFile, exampleTrade, linkToPage, offlineContext, openPage, settled, until } from './harness.mjs';
 
-const { url: pageUrl } = pageUnderTest();
-const example = JSON.parse(exampleTradeText);
+const example = exampleTrade();
 const withStrike = (strike, extra = {}) =>
   JSON.stringify({ ...example, option: { ...example.option, strike }, ...extra });
 const strikeOf = (page) => page.inputValue('[data-path="option.strike"]');
 
-let browser;
-before(async () => {
-  browser = await launchChromium();
-});
-after(async () => {
-  await browser?.close();
-});
+const run = chromiumForFile(before, after);
 
 /** A fresh browser profile (its own storage), offline. */
-async function freshContext() {
-  const context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
-  await context.setOffline(true);
-  return context;
-}
+const freshContext = async () => offlineContext(await run.ready());
 
 async function typeStrike(page, value) {
   await page.fill('[data-path="option.strike"]', value);
@@ -41,11 +30,11 @@ async function typeStrike(page, value) {
 test('two tabs and a saved page copy each keep their own trade; recent work brings any back', async () => {
   const context = await freshContext();
   const problems = [];
-  const first = await openPage(context, pageUrl, problems);
+  const first = await openPage(context, undefined, problems);
   await typeStrike(first, '44');
 
   // A second tab opens a link and edits it; a third opens a saved copy of the page and edits that.
-  const second = await openPage(context, tradeLink(pageUrl, withStrike(47)), problems);
+  const second = await openPage(context, linkToPage(withStrike(47)), problems);
   await second.fill('[data-path="quote.client"]', 'Fernhill Orchards');
   await settled(second);
   const [download] = await Promise.all([second.waitForEvent('download'), second.click('#action-copy-page')]);
@@ -67,7 +56,7 @@ test('two tabs and a saved page copy each keep their own trade; recent work brin
   assert.equal(await strikeOf(third), '49');
 
   // A new tab lists all three under Recent work, newest first, each with a time and a description.
-  const fourth = await openPage(context, pageUrl, problems);
+  const fourth = await openPage(context, undefined, problems);
   const entries = await fourth.evaluate(() =>
     [...document.querySelectorAll('#recent-work option')].filter((o) => o.value).map((o) => [o.value, o.text]),
   );
@@ -85,7 +74,7 @@ test('two tabs and a saved page copy each keep their own trade; recent work brin
 
 test('a trade opened from a link stays in the address, and on reload, until it is edited', async () => {
   const context = await freshContext();
-  const page = await openPage(context, tradeLink(pageUrl, withStrike(44)));
+  const page = await openPage(context, linkToPage(withStrike(44)));
   assert.match(page.url(), /#trade=/, 'the address keeps the link');
   await page.reload();
   await settled(page);
@@ -102,7 +91,7 @@ test('a trade opened from a link stays in the address, and on reload, until it i
 test('a damaged #trade= typed into the address of the open page changes nothing and saves nothing', async () => {
   const context = await freshContext();
   const problems = [];
-  const page = await openPage(context, tradeLink(pageUrl, withStrike(44)), problems);
+  const page = await openPage(context, linkToPage(withStrike(44)), problems);
   await typeStrike(page, '45');
   const premium = await page.getAttribute('[data-result="premium"]', 'data-value');
   const damaged = ['null', '"a string"', '[1, 2]', '{"market": {"spot": -1}}', '{"market": '];
@@ -133,7 +122,7 @@ test('a damaged #trade= typed into the address of the open page changes nothing 
 
 test('after a reload with a refused field the last good figures are back, marked as such', async () => {
   const context = await freshContext();
-  const page = await openPage(context, tradeLink(pageUrl, exampleTradeText));
+  const page = await openPage(context, linkToPage());
   const premium = await page.textContent('[data-result="premium"]');
   const evens = await page.textContent('[data-result="break-even"]');
   await page.fill('[data-path="market.volatility"]', '-20');
@@ -156,7 +145,7 @@ test('after a reload with a refused field the last good figures are back, marked
 
 test('a full store: the warning names the Save file button', async () => {
   const context = await freshContext();
-  const page = await openPage(context, pageUrl);
+  const page = await openPage(context);
   await page.evaluate(() => {
     for (const store of [localStorage, sessionStorage]) {
       let chunk = 'x'.repeat(1 << 20);
@@ -184,7 +173,7 @@ test('a linked trade without a side shows the client buying', async () => {
   const context = await freshContext();
   const { side, ...noSide } = example;
   assert.equal(side, 'buy');
-  const page = await openPage(context, tradeLink(pageUrl, JSON.stringify(noSide)));
+  const page = await openPage(context, linkToPage(JSON.stringify(noSide)));
   assert.equal(await page.isChecked('input[name="side"][value="buy"]'), true);
   assert.equal(await page.isChecked('input[name="side"][value="sell"]'), false);
   await context.close();
@@ -192,7 +181,7 @@ test('a linked trade without a side shows the client buying', async () => {
 
 test('the notice line can be dismissed, and the link notice goes once the trade is edited', async () => {
   const context = await freshContext();
-  const page = await openPage(context, tradeLink(pageUrl, exampleTradeText));
+  const page = await openPage(context, linkToPage());
   const notice = page.locator('#notice');
   assert.ok(await notice.isVisible());
   assert.match(await notice.textContent(), /link/);
