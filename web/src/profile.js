@@ -14,8 +14,6 @@ import { contractKey, fillInput } from './form.js';
 import { formatNumber } from './format.js';
 import { priceText, setResult } from './render.js';
 
-const points = 101; // samples across the range (the engine's default is 41)
-
 /** The strikes of the trade as written. */
 function strikesOf(doc) {
   const key = contractKey(doc);
@@ -57,7 +55,7 @@ export function autoRange(doc, more = []) {
   return [Math.max(lo - pad, 0.01 * spot, 1.05 * dividends + 1e-9 * spot), hi + pad];
 }
 
-/** The trade as sent for its profile: the user's range, else the automatic one; finely sampled. */
+/** The trade as sent for its profile: the user's range, else the automatic one. */
 export function profileRequest(doc, more = []) {
   const own = doc.profile && typeof doc.profile === 'object' && !Array.isArray(doc.profile) ? doc.profile : {};
   const range = autoRange(doc, more);
@@ -65,7 +63,7 @@ export function profileRequest(doc, more = []) {
   let [low, high] = range;
   if (typeof own.spot_low === 'number' && own.spot_low >= high) high = own.spot_low * 1.5;
   if (typeof own.spot_high === 'number' && own.spot_high <= low) low = own.spot_high / 1.5;
-  return { ...doc, profile: { points, spot_low: low, spot_high: high, ...own } };
+  return { ...doc, profile: { spot_low: low, spot_high: high, ...own } };
 }
 
 /** Break-evens the profile found outside the spots it drew (but within reason), to draw them too. */
