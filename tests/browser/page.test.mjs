@@ -96,7 +96,9 @@ test('a bad volatility shows the engine message beside the field; the last resul
   await page.fill('[data-path="market.volatility"]', '-20');
   const error = page.locator('[data-error="market.volatility"]');
   await error.filter({ hasText: 'must be' }).waitFor({ timeout: 10000 });
-  assert.equal(await error.textContent(), 'market.volatility: must be > 0, got -0.2');
+  // the engine's line (the CLI's words) is kept; the page says it in the units on screen
+  assert.equal(await error.getAttribute('data-engine-message'), 'market.volatility: must be > 0, got -0.2');
+  assert.equal(await error.textContent(), 'Volatility must be above 0 %, got −20 %');
   assert.equal(await page.getAttribute('[data-path="market.volatility"]', 'aria-invalid'), 'true');
   assert.equal(await page.textContent('[data-result="premium"]'), before);
   assert.match(await page.getAttribute('.headline', 'class'), /stale/);

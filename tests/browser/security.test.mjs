@@ -178,7 +178,10 @@ test('text typed into client, notes and currency stays text', async () => {
     await page.fill('[data-path="quote.currency"]', payload.slice(0, 12));
     const error = page.locator('[data-error="quote.currency"]');
     await error.filter({ hasText: 'ISO 4217' }).waitFor({ timeout: 10000 });
-    assert.match(await error.textContent(), /^quote\.currency: must be an ISO 4217 currency code/);
+    assert.match(
+      await error.getAttribute('data-engine-message'),
+      /^quote\.currency: must be an ISO 4217 currency code/,
+    );
     assert.ok((await error.textContent()).includes(payload.slice(0, 12)));
     await assertInert(page, `typed ${payload}`);
   }
@@ -309,7 +312,7 @@ test('local storage full: a clear warning, and the trade on screen keeps working
   assert.ok(filled > 0);
   await page.fill('[data-path="quote.client"]', 'Larkspur Ceramics');
   await page.locator('#notice').filter({ hasText: 'local storage is full' }).waitFor({ timeout: 5000 });
-  assert.match(await page.textContent('#notice'), /Export the trade to keep it/);
+  assert.match(await page.textContent('#notice'), /Save file to keep it/);
   assert.equal(await page.getAttribute('#notice', 'data-kind'), 'warning');
   await page.fill('[data-path="option.strike"]', '45');
   await until(page, () => !('computing' in document.body.dataset));
@@ -331,9 +334,13 @@ test('bad inputs from the shared table: the message inline, the last good result
     const before = await page.textContent('[data-result="premium"]');
     const good = await page.inputValue(`[data-path="${path}"]`);
     await page.fill(`[data-path="${path}"]`, value);
-    const error = page.locator(`[data-error="${c.field}"]`);
-    await error.filter({ hasText: c.message }).waitFor({ timeout: 10000 });
-    assert.ok((await error.textContent()).startsWith(`${c.field}: `));
+    // the engine's line beside the field (data-engine-message; the text is in the units on screen)
+    const line = `${c.field}: ${c.message}`;
+    await until(page, ([f, m]) => document.querySelector(`[data-error="${f}"]`)?.dataset.engineMessage === m, [
+      c.field,
+      line,
+    ]);
+    assert.match(await page.textContent(`[data-error="${c.field}"]`), /must be above 0( %)?, got /);
     assert.equal(await page.textContent('[data-result="premium"]'), before, `${c.name}: the last result stays`);
     await page.fill(`[data-path="${path}"]`, good);
     await until(page, (p) => !document.querySelector(`[data-error="${p}"]`)?.textContent, c.field);

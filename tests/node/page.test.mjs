@@ -133,7 +133,7 @@ test('a contract turning Bermudan gets monthly exercise dates before expiry (qua
   assert.equal(defaultExerciseSchedule({ option: { expiry_date: '2027-06-18' } }, 'option'), null); // no valuation date
 });
 
-test('changing the shape keeps expiry and exercise and keeps the file order', () => {
+test('changing the shape keeps expiry and the file order; a structure starts European', () => {
   const doc = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
   changeShape(doc, 'collar');
   assert.deepEqual(Object.keys(doc), ['valuation_date', 'market', 'structure', 'quantity', 'side']);
@@ -141,7 +141,8 @@ test('changing the shape keeps expiry and exercise and keeps the file order', ()
   assert.equal(doc.structure.strikes.length, 2);
   assert.ok(doc.structure.strikes[0] < doc.structure.strikes[1]);
   assert.equal(doc.structure.expiry_date, '2027-06-18');
-  assert.equal(doc.structure.exercise, 'american');
+  assert.equal(doc.structure.exercise, undefined, 'European, the default');
+  assert.equal(doc.structure.strikes[0], 46, "the put's strike keeps its place (the collar's put)");
   changeShape(doc, 'option');
   assert.equal(doc.option.expiry_date, '2027-06-18');
   assert.equal(doc.structure, undefined);

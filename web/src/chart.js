@@ -16,11 +16,15 @@ export function ticks(lo, hi, count = 5) {
   return out;
 }
 
-/** Decimals that tell ticks `values` apart (0 for a step of 1 or more). */
+/** Decimals that write the tick step exactly (0 for 20, 1 for 2.5, 2 for 0.25), so every tick reads right. */
 function digitsFor(values) {
   if (values.length < 2) return 2;
   const step = Math.abs(values[1] - values[0]);
-  return step >= 1 ? 0 : step >= 0.1 ? 1 : step >= 0.01 ? 2 : 3;
+  for (let digits = 0; digits < 8; digits += 1) {
+    const scaled = step * 10 ** digits;
+    if (Math.abs(scaled - Math.round(scaled)) < 1e-6 * Math.max(1, scaled)) return digits;
+  }
+  return 8;
 }
 
 /**

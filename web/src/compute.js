@@ -96,7 +96,7 @@ export class EngineChannel {
     const entry = this.pending.get(message.id);
     if (!entry) return;
     this.pending.delete(message.id);
-    if (message.error) entry.reject(new EngineError(message.error.field, message.error.message));
+    if (message.error) entry.reject(new EngineError(message.error.field, message.error.message, message.error.detail));
     else if (message.fatal) {
       entry.reject(new Error(message.fatal));
       this.fail(new Error(message.fatal)); // an aborted runtime is dead: start afresh next time

@@ -21,6 +21,8 @@ import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
 import { contractKey } from './form.js';
 import { setPath } from './paths.js';
+import { methodName, priceDigits, priceText } from './render.js';
+import { screenNote } from './wording.js';
 
 /**
  * What the folded cards (Scenarios, Solve) share: opening one asks for a recompute (`changed`);
@@ -47,7 +49,12 @@ function foldedCard({
       return has() && card.open && wanted(doc) ? started(live.call(command, doc)) : null;
     },
     async update(generation, pending, price) {
-      if (!pending) return;
+      if (!pending) {
+        // folded (or nothing asked): no figures of an older trade may stay, greyed or usable
+        if (elements.output.firstChild) elements.output.replaceChildren();
+        setStale([command], false);
+        return;
+      }
       try {
         const r = await pending;
         if (generation !== state.generation) return;
@@ -56,7 +63,7 @@ function foldedCard({
       } catch (err) {
         if (generation !== state.generation || err instanceof Cancelled) return;
         setStale([command], true);
-        if (err instanceof EngineError) showError(err.field, err.message);
+        if (err instanceof EngineError) showError(err.field, err.message, err.detail);
       }
     },
   };
@@ -78,10 +85,24 @@ const timeRange = [
   ['Up to day', 'ladder.time_to_days', 'number', { placeholder: 'expiry' }],
 ];
 
+// The fields each kind of move reads (the engine refuses the others: "ladder.spot_from: unknown field").
+const rangesOf = { spot: spotRange, volatility: volRange, time: timeRange, grid: [...spotRange, ...volRange] };
+
 /** The Scenarios card (`ladder` command). */
 export function ladderPanel({ live, state, showError, setStale, changed, bindControls }) {
   const elements = cardParts('ladder', state);
   const { controls, output, has } = elements;
+
+  /** The move was changed: drop the range fields the new move does not read, then redraw. */
+  function kindChanged() {
+    const section = state.doc.ladder;
+    if (section && typeof section === 'object' && !Array.isArray(section)) {
+      const used = new Set(['kind', 'steps', ...(rangesOf[section.kind ?? 'spot'] ?? []).map(([, p]) => p.slice(7))]);
+      for (const key of Object.keys(section)) if (!used.has(key)) delete section[key];
+      if (Object.keys(section).length === 0) delete state.doc.ladder;
+    }
+    render();
+  }
 
   function render() {
     if (!has()) return;
@@ -100,9 +121,8 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
         ),
       ]),
     ];
-    if (kind === 'spot' || kind === 'grid') parts.push(fieldRow(boundFields(spotRange)));
-    if (kind === 'volatility' || kind === 'grid') parts.push(fieldRow(boundFields(volRange)));
-    if (kind === 'time') parts.push(fieldRow(boundFields(timeRange)));
+    if (kind === 'grid') parts.push(fieldRow(boundFields(spotRange)), fieldRow(boundFields(volRange)));
+    else if (rangesOf[kind]) parts.push(fieldRow(boundFields(rangesOf[kind])));
     parts.push(errorLine('ladder'));
     showControls(controls, parts, state.doc, bindControls);
   }
@@ -123,7 +143,7 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
       const g = r.grid;
       head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
       rows = g.spot_shifts.map((s, i) => [
-        `${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
+        `${priceText(state.doc, r.today.spot * (1 + s))} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
         ...g.position_pnl[i].map((x) => formatNumber(x, 0)),
       ]);
       lead = `Position P&L${ccy} against today, spot down the side, volatility across.`;
@@ -141,7 +161,7 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
     } else {
       head = ['Spot', 'Move', ...tail, 'Delta', 'Position delta'];
       rows = r.rows.map((row) => [
-        formatNumber(row.spot, 2),
+        priceText(state.doc, row.spot),
         `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`,
         ...per(row),
         ...greeks(row),
@@ -161,10 +181,16 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
     leadLine.hidden = !lead;
     setText(leadLine, lead);
     fillTable(table, head, rows);
-    setText(notesLine, `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.`);
+    setText(
+      notesLine,
+      `${r.notes.map(screenNote).join('; ')}. Lattice: ${methodName(r.lattice.method)}, ${r.lattice.steps} steps.`,
+    );
   }
 
-  return foldedCard({ elements, live, state, command: 'ladder', render, draw, setStale, showError, changed });
+  return {
+    ...foldedCard({ elements, live, state, command: 'ladder', render, draw, setStale, showError, changed }),
+    kindChanged,
+  };
 }
 
 /** Where the strike of result leg `leg` lives in the document, or null. */
@@ -215,7 +241,7 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
         'number',
         { placeholder: unknown === 'strike' ? '0 = zero cost' : '' },
       ];
-      const leg = ['Leg (0 = first)', 'solve.leg', 'number', { placeholder: '0' }];
+      const leg = ['Leg', 'solve.leg', 'index', { placeholder: '1', inputMode: 'numeric' }];
       parts.push(
         fieldRow(boundFields(unknown === 'strike' && contractKey(state.doc) !== 'option' ? [target, leg] : [target])),
       );
@@ -235,6 +261,7 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
   }
 
   function apply(r, price) {
+    if (elements.card.classList.contains('stale')) return; // a greyed result is for another trade
     const unknown = state.doc.solve?.for;
     let done = '';
     if (unknown === 'volatility') {
@@ -263,8 +290,12 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
         ? `Volatility ${formatPercent(r.solution, 3)}`
         : unknown === 'quantity'
           ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
-          : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
-    const use = button('Use it in the trade', () => apply(r, price), { className: 'small' });
+          : `Strike of leg ${r.leg + 1} ${formatNumber(r.solution, Math.max(4, priceDigits(state.doc)))}`;
+    // greyed with the card (messages.js setStale): a stale answer cannot be put into the trade
+    const use = button('Use it in the trade', () => apply(r, price), {
+      className: 'small',
+      dataset: { usesResult: '' },
+    });
     const solution = make('p', { className: 'equation' }, [
       make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text }),
     ]);
@@ -273,7 +304,7 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
       use,
       make('p', {
         className: 'hint',
-        text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; '),
+        text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes.map(screenNote)].join('; '),
       }),
     );
   }

@@ -4,25 +4,26 @@
 // One listener on <main> serves the terms form and every card: inputs say what
 // they write with data-path (or data-role for fields that move with the
 // contract), so nothing is wired input by input.
-import { fillInput, switchExpiryMode, writeInput } from './form.js';
+import { inputProblem } from './checks.js';
+import { fillInput, writeInput } from './form.js';
+import { showWarning } from './messages.js';
 
 /**
  * Listen for edits in `scope`. `terms` is the terms form (terms.js); `redraws` (a Map) takes
  * a path to what must be drawn again when it changes (a choice that changes which fields
- * a card shows); `refill` draws every input again; `syncErrors` points the error lines
- * at the fields the inputs now write; `changed` recomputes soon.
+ * a card shows); `syncErrors` points the error lines at the fields the inputs now write;
+ * `changed` recomputes soon.
  */
-export function listenForEdits({ scope, state, terms, redraws, refill, syncErrors, changed }) {
+export function listenForEdits({ scope, state, terms, redraws, syncErrors, changed }) {
   function onInput(event) {
     const input = event.target;
     if (input.name === 'expiry-mode') {
-      switchExpiryMode(state.doc, input.value);
-      refill();
-      changed();
+      if (input.checked && event.type === 'change') terms.switchExpiry(input.value); // (a radio fires input and change)
       return;
     }
     if (!input.dataset.path && !input.dataset.role) return;
     writeInput(state.doc, input);
+    showWarning(input);
     const structural =
       input.dataset.kind === 'choice' && (input.dataset.path?.endsWith('.type') || input.dataset.role === 'exercise');
     if (structural) terms.reshaped(input);
@@ -36,10 +37,11 @@ export function listenForEdits({ scope, state, terms, redraws, refill, syncError
     changed();
   }
 
-  /** Tidy a number once the cursor leaves it (25000 -> 25,000), if it reads as one. */
+  /** Tidy a number once the cursor leaves it (25000 -> 25,000), if it reads as one (else it stays as typed). */
   function onBlur(event) {
     const input = event.target;
     if (!['number', 'percent'].includes(input.dataset?.kind) || input.getAttribute('aria-invalid') === 'true') return;
+    if (inputProblem(input)) return; // refused by the page (checks.js): what was typed stays to be fixed
     fillInput(state.doc, input);
   }
 

@@ -4,12 +4,16 @@
 // tests, so all of them read the engine through the same few lines. The
 // contract of the module itself is wasm/hedgeleaf.d.ts.
 
-/** A refused input: `field` is the trade-document path, `message` starts with it. */
+/**
+ * A refused input: `field` is the trade-document path, `message` starts with it; `detail`, when
+ * the engine gives it, is {value, limit, relation} in file units (the page words it in screen units).
+ */
 export class EngineError extends Error {
-  constructor(field, message) {
+  constructor(field, message, detail) {
     super(message);
     this.name = 'EngineError';
     this.field = field;
+    if (detail) this.detail = detail;
   }
 }
 
@@ -36,7 +40,7 @@ export function loadEngine(factory) {
           if (dead) throw new Error(dead);
           const text = typeof trade === 'string' ? trade : JSON.stringify(trade);
           const envelope = JSON.parse(module.run(command, text));
-          if (!envelope.ok) throw new EngineError(envelope.error.field, envelope.error.message);
+          if (!envelope.ok) throw new EngineError(envelope.error.field, envelope.error.message, envelope.error.detail);
           return envelope.result;
         },
       });

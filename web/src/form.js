@@ -6,8 +6,9 @@
 // one value into the document, so parts of a file the form does not show
 // (hedge, simulate and solve sections, extra legs) pass through untouched.
 // Unreadable text goes to the engine as typed, and the engine names the field.
-import { addMonths, addYears, isIsoDate, yearsBetween } from './dates.js';
+import { addMonths, addYears, isIsoDate, todayIso, yearsBetween } from './dates.js';
 import { inputText, parseNumber, parsePercent, parseTenor, percentText } from './format.js';
+import { decimalText, maxNumberChars } from './numbers.js';
 import { getPath, setPath } from './paths.js';
 
 /** Shapes with their strike count and a plain description. */
@@ -29,6 +30,14 @@ export function contractKey(doc) {
   return 'option';
 }
 
+/** The longest text a text field passes on (the engine's own limits are far below; see quote.hpp). */
+export const maxTextChars = 10000;
+
+/** The most characters `input` takes: longer text is refused beside it and never reaches the document. */
+export function charLimit(input) {
+  return ['number', 'percent', 'index', 'tenor'].includes(input.dataset.kind) ? maxNumberChars : maxTextChars;
+}
+
 /** Read an input's value as the document stores it (undefined = remove the field). */
 export function readInput(input) {
   const kind = input.dataset.kind;
@@ -41,7 +50,10 @@ export function readInput(input) {
   if (kind === 'text') return text.trim() === '' ? undefined : text;
   if (kind === 'choice') return text === '' ? undefined : text;
   if (kind === 'date') return text === '' ? undefined : text;
+  // a number the page cannot read goes into the document as typed (it stays on screen and in the
+  // autosave); the page says why beside the field and prices nothing (checks.js)
   const value = kind === 'percent' ? parsePercent(text) : kind === 'tenor' ? parseTenor(text) : parseNumber(text);
+  if (kind === 'index' && typeof value === 'number') return value - 1; // leg 1 on screen is legs[0] in the file
   return value === null ? undefined : value;
 }
 
@@ -49,13 +61,20 @@ export function readInput(input) {
 export function showInput(input, value) {
   const kind = input.dataset.kind;
   if (kind === 'bool') input.checked = value === undefined ? input.dataset.default === 'true' : value === true;
-  else if (kind === 'radio') input.checked = value === input.value;
+  else if (kind === 'radio')
+    input.checked = value === undefined ? input.dataset.default === 'true' : value === input.value;
   else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
   else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
-  else if (kind === 'tenor') input.value = value === undefined ? '' : String(value);
+  else if (kind === 'index') input.value = typeof value === 'number' ? inputText(value + 1) : (value ?? '');
+  else if (kind === 'tenor') input.value = value === undefined ? '' : tenorText(value);
   else if (kind === 'choice')
     input.value = value === undefined ? (input.querySelector('option[value=""]') ? '' : input.options[0].value) : value;
   else input.value = value ?? '';
+}
+
+/** Years as a tenor field shows them: 0.5 -> "0.5" ("0,5" in de-DE); text as typed. */
+function tenorText(value) {
+  return typeof value === 'number' ? decimalText(value) : String(value ?? '');
 }
 
 /** "2027-03-15" or "0.25" -> {key, value} for a field that takes a date or years. */
@@ -104,9 +123,13 @@ export function defaultExerciseSchedule(doc, base) {
   return out.length ? { key: byDate ? 'exercise_dates' : 'exercise_years', value: out } : null;
 }
 
-/** Write one bound input into the document. Returns the path written (for its error span). */
+/**
+ * Write one bound input into the document. Returns the path written (for its error span). Text
+ * longer than the input takes is not written: the document keeps what it had, the page refuses it.
+ */
 export function writeInput(doc, input) {
   const role = input.dataset.role;
+  if (input.value.length > charLimit(input)) return errorPathOf(doc, input);
   if (!role) {
     setPath(doc, input.dataset.path, readInput(input));
     return input.dataset.path;
@@ -180,7 +203,7 @@ export function fillInput(doc, input) {
   const base = input.dataset.base ?? sharedBase(doc);
   if (!base) return;
   if (role === 'expiry-date') input.value = getPath(doc, `${base}.expiry_date`) ?? '';
-  else if (role === 'expiry-tenor') input.value = getPath(doc, `${base}.expiry_years`) ?? '';
+  else if (role === 'expiry-tenor') input.value = tenorText(getPath(doc, `${base}.expiry_years`));
   else if (role === 'exercise') input.value = getPath(doc, `${base}.exercise`) ?? 'european';
   else if (role === 'exercise-dates') {
     const list = getPath(doc, `${base}.exercise_dates`) ?? getPath(doc, `${base}.exercise_years`) ?? [];
@@ -199,27 +222,81 @@ export function contractExpiry(doc) {
   return holder.expiry_date !== undefined ? { expiry_date: holder.expiry_date } : { expiry_years: holder.expiry_years };
 }
 
-/** Switch the expiry between a date and a tenor, converting the value when it can. */
-export function switchExpiryMode(doc, mode) {
+/**
+ * Switch the expiry between a date and a tenor, converting the value. A trade without a
+ * valuation date is valued from today, so that date is filled in to count from. A value that
+ * cannot be converted (text the page cannot read) is set aside in `aside` and comes back when
+ * its way of giving the expiry is chosen again: switching never loses what was typed.
+ */
+export function switchExpiryMode(doc, mode, aside = {}) {
   const base = sharedBase(doc);
   if (!base || !doc[base]) return;
   const holder = doc[base];
-  if (mode === 'tenor' && holder.expiry_date !== undefined) {
-    const years = yearsBetween(doc.valuation_date, holder.expiry_date);
-    delete holder.expiry_date;
-    if (years !== null) holder.expiry_years = Number(years.toFixed(6)); // within seconds of the date
-  } else if (mode === 'date' && holder.expiry_years !== undefined) {
-    const day = addYears(doc.valuation_date, holder.expiry_years);
-    delete holder.expiry_years;
-    if (day) holder.expiry_date = day;
+  const [from, to] = mode === 'tenor' ? ['expiry_date', 'expiry_years'] : ['expiry_years', 'expiry_date'];
+  const value = holder[from];
+  const start = doc.valuation_date === undefined ? todayIso() : doc.valuation_date;
+  if (value !== undefined) {
+    delete holder[from];
+    const converted =
+      mode === 'tenor' ? yearsBetween(start, value) : typeof value === 'number' ? addYears(start, value) : null;
+    if (converted !== null) {
+      if (doc.valuation_date === undefined) putFirst(doc, 'valuation_date', start); // where the file has it
+      holder[to] = mode === 'tenor' ? Number(converted.toFixed(6)) : converted; // within seconds of the date
+      delete aside[to];
+      return;
+    }
+    aside[from] = value;
   }
+  if (holder[to] === undefined && aside[to] !== undefined) holder[to] = aside[to];
+  delete aside[to];
 }
 
-/** Round a strike suggestion to a tidy number near `x`. */
+/** Give `doc` the key `key` as its first, keeping the order of the others. */
+function putFirst(doc, key, value) {
+  const rest = { ...doc };
+  for (const k of Object.keys(doc)) delete doc[k];
+  Object.assign(doc, { [key]: value }, rest);
+}
+
+/** Round a strike suggestion to a tidy number near `x` (three significant figures). */
 function tidy(x) {
   if (!(x > 0)) return 100;
-  const step = 10 ** Math.floor(Math.log10(x)) / 10;
+  const step = 10 ** Math.floor(Math.log10(x)) / 100;
   return Number((Math.round(x / step) * step).toPrecision(6));
+}
+
+// Where a shape puts the strike of the option it is made from: its call's or its put's place
+// (0 = the lowest strike): the leg the client buys where it has one of that type.
+const keptPlace = {
+  'call-spread': { call: 0, put: 0 },
+  'put-spread': { call: 1, put: 1 },
+  collar: { call: 1, put: 0 },
+  'risk-reversal': { call: 1, put: 0 },
+  straddle: { call: 0, put: 0 },
+  strangle: { call: 1, put: 0 },
+  seagull: { call: 1, put: 0 },
+  'covered-call': { call: 0, put: 0 },
+};
+const strikeSpacing = { 1: [1], 2: [0.95, 1.05], 3: [0.9, 1, 1.1] }; // of spot
+
+/**
+ * Strikes for a new `shape`: a structure of as many strikes keeps its own; otherwise they are
+ * spaced around today's spot, and the strike of the option it is made from (a single option,
+ * or the first option leg) keeps its place, the other strikes moving round it if need be.
+ */
+function structureStrikes(doc, shape, from, current, spot) {
+  const count = shapes[shape][0];
+  const own = from === 'structure' ? (current.strikes || []).filter((k) => typeof k === 'number') : [];
+  if (own.length === count) return own.sort((a, b) => a - b);
+  const option =
+    from === 'option' ? current : from === 'legs' ? (doc.legs || []).find((l) => l && l.type !== 'stock') : null;
+  const spacing = strikeSpacing[count];
+  const list = spacing.map((f) => tidy(spot * f));
+  if (!(typeof option?.strike === 'number' && option.strike > 0)) return list;
+  const place = keptPlace[shape][String(option.type).endsWith('put') ? 'put' : 'call'];
+  list[place] = option.strike;
+  if (list.every((k, i) => i === 0 || k > list[i - 1])) return list;
+  return spacing.map((f, i) => (i === place ? option.strike : tidy((option.strike * f) / spacing[place])));
 }
 
 /**
@@ -238,7 +315,7 @@ export function changeShape(doc, shape, lastLegs) {
       : from === 'option'
         ? [current?.strike]
         : (doc.legs || []).filter((l) => l.strike !== undefined).map((l) => l.strike);
-  let exercise = from === 'legs' ? (doc.legs || []).find((l) => l.exercise)?.exercise : current?.exercise;
+  const exercise = from === 'legs' ? (doc.legs || []).find((l) => l.exercise)?.exercise : current?.exercise;
   let next;
   if (shape === 'option') {
     const type =
@@ -264,20 +341,9 @@ export function changeShape(doc, shape, lastLegs) {
     } else legs = [{ type: 'call', strike: tidy(spot), ...expiry, quantity: 1 }];
     next = legs;
   } else {
-    const count = shapes[shape][0];
-    let list = strikes.filter((k) => typeof k === 'number').sort((a, b) => a - b);
-    if (list.length !== count) {
-      const centre = list.length ? list[Math.floor(list.length / 2)] : spot;
-      list =
-        count === 1
-          ? [tidy(centre)]
-          : count === 2
-            ? [tidy(centre * 0.95), tidy(centre * 1.05)]
-            : [tidy(centre * 0.9), tidy(centre), tidy(centre * 1.1)];
-    }
-    if (exercise === 'bermudan') exercise = 'american';
-    next = { shape, strikes: list, ...expiry };
-    if (exercise && exercise !== 'european') next.exercise = exercise;
+    next = { shape, strikes: structureStrikes(doc, shape, from, current, spot), ...expiry };
+    // a structure starts European (as desks quote them); one turned into another keeps its style
+    if (from === 'structure' && exercise === 'american') next.exercise = exercise;
   }
   // rebuild so the contract key keeps its place after market in the file
   const target = shape === 'option' || shape === 'legs' ? shape : 'structure';

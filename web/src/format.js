@@ -1,15 +1,20 @@
 // Hedgeleaf page: numbers on screen and numbers typed in.
 //
-// Display: thousands separators (1,234,567.89), a decimal point, a real minus.
-// Input: separators , _ ' and spaces are ignored; percentages are typed in
-// percent and stored as the file's decimals (31 -> 0.31) here and only here.
+// Display: in the browser's locale (1,234,567.89 in en-US, 1.234.567,89 in de-DE), a real
+// minus. Input: read as people in that locale type them (numbers.js); percentages are typed
+// in percent and stored as the file's decimals (31 -> 0.31) here and only here.
+import { decimalText, groupedText, pageLocale, readNumber } from './numbers.js';
 
 const groups = new Map();
 function formatter(digits) {
   if (!groups.has(digits)) {
     groups.set(
       digits,
-      new Intl.NumberFormat('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits }),
+      new Intl.NumberFormat(pageLocale(), {
+        minimumFractionDigits: digits,
+        maximumFractionDigits: digits,
+        numberingSystem: 'latn',
+      }),
     );
   }
   return groups.get(digits);
@@ -19,7 +24,7 @@ function formatter(digits) {
 export function formatNumber(value, digits = 2) {
   if (value === null || value === undefined || !Number.isFinite(value)) return '–';
   const text = formatter(digits).format(value);
-  return text.replace(/^-/, '−').replace(/^−(0(\.0+)?)$/, '$1');
+  return text.replace(/^-/, '−').replace(/^−(0([.,]0+)?)$/, '$1');
 }
 
 /** Digits that keep about `significant` significant figures (at least `min`, at most 8 decimals). */
@@ -42,19 +47,13 @@ export function formatPercent(decimal, digits = 2) {
 }
 
 /**
- * Read a typed number. Returns a number, null for an empty field, or the
- * trimmed text when it is not a number (the engine then names the field).
+ * Read a typed number. Returns a number, null for an empty field, or the trimmed
+ * text when the page cannot read it (the page then says why beside the field).
  */
 export function parseNumber(text) {
-  const trimmed = String(text ?? '').trim();
-  if (trimmed === '') return null;
-  const cleaned = trimmed
-    .replace(/[\s,_'\u00a0\u202f]/g, '')
-    .replace(/^[−–]/, '-')
-    .replace(/%$/, '');
-  if (!/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(cleaned)) return trimmed;
-  const value = Number(cleaned);
-  return Number.isFinite(value) ? value : cleaned; // 1e400: the engine names the field ("too large to hold")
+  const read = readNumber(text);
+  if (read.empty) return null;
+  return read.problem ? String(text).trim() : read.value;
 }
 
 /** A percent field: "31" -> 0.31 (exact to the digits typed, no 0.31000000000000005). */
@@ -64,20 +63,17 @@ export function parsePercent(text) {
   return Number((value / 100).toPrecision(15));
 }
 
-/** Decimal -> the text a percent field shows: 0.31 -> "31". */
+/** Decimal -> the text a percent field shows: 0.31 -> "31", 0.035 -> "3.5" ("3,5" in de-DE). */
 export function percentText(decimal) {
   if (typeof decimal !== 'number') return decimal ?? '';
-  return String(Number((decimal * 100).toPrecision(12)));
+  return decimalText(Number((decimal * 100).toPrecision(12)));
 }
 
 /** A number as an input shows it: grouped, every digit kept (25000 -> "25,000"). */
 export function inputText(value) {
   if (typeof value !== 'number') return value ?? '';
   if (!Number.isFinite(value)) return String(value);
-  const [whole, fraction] = String(value).split('.');
-  if (/e/i.test(whole)) return String(value);
-  const grouped = whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',');
-  return fraction === undefined ? grouped : `${grouped}.${fraction}`;
+  return groupedText(value);
 }
 
 /**
@@ -87,10 +83,10 @@ export function inputText(value) {
 export function parseTenor(text) {
   const trimmed = String(text ?? '').trim();
   if (trimmed === '') return null;
-  const match = /^(\d+(?:\.\d+)?)\s*([dwmy]?)$/i.exec(trimmed.replace(/,/g, ''));
-  if (!match) return trimmed;
-  const amount = Number(match[1]);
-  const unit = match[2].toLowerCase();
+  const last = trimmed.slice(-1).toLowerCase();
+  const unit = 'dwmy'.includes(last) ? last : '';
+  const amount = parseNumber(unit ? trimmed.slice(0, -1) : trimmed);
+  if (typeof amount !== 'number' || amount < 0) return trimmed;
   const years = unit === 'd' ? amount / 365 : unit === 'w' ? (7 * amount) / 365 : unit === 'm' ? amount / 12 : amount;
   return Number(years.toPrecision(15));
 }

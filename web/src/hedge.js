@@ -23,7 +23,9 @@ import {
 } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
+import { priceDigits } from './render.js';
 import { drawTree } from './tree.js';
+import { screenNote } from './wording.js';
 
 const kinds = [
   ['lattice', 'Steps on a tree'],
@@ -97,7 +99,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
         changed(0);
       },
       (err) => {
-        if (err instanceof EngineError) showError(err.field, err.message);
+        if (err instanceof EngineError) showError(err.field, err.message, err.detail);
       },
     );
   }
@@ -231,6 +233,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
   }
 
   function drawSchedule(result) {
+    const digits = priceDigits(state.doc);
     const head = [
       'Date',
       'Event',
@@ -246,7 +249,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const rows = result.rows.map((row) => [
       row.date ?? `${formatNumber(row.years, 3)} y`,
       row.event,
-      formatNumber(row.spot, 2),
+      formatNumber(row.spot, digits),
       formatNumber(row.option_value, 4),
       row.delta === null ? '–' : formatNumber(row.delta, 4),
       formatNumber(row.shares_held, 4),
@@ -263,7 +266,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
       `replication error ${formatSmart(t.replication_error, 2, 4)}, shares traded ${formatNumber(t.total_shares_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
       `The desk holds ${formatNumber(desk.shares_at_start, 0)} shares at the start and ${formatNumber(desk.shares_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
-      (result.notes?.length ? ` Note: ${result.notes.join('; ')}.` : '');
+      (result.notes?.length ? ` Note: ${result.notes.map(screenNote).join('; ')}.` : '');
     const xs = (row) => row.years;
     drawChart(byId('hedge-chart'), {
       series: [
@@ -287,34 +290,42 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     request(doc) {
       return has() ? started(live.call('hedge', doc)) : null;
     },
-    /** Show the schedule `pending` (from request) brings, unless a newer edit came first. */
+    /** Show the schedule `pending` (from request) brings, unless a newer edit came first; returns it, or null. */
     async update(doc, price, generation, pending) {
-      if (!pending) return;
+      if (!pending) return null;
       const kind = pathKind(doc);
       try {
         const result = await pending;
-        if (generation !== state.generation) return;
+        if (generation !== state.generation) return null;
         lastRows = result.rows;
         drawSchedule(result);
         if (kind === 'spots') {
           // dates beside the typed spots follow the schedule
-          controls.querySelectorAll('.spot-list .field > span').forEach((span, i) => {
+          // (the label's own text, not the error line the field also holds)
+          controls.querySelectorAll('.spot-list .field > span:first-child').forEach((span, i) => {
             const row = result.rows[i + 1];
             if (row) span.textContent = row.date ?? `${formatNumber(row.years, 3)} y`;
           });
         }
         if (kind === 'lattice' && hasTree()) {
           lastTree = await live.call('tree', doc);
-          if (generation !== state.generation) return;
-          drawTree(treeHost, lastTree, movesOf(doc), setMoves);
+          if (generation !== state.generation) return null;
+          drawTree(treeHost, lastTree, movesOf(doc), setMoves, priceDigits(doc));
         }
         setStale(['hedge'], false);
+        return result;
       } catch (err) {
-        if (generation !== state.generation || err instanceof Cancelled) return;
+        if (generation !== state.generation || err instanceof Cancelled) return null;
         setStale(['hedge'], true);
-        if (err instanceof EngineError) showError(err.field, err.message);
+        if (err instanceof EngineError) showError(err.field, err.message, err.detail);
         else showError('', `The hedge could not be computed: ${err.message}`);
+        return null;
       }
+    },
+    /** Show a schedule kept from before a reload (recompute.js marks it as such). */
+    showSchedule(result) {
+      lastRows = result.rows;
+      drawSchedule(result);
     },
   };
 }

@@ -13,15 +13,17 @@ import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
 import { hedgePanel } from './hedge.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
+import { fillProfileRange } from './profile.js';
 import { recomputeCycle } from './recompute.js';
-import { fileActions, initialTrade, saveLocally } from './saving.js';
+import { describeWork, recentMenu } from './recent.js';
+import { fileActions, openingTrade, pageSeed } from './saving.js';
 import { simulatePanel } from './simulate.js';
-import { commandsFrom, localStore, pageState } from './state.js';
+import { browserStore, commandsFrom, pageState } from './state.js';
 import { termsForm } from './terms.js';
+import { workStore } from './work.js';
 
 const scope = document.querySelector('main'); // the terms form and every card
 const state = pageState(commandsFrom(byId('engine-commands').textContent));
-const storage = localStore();
 
 // Two engines on two workers: `live` prices, `desk` runs the profile, hedge schedule,
 // ladder and solve for the same edit at the same time, so the slowest of them, not
@@ -42,29 +44,40 @@ const simulate = simulatePanel({ ...shared, makeWorker, mainThreadFactory, clear
 const ladder = ladderPanel({ ...shared, live: desk });
 const solve = solvePanel({ ...shared, live: desk, notice, refill: fillForm });
 const cards = [hedge, simulate, ladder, solve];
+// Work is kept per tab and in a list of recent work (work.js).
+const work = workStore({
+  session: browserStore('sessionStorage'),
+  local: browserStore('localStorage'),
+  seed: pageSeed(),
+  describe: describeWork,
+  reloaded: performance.getEntriesByType('navigation')[0]?.type === 'reload',
+});
 const cycle = recomputeCycle({
   state,
   live,
   desk,
   cards: { hedge, ladder, solve, simulate },
-  save: () => saveLocally(state, storage),
+  save: () => files.keep(),
+  keepFigures: (figures) => work.keepFigures(figures),
+  scope,
 });
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
-const files = fileActions({ state, live, refill: fillForm, changed });
+const files = fileActions({ state, work, live, refill: fillForm, changed });
+const recent = recentMenu({ work, state, adopt: files.adopt });
 
 /** Show the whole trade document: the terms form, every card's controls and their error lines. */
 function fillForm() {
   terms.fill();
+  fillProfileRange(state.doc);
   for (const card of cards) card.render();
   bindControls();
 }
 
-function start() {
+async function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
-  const first = initialTrade(state, storage);
-  state.doc = first.doc;
-  if (first.message) notice(first.message);
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
+  const first = await openingTrade(state, work, live);
+  state.doc = first.doc;
   for (const card of cards) card.setup();
   fillForm();
   listenForEdits({
@@ -72,17 +85,21 @@ function start() {
     state,
     terms,
     redraws: new Map([
-      ['ladder.kind', ladder.render],
+      ['ladder.kind', ladder.kindChanged],
       ['hedge.path.shape', hedge.render],
       ['quote.margin_type', terms.updateMarginField],
     ]),
-    refill: fillForm,
     syncErrors: bindControls,
     changed,
   });
   byId('terms').addEventListener('submit', (event) => event.preventDefault());
   terms.wire();
   files.wire();
+  recent.wire();
+  if (first.message) notice(first.message.text, first.message.kind, null, first.message.topic);
+  if (first.keep) files.keep(); // a link's trade is kept at once, not only once edited
+  if (first.figures) cycle.showKept(first.figures);
+  if (first.fresh && !first.message) recent.offerLatest();
   byId('action-print').addEventListener('click', () => window.print());
   window.addEventListener(
     'beforeprint',

@@ -8,12 +8,10 @@
 // message goes beside its field and the last good figures stay, greyed.
 // <body data-computing> is set while the figures catch up with the inputs (the
 // page's automation contract).
-import { drawChart } from './chart.js';
 import { Cancelled, started } from './compute.js';
-import { byId } from './dom.js';
 import { EngineError } from './engine.js';
-import { formatNumber } from './format.js';
-import { clearErrors, setStale, showError, showFailure } from './messages.js';
+import { clearErrors, pageProblems, setStale, showError, showFailure, showPageProblems } from './messages.js';
+import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
 import { renderPrice, renderSheet, setResult } from './render.js';
 import { fingerprint } from './share.js';
 
@@ -21,10 +19,12 @@ const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
 
 /**
  * The cycle over `live` and `desk` (EngineChannel) for the cards {hedge, ladder, solve,
- * simulate}; `save` keeps the edited trade (autosave). Returns changed(delay) for edits,
- * recompute() to run one now, and refreshSheet(doc, price) for the print view.
+ * simulate}; `save` keeps the edited trade (autosave) and `keepFigures` the last good
+ * figures with it; `scope` holds the inputs the page checks itself before anything is
+ * priced. Returns changed(delay) for edits, recompute() to run one now, showKept(figures)
+ * to show figures kept from before a reload, and refreshSheet(doc, price) for the print view.
  */
-export function recomputeCycle({ state, live, desk, cards, save }) {
+export function recomputeCycle({ state, live, desk, cards, save, keepFigures, scope }) {
   const { hedge, ladder, solve, simulate } = cards;
   let pending = false; // an edit waits for its recompute
   let timer = null;
@@ -64,7 +64,7 @@ export function recomputeCycle({ state, live, desk, cards, save }) {
   function post(doc) {
     return {
       pricing: live.call('price', doc),
-      profiling: state.commands.includes('profile') ? started(desk.call('profile', doc)) : null,
+      profiling: state.commands.includes('profile') ? started(desk.call('profile', profileRequest(doc))) : null,
       hedging: hedge.request(doc),
       laddering: ladder.request(doc),
       solving: solve.request(doc),
@@ -77,6 +77,16 @@ export function recomputeCycle({ state, live, desk, cards, save }) {
     document.body.dataset.computing = 'true';
     const generation = (state.generation += 1);
     const current = () => generation === state.generation;
+    // what the page cannot read (or could read two ways) is refused beside its field: nothing is priced
+    const refused = pageProblems(scope);
+    if (refused.length) {
+      notBusy();
+      clearErrors();
+      showPageProblems(refused);
+      setStale(allPanels, true);
+      caughtUp();
+      return;
+    }
     const doc = structuredClone(state.doc);
     stopStaleWork();
     // Dim the premium only when the price takes a while: a class change on every edit
@@ -110,62 +120,65 @@ export function recomputeCycle({ state, live, desk, cards, save }) {
     setStale(['price'], false);
     renderCurrency(doc);
     refreshSheet(doc, price, calls.fingerprinting);
-    if (calls.profiling) await showProfile(price, calls.profiling, current);
+    const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
-    await hedge.update(doc, price, generation, calls.hedging);
+    const schedule = await hedge.update(doc, price, generation, calls.hedging);
     await ladder.update(generation, calls.laddering);
     await solve.update(generation, calls.solving, price);
     simulate.update(doc, price);
-    if (current()) caughtUp();
-  }
-
-  return { changed, recompute, refreshSheet };
-}
-
-/** Draw the profile `pending` brings, unless a newer edit came first (`current()` false). */
-async function showProfile(price, pending, current) {
-  try {
-    const profile = await pending;
     if (!current()) return;
-    drawProfile(price, profile);
-    setStale(['profile'], false);
-  } catch (err) {
-    if (!current() || err instanceof Cancelled) return;
-    setStale(['profile'], true);
-    if (err instanceof EngineError) showError(err.field, err.message);
+    caughtUp();
+    keepFigures({ doc, price, profile, hedge: schedule }); // after the page has caught up: storage can wait
   }
+
+  /**
+   * Show the last good figures kept from before a reload, greyed and marked as such, until the
+   * first recompute replaces them (or, if the trade is refused, stays on them).
+   */
+  function showKept({ doc, price, profile, hedge: schedule }) {
+    try {
+      renderPrice(doc, price);
+      renderCurrency(doc);
+      if (profile) drawProfile(doc, price, profile);
+      if (schedule) hedge.showSchedule(schedule);
+    } catch {
+      return; // figures from another version of the page: the recompute draws afresh
+    }
+    state.price = price;
+    const panels = ['price', ...(profile ? ['profile'] : []), ...(schedule ? ['hedge'] : [])];
+    setStale(panels, true);
+    for (const node of document.querySelectorAll('[data-panel]'))
+      if (panels.includes(node.dataset.panel)) node.classList.add('restored');
+  }
+
+  /**
+   * Draw the profile `pending` brings, unless a newer edit came first (`current()` false); a
+   * break-even outside the automatic range asks for the profile again over a range that has it.
+   * Returns the profile drawn, or null.
+   */
+  async function showProfile(doc, price, pending, current) {
+    try {
+      let profile = await pending;
+      const missed = missedBreakEvens(doc, profile);
+      if (missed.length && current()) profile = await desk.call('profile', profileRequest(doc, missed));
+      if (!current()) return null;
+      drawProfile(doc, price, profile);
+      setStale(['profile'], false);
+      return profile;
+    } catch (err) {
+      if (!current() || err instanceof Cancelled) return null;
+      setStale(['profile'], true);
+      if (err instanceof EngineError) showError(err.field, err.message, err.detail);
+      return null;
+    }
+  }
+
+  return { changed, recompute, showKept, refreshSheet };
 }
 
 function renderCurrency(doc) {
   const ccy = typeof doc.quote?.currency === 'string' ? doc.quote.currency : '';
   for (const node of document.querySelectorAll('.ccy')) node.textContent = ccy;
-}
-
-/** Profit at expiry and if valued today against spot, from the engine's `profile`, for the client's side. */
-function drawProfile(price, profile) {
-  const sign = price.position.side === 'sell' ? -1 : 1;
-  const rows = profile.rows.filter((r) => Number.isFinite(r.spot));
-  const series = [
-    { kind: 'payoff', label: 'Profit at expiry', points: rows.map((r) => [r.spot, sign * r.pnl_at_expiry]) },
-    { kind: 'value', label: 'Profit if valued today', points: rows.map((r) => [r.spot, sign * r.pnl_today]) },
-  ];
-  const [lo, hi] = [rows[0].spot, rows[rows.length - 1].spot];
-  const evens = profile.break_even;
-  const marks = [{ x: price.spot, label: `spot ${formatNumber(price.spot, 2)}`, kind: 'spot' }];
-  evens
-    .filter((x) => x >= lo && x <= hi)
-    .forEach((x, i) => marks.push({ x, label: `break-even ${formatNumber(x, 2)}`, kind: 'break-even', row: i + 1 }));
-  const ranges = profile.break_even_ranges.map(([a, b]) => `${formatNumber(a, 2)}–${formatNumber(b, 2)}`);
-  const text = [...evens.map((x) => formatNumber(x, 2)), ...ranges].join(' and ') || 'none';
-  setResult('break-even', text, evens[0]);
-  for (const node of document.querySelectorAll('[data-result="break-even"]'))
-    node.dataset.values = JSON.stringify(evens);
-  const labels = {
-    xLabel: `Spot (expiry ${profile.horizon_date ?? `in ${formatNumber(profile.horizon_years, 2)} y`})`,
-    yLabel: 'Profit per unit',
-  };
-  drawChart(byId('profile-chart'), { series, marks, ...labels });
-  drawChart(byId('sheet-chart'), { series, marks, ...labels, height: 220 });
 }
 
 const clock = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });

@@ -39,19 +39,62 @@ const shapeNames = {
   'covered-call': 'covered call',
 };
 
-/** "American put, strike 46" and the like, in plain words. */
+const methodNames = {
+  'leisen-reimer': 'Leisen–Reimer',
+  crr: 'Cox–Ross–Rubinstein (CRR)',
+  'jarrow-rudd': 'Jarrow–Rudd',
+  tian: 'Tian',
+};
+
+/** A lattice method as people write it: "leisen-reimer" -> "Leisen–Reimer" (the engine's word otherwise). */
+export function methodName(method) {
+  return methodNames[method] ?? method;
+}
+
+/** Decimals in a number as written: 1.085 -> 3, 0.0001 -> 4, 46 -> 0. */
+function decimalsIn(x) {
+  if (typeof x !== 'number' || !Number.isFinite(x)) return 0;
+  const text = String(x);
+  if (!/e/i.test(text)) return (text.split('.')[1] ?? '').length;
+  return (Number(x.toFixed(12)).toString().split('.')[1] ?? '').length;
+}
+
+/**
+ * Decimals for prices of this trade's underlying (spot, strikes, break-evens, scenario and hedge
+ * spots), following the market: as many as the spot, the strikes and the client price's tick are
+ * written with, and at least what the size of spot calls for (two from 10 up, as shares are
+ * quoted; four from 1 to 10, as most exchange rates are, so 1.0850 shows 1.0850; four
+ * significant figures below 1). At most 8.
+ */
+export function priceDigits(doc) {
+  const spot = doc.market?.spot;
+  const strikes = [doc.option?.strike, ...(doc.structure?.strikes ?? []), ...(doc.legs ?? []).map((l) => l?.strike)];
+  let digits = 2;
+  if (typeof spot === 'number' && spot > 0) digits = spot >= 10 ? 2 : spot >= 1 ? 4 : 3 - Math.floor(Math.log10(spot));
+  for (const x of [spot, doc.quote?.tick, ...(Array.isArray(strikes) ? strikes : [])])
+    digits = Math.max(digits, decimalsIn(x));
+  return Math.min(8, digits);
+}
+
+/** A price of the underlying with the trade's decimals (priceDigits). */
+export function priceText(doc, x) {
+  return formatNumber(x, priceDigits(doc));
+}
+
+/** "American put, strike 46.00" and the like, in plain words (prices with the trade's decimals). */
 export function describeContract(doc) {
   const key = contractKey(doc);
+  const strike = (k) => (typeof k === 'number' ? priceText(doc, k) : inputText(k));
   if (key === 'option') {
     const o = doc.option || {};
     const style =
       o.exercise && o.exercise !== 'european' ? `${o.exercise[0].toUpperCase()}${o.exercise.slice(1)} ` : 'European ';
-    return `${style}${typeNames[o.type] ?? 'option'}, strike ${inputText(o.strike)}`;
+    return `${style}${typeNames[o.type] ?? 'option'}, strike ${strike(o.strike)}`;
   }
   if (key === 'structure') {
     const s = doc.structure || {};
     const style = s.exercise === 'american' ? 'American ' : '';
-    return `${style}${shapeNames[s.shape] ?? 'structure'}, strikes ${(s.strikes || []).map(inputText).join(' / ')}`;
+    return `${style}${shapeNames[s.shape] ?? 'structure'}, strikes ${(Array.isArray(s.strikes) ? s.strikes : []).map(strike).join(' / ')}`;
   }
   const legs = Array.isArray(doc.legs) ? doc.legs : [];
   return `${legs.length}-leg structure`;
@@ -83,7 +126,7 @@ export function renderPrice(doc, r) {
 function writeFigures(doc, r, set) {
   const q = r.position.quantity;
   const sign = r.position.side === 'sell' ? -1 : 1;
-  const perUnitDigits = perUnitDigitsOf(r.premium);
+  const perUnitDigits = Math.max(perUnitDigitsOf(r.premium), priceDigits(doc));
   set('premium', formatNumber(r.premium, perUnitDigits), r.premium);
   set('premium-total', formatNumber(q * r.premium, 2), q * r.premium);
   set('premium-percent-spot', formatPercent(r.premium / r.spot, 2), r.premium / r.spot);
@@ -119,13 +162,9 @@ function writeFigures(doc, r, set) {
   set('rho-position', formatNumber(p.rho / 100, 2), p.rho);
 
   const lattice = r.lattice;
-  const method =
-    { 'leisen-reimer': 'Leisen-Reimer', crr: 'Cox-Ross-Rubinstein', 'jarrow-rudd': 'Jarrow-Rudd', tian: 'Tian' }[
-      lattice.method
-    ] ?? lattice.method;
   set(
     'lattice',
-    `${method}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`,
+    `${methodName(lattice.method)}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`,
   );
   set('closed-form-premium', formatNumber(r.closed_form.premium, perUnitDigits), r.closed_form.premium);
   set('error-estimate', `± ${formatSmart(lattice.error_estimate, 2, 4)}`, lattice.error_estimate);
@@ -139,7 +178,7 @@ function writeFigures(doc, r, set) {
   set('replication-cash-position', formatNumber(sign * q * rep.cash, 2), sign * q * rep.cash);
   set(
     'replication-check',
-    `Δ·S + B = ${formatNumber(rep.shares, 4)} × ${formatNumber(rep.spot, 2)} + ${formatNumber(rep.cash, 4)} = ${formatNumber(rep.shares * rep.spot + rep.cash, 4)} = premium ${formatNumber(r.premium, 4)}`,
+    replicationLine(rep, priceDigits(doc), r.premium, perUnitDigits),
     rep.shares * rep.spot + rep.cash,
   );
   set('engine-version', r.engine_version);
@@ -147,7 +186,36 @@ function writeFigures(doc, r, set) {
   const side = r.position.side === 'sell' ? 'Client sells' : 'Client buys';
   set('trade-summary', '');
   byId('trade-summary').textContent =
-    `${side} ${inputText(q)} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${inputText(r.spot)}`;
+    `${side} ${inputText(q)} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${priceText(doc, r.spot)}`;
+}
+
+/** `big` (an integer in units of 10^-digits) as text: 12345n, 2 -> "123.45". */
+function scaledText(big, digits) {
+  return formatNumber(Number(big) / 10 ** digits, digits);
+}
+
+/** `big` (in units of 10^-from) rounded half away from zero to units of 10^-to (to <= from). */
+function roundScaled(big, from, to) {
+  const unit = 10n ** BigInt(from - to);
+  const half = unit / 2n;
+  return big >= 0n ? (big + half) / unit : -((-big + half) / unit);
+}
+
+/**
+ * "Δ·S + B = −0.36616914 × 48.20 + 20.73149793 = 3.0821 = premium": the replication line with
+ * its sum worked out exactly from the numbers as printed (decimal arithmetic), so that it adds
+ * up as printed; shares and cash carry 8 decimals so the sum meets the premium as shown.
+ */
+function replicationLine(rep, spotDigits, premium, sumDigits) {
+  const d = 8;
+  const premiumText = formatNumber(premium, sumDigits);
+  const shares = BigInt(Math.round(rep.shares * 10 ** d));
+  const spot = BigInt(Math.round(rep.spot * 10 ** spotDigits));
+  const cash = BigInt(Math.round(rep.cash * 10 ** d));
+  const sum = roundScaled(shares * spot + cash * 10n ** BigInt(spotDigits), d + spotDigits, sumDigits);
+  const total = scaledText(sum, sumDigits);
+  const line = `Δ·S + B = ${scaledText(shares, d)} × ${scaledText(spot, spotDigits)} + ${scaledText(cash, d)} = ${total}`;
+  return total === premiumText ? `${line} = premium` : `${line} ≈ premium ${premiumText} (rounding)`;
 }
 
 /** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
@@ -173,10 +241,7 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   terms.push(['Client side', r.position.side === 'sell' ? 'sells' : 'buys']);
   terms.push(['Quantity', inputText(q)]);
   terms.push(['Expiry', expiryText(doc, r)]);
-  terms.push([
-    'Spot',
-    `${typeof m.spot === 'number' ? formatNumber(m.spot, Math.max(2, (String(m.spot).split('.')[1] ?? '').length)) : '–'}${ccy}`,
-  ]);
+  terms.push(['Spot', `${typeof m.spot === 'number' ? priceText(doc, m.spot) : '–'}${ccy}`]);
   terms.push(['Volatility', formatPercent(m.volatility, 2)]);
   terms.push(['Interest rate', formatPercent(m.rate, 2)]);
   terms.push(['Dividend yield', formatPercent(m.carry_yield ?? 0, 2)]);
@@ -213,7 +278,10 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   rows(byId('sheet-meta'), [
     ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
-    ['Engine', `Hedgeleaf ${r.engine_version}, ${r.lattice.method} lattice, ${inputText(r.lattice.steps)} steps`],
+    [
+      'Engine',
+      `Hedgeleaf ${r.engine_version}, ${methodName(r.lattice.method)} lattice, ${inputText(r.lattice.steps)} steps`,
+    ],
     [
       'Input fingerprint',
       fingerprint ? `${fingerprint} (first 12 hex digits of the SHA-256 of the saved trade file)` : '–',

@@ -1,78 +1,146 @@
 // Hedgeleaf page: the trade in and out of the page.
 //
-// Autosave after every edit; the trade the page opens with (a link, this page
-// file's autosave, the trade embedded in a saved page copy, the example); and
-// the file actions: open a file, save a file, copy a link, save the page with
-// the trade, start a new trade. The formats themselves are share.js's.
+// The trade the page opens with (a link, this tab's own trade, the trade embedded in a saved
+// page copy, the example); keeping every edit (work.js); and the file actions: open a file,
+// save a file, copy a link, save the page with the trade, start a new trade, open a link typed
+// into the address. Whatever comes from outside (a file, a link) is checked the same way, by
+// the engine, before it replaces the trade on screen. The formats themselves are share.js's.
 import { addYears, todayIso } from './dates.js';
 import { byId } from './dom.js';
 import { EngineError } from './engine.js';
 import { contractKey } from './form.js';
-import { notice } from './messages.js';
-import {
-  autosave,
-  download,
-  loadAutosave,
-  parseTradeText,
-  slug,
-  toBase64Url,
-  tradeFileText,
-  tradeFromHash,
-} from './share.js';
+import { clearNotice, notice } from './messages.js';
+import { download, parseTradeText, slug, toBase64Url, tradeFileText, tradeFromHash } from './share.js';
 
-/** Keep the trade in local storage; a failure, and its end, are said once at the top. */
-export function saveLocally(state, storage) {
-  const problem = autosave(storage, { seed: state.seed, trade: state.doc, saved: new Date().toISOString() });
-  if (problem !== state.storageWarning) {
-    state.storageWarning = problem;
-    notice(problem ?? '', problem ? 'warning' : 'info');
-  }
-}
-
-const isTrade = (doc) => doc && typeof doc === 'object' && !Array.isArray(doc);
+const isTrade = (doc) => doc !== null && typeof doc === 'object' && !Array.isArray(doc);
 const pageAddress = () => location.href.split('#')[0];
 
 /**
- * The trade the page opens with: from a #trade= link, else this page file's autosave,
- * else the trade embedded in a saved page copy, else the example. Sets `state.seed`
- * (which page file this is). Returns {doc, message?}.
+ * Check trade text from outside the page (a file's or a link's, `what` says which) as an opened
+ * file is checked: JSON, an object, and a trade the engine prices. Returns {doc} or {why}.
  */
-export function initialTrade(state, storage) {
-  const embedded = byId('embedded-trade').textContent.trim();
-  state.seed = embedded ? `copy:${embedded.length}:${embedded.slice(0, 64)}` : 'page';
+export async function checkTradeText(text, live, what) {
+  let doc;
   try {
-    const fromLink = tradeFromHash(location.hash);
-    if (fromLink !== null) {
-      const doc = parseTradeText(fromLink);
-      if (!isTrade(doc)) throw new Error('it does not hold a trade');
-      history.replaceState(null, '', pageAddress()); // from now on autosave keeps the edits
-      return { doc, message: 'Opened the trade from the link.' };
-    }
+    doc = parseTradeText(text);
   } catch (err) {
-    notice(`The trade in the link could not be read (${err.message}); showing the last trade instead.`, 'warning');
+    return { why: err instanceof SyntaxError ? `it is not a JSON trade ${what}` : err.message };
   }
-  const saved = loadAutosave(storage);
-  if (saved && saved.seed === state.seed && saved.trade && typeof saved.trade === 'object') return { doc: saved.trade };
-  if (embedded) return { doc: JSON.parse(embedded) };
-  return { doc: JSON.parse(byId('example-trade').textContent) };
+  if (!isTrade(doc)) return { why: 'it does not hold a trade (a JSON object)' };
+  try {
+    await live.call('price', text); // the text itself: the engine's checks (nesting, size) come first
+  } catch (err) {
+    return { why: err instanceof EngineError ? err.message : `the engine failed (${err.message})` };
+  }
+  return { doc };
+}
+
+/** The trade in the address (#trade=...): {text}, {why} when it is damaged, or null when there is none. */
+function linkInAddress() {
+  try {
+    const text = tradeFromHash(location.hash);
+    return text === null ? null : { text };
+  } catch (err) {
+    return { why: err.message };
+  }
+}
+
+/** Which page file this is: the page as built, or a saved copy (told apart by the trade it holds). */
+export function pageSeed() {
+  const embedded = byId('embedded-trade').textContent.trim();
+  return embedded ? `copy:${embedded.length}:${embedded.slice(0, 64)}` : 'page';
 }
 
 /**
- * The file actions on `state.doc`. `live` checks an opened file with the engine first;
- * `refill` draws every input again and `changed` recomputes after a trade is replaced.
+ * The trade the page opens with: a #trade= link in the address (checked, and kept there until
+ * the trade is edited), else this tab's own trade with its last good figures, else the trade
+ * embedded in a saved page copy, else the example. Sets `state.link`. Returns
+ * {doc, figures?, message?, keep?, fresh?} (`keep`: keep it now; `fresh`: nothing of this tab's).
  */
-export function fileActions({ state, live, refill, changed }) {
-  /** Replace the trade on screen; the one it replaces can be brought back once with Undo. */
-  function adopt(doc, message) {
+export async function openingTrade(state, work, live) {
+  const embedded = byId('embedded-trade').textContent.trim();
+  const own = work.restore();
+  const link = linkInAddress();
+  let message = null;
+  if (link) {
+    const checked = link.why ? link : await checkTradeText(link.text, live, 'link');
+    if (checked.doc) {
+      state.link = JSON.stringify(checked.doc);
+      if (own && JSON.stringify(own.trade) === state.link) return { ...ownTrade(own), message: linkMessage };
+      work.begin();
+      return { doc: checked.doc, message: linkMessage, keep: true };
+    }
+    history.replaceState(null, '', pageAddress());
+    message = {
+      text: `The trade in the link could not be read (${checked.why}); showing the last trade instead.`,
+      kind: 'warning',
+    };
+  }
+  if (own) return { ...ownTrade(own), message };
+  const doc = JSON.parse(embedded || byId('example-trade').textContent);
+  return { doc, message, fresh: true };
+}
+
+const linkMessage = { text: 'Opened the trade from the link.', kind: 'info', topic: 'link' };
+const ownTrade = (own) => ({ doc: own.trade, figures: own.figures });
+
+/**
+ * Say once what autosave could not keep, and that Save file keeps the trade; a failure's warning
+ * goes when all is kept again, the one about recent work running short of room stays until dismissed.
+ */
+function storageNotice(state, problem) {
+  const full = (why) => why.replace('storage', 'local storage');
+  let text = '';
+  if (problem?.tab && problem.recent)
+    text = `Autosave failed: ${problem.tab}, so neither this tab nor recent work keeps the trade. Use Save file to keep it.`;
+  else if (problem?.recent)
+    text = `Recent work is not kept: ${full(problem.recent)}. This tab keeps its trade until it is closed; use Save file to keep it.`;
+  else if (problem?.tab)
+    text = `This tab’s trade is not kept: ${problem.tab}. Recent work still has it; use Save file to keep it.`;
+  else if (problem?.kept)
+    text = `This browser’s local storage is full, so recent work now holds only the latest ${problem.kept} trade${problem.kept > 1 ? 's' : ''}; use Save file to keep it.`;
+  if (text === (state.storageWarning?.text ?? '')) return;
+  if (!text && state.storageWarning?.stays) return;
+  state.storageWarning = text ? { text, stays: !problem.tab && !problem.recent } : null;
+  if (text) notice(text, 'warning', null, 'storage');
+  else clearNotice('storage');
+}
+
+/**
+ * The file actions on `state.doc`. `work` keeps edits (work.js); `live` checks what is opened
+ * with the engine first; `refill` draws every input again and `changed` recomputes.
+ */
+export function fileActions({ state, work, live, refill, changed }) {
+  /** An edit (or any change of the trade): keep it; an edited link is a link no more. */
+  function keep() {
+    if (state.link !== null && JSON.stringify(state.doc) !== state.link) {
+      state.link = null;
+      history.replaceState(null, '', pageAddress());
+      clearNotice('link');
+    }
+    storageNotice(state, work.keep(state.doc));
+  }
+
+  /**
+   * Replace the trade on screen; the one it replaces can be brought back once with Undo.
+   * `from` is 'new' (a new entry in recent work), 'recent' (an entry brought back) or 'link'.
+   */
+  function adopt(doc, message, from = 'new') {
     const previous = state.doc;
     state.doc = doc;
+    state.link = from === 'link' ? JSON.stringify(doc) : null;
+    if (from === 'link') history.replaceState(null, '', `${pageAddress()}#trade=${toBase64Url(state.link)}`);
+    else if (location.hash) history.replaceState(null, '', pageAddress());
+    if (from === 'recent') work.resume(doc);
+    else work.begin();
     refill();
     changed(0);
     if (message)
       notice(
         message,
         'info',
-        previous && { label: 'Undo', run: () => adopt(previous, 'Brought back the previous trade.') },
+        previous && { label: 'Undo', run: () => adopt(previous, 'Brought back the previous trade.', 'recent') },
+        from === 'link' ? 'link' : '',
       );
   }
 
@@ -89,23 +157,17 @@ export function fileActions({ state, live, refill, changed }) {
   }
 
   async function importFile(file) {
-    const refuse = (why) => notice(`“${file.name}” was not opened: ${why} The current trade is unchanged.`, 'warning');
-    if (file.size > 1 << 20) return refuse('it is larger than 1 MB.');
-    let doc;
+    const refuse = (why) => notice(`“${file.name}” was not opened: ${why}. The current trade is unchanged.`, 'warning');
+    if (file.size > 1 << 20) return refuse('it is larger than 1 MB');
     let text;
     try {
       text = await file.text();
-      doc = parseTradeText(text);
     } catch (err) {
-      return refuse(err instanceof SyntaxError ? 'it is not a JSON trade file.' : `${err.message}.`);
+      return refuse(`it could not be read (${err.message})`);
     }
-    if (!isTrade(doc)) return refuse('it does not hold a trade (a JSON object).');
-    try {
-      await live.call('price', text); // the file's own text: the engine's checks (nesting, size) come first
-    } catch (err) {
-      return refuse(err instanceof EngineError ? `${err.message}.` : `the engine failed (${err.message}).`);
-    }
-    adopt(doc, `Opened “${file.name}”.`);
+    const checked = await checkTradeText(text, live, 'file');
+    if (checked.why) return refuse(checked.why);
+    adopt(checked.doc, `Opened “${file.name}”.`);
   }
 
   async function copyLink() {
@@ -117,7 +179,8 @@ export function fileActions({ state, live, refill, changed }) {
       );
     } catch {
       history.replaceState(null, '', link);
-      notice('The address bar now holds a link with this trade in it; copy it from there.');
+      state.link = JSON.stringify(state.doc);
+      notice('The address bar now holds a link with this trade in it; copy it from there.', 'info', null, 'link');
     }
   }
 
@@ -135,6 +198,7 @@ export function fileActions({ state, live, refill, changed }) {
     notice('Saved a copy of this page that opens with this trade.');
   }
 
+  /** A fresh trade at the money, six months, European, valued today, at the spot on screen. */
   function newTrade() {
     const today = todayIso();
     const spot = typeof state.doc.market?.spot === 'number' ? state.doc.market.spot : 100;
@@ -142,25 +206,22 @@ export function fileActions({ state, live, refill, changed }) {
       {
         valuation_date: today,
         market: { spot, volatility: 0.25, rate: 0.03 },
-        option: { type: 'call', strike: spot, expiry_date: addYears(today, 0.5), exercise: 'american' },
+        option: { type: 'call', strike: spot, expiry_date: addYears(today, 0.5) },
         quantity: 1000,
         side: 'buy',
       },
-      'Started a new trade: at the money, six months, valued today.',
+      'Started a new trade: at the money, six months, European, valued today.',
     );
   }
 
-  /** A link pasted into the address bar of the open page. */
-  function openFromHash() {
-    try {
-      const text = tradeFromHash(location.hash);
-      if (text !== null) {
-        history.replaceState(null, '', pageAddress());
-        adopt(parseTradeText(text), 'Opened the trade from the link.');
-      }
-    } catch (err) {
-      notice(`The trade in the link could not be read (${err.message}).`, 'warning');
-    }
+  /** A link typed or pasted into the address bar of the open page: checked like an opened file. */
+  async function openLinkInAddress() {
+    const link = linkInAddress();
+    if (!link || (!link.why && link.text === state.link)) return;
+    const checked = link.why ? link : await checkTradeText(link.text, live, 'link');
+    if (checked.doc) return adopt(checked.doc, 'Opened the trade from the link.', 'link');
+    history.replaceState(null, '', state.link ? `${pageAddress()}#trade=${toBase64Url(state.link)}` : pageAddress());
+    notice(`The trade in the link could not be read (${checked.why}). The current trade is unchanged.`, 'warning');
   }
 
   /** The buttons of the trade-file bar and the address bar's #trade= links. */
@@ -176,8 +237,8 @@ export function fileActions({ state, live, refill, changed }) {
     byId('action-link').addEventListener('click', copyLink);
     byId('action-copy-page').addEventListener('click', savePageCopy);
     byId('action-new').addEventListener('click', newTrade);
-    window.addEventListener('hashchange', openFromHash);
+    window.addEventListener('hashchange', openLinkInAddress);
   }
 
-  return { wire };
+  return { wire, keep, adopt };
 }

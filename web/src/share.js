@@ -68,29 +68,18 @@ export async function fingerprint(doc) {
   return [...digest.slice(0, 6)].map((b) => b.toString(16).padStart(2, '0')).join('');
 }
 
-const storageKey = 'hedgeleaf.autosave.v1';
-
-/** Save {seed, trade, extras}; returns null or the reason it failed (quota full, storage off). */
-export function autosave(storage, record) {
+/**
+ * Store `record` as JSON under `key`; returns null, or why it could not be kept (the store is
+ * full, or storage is switched off in this browser). work.js says what that means to the user.
+ */
+export function autosave(storage, record, key = 'hedgeleaf.tab.v1') {
   try {
     if (!storage) throw new Error('no storage');
-    storage.setItem(storageKey, JSON.stringify(record));
+    storage.setItem(key, JSON.stringify(record));
     return null;
   } catch (err) {
     const full = err && (err.name === 'QuotaExceededError' || err.code === 22 || err.code === 1014);
-    return full
-      ? 'Autosave failed: this browser’s local storage is full. Export the trade to keep it.'
-      : 'Autosave is unavailable in this browser. Export the trade to keep it.';
-  }
-}
-
-/** The autosaved record, or null. */
-export function loadAutosave(storage) {
-  try {
-    const text = storage?.getItem(storageKey);
-    return text ? parseTradeText(text) : null;
-  } catch {
-    return null;
+    return full ? 'this browser’s storage is full' : 'storage is switched off in this browser';
   }
 }
 
@@ -104,13 +93,15 @@ export function download(name, text, type) {
   setTimeout(() => URL.revokeObjectURL(url), 10000);
 }
 
-/** A file name from free text: "Aldane Foods put" -> "aldane-foods-put". */
+/**
+ * A file name from free text, in any script, accents kept: "Société Générale put" ->
+ * "société-générale-put". Letters, marks and digits stay; anything else becomes one "-".
+ */
 export function slug(text, fallback) {
   const s = String(text || '')
+    .normalize('NFC')
     .toLowerCase()
-    .normalize('NFKD')
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 40);
-  return s || fallback;
+    .replace(/[^\p{L}\p{M}\p{N}]+/gu, '-');
+  const cut = [...s.replace(/^-+/, '')].slice(0, 40).join('').replace(/-+$/, ''); // whole characters only
+  return cut || fallback;
 }

@@ -72,6 +72,8 @@ export function simulatePanel({
   const progress = make('progress', { max: 1, id: 'simulate-progress' });
   const status = make('p', { className: 'hint', id: 'simulate-status', role: 'status' });
   progress.hidden = true;
+  status.textContent =
+    'Not run yet. Run simulation hedges many random paths (10,000 by default) and shows the spread of the hedge’s P&L here.';
 
   function render() {
     if (!has()) return;
@@ -162,7 +164,7 @@ export function simulatePanel({
       if (err instanceof Cancelled) status.textContent = 'Cancelled. Nothing was changed.';
       else if (err instanceof EngineError) {
         status.textContent = 'Not run: see the message above.';
-        showError(err.field, err.message);
+        showError(err.field, err.message, err.detail);
       } else status.textContent = `The simulation failed: ${err.message}`;
     }
   }
@@ -217,7 +219,10 @@ export function simulatePanel({
   return {
     ...cardBasics(elements, render),
     update(doc) {
-      if (ranOn === null) return;
+      if (ranOn === null) {
+        setStale(['simulate'], false); // nothing run yet: nothing on the card is out of date
+        return;
+      }
       const stale = JSON.stringify(doc) !== ranOn;
       setStale(['simulate'], stale);
       if (stale && !card.classList.contains('running'))

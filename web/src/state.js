@@ -7,9 +7,9 @@
 
 /**
  * The page's state. `commands` are the engine's commands (a card shows only when
- * its command is there); `price` is the last good price result; `seed` tells this
- * page file's autosave from another's; `pristineHtml` is the page as delivered
- * (for "Save page with trade"); `storageWarning` is the autosave problem on show.
+ * its command is there); `price` is the last good price result; `pristineHtml` is the page as delivered
+ * (for "Save page with trade"); `storageWarning` is the autosave problem on show; `link`
+ * is the trade (JSON text) of the #trade= link in the address, until the trade is edited.
  */
 export function pageState(commands) {
   return {
@@ -17,9 +17,9 @@ export function pageState(commands) {
     price: null,
     generation: 0,
     commands,
-    seed: '',
     pristineHtml: '',
     storageWarning: null,
+    link: null,
   };
 }
 
@@ -29,10 +29,10 @@ export function commandsFrom(text) {
   return list ? list.split(',') : ['price'];
 }
 
-/** The browser's local storage, or null where it is switched off (reading it may throw). */
-export function localStore() {
+/** The browser's `localStorage` or `sessionStorage`, or null where it is switched off (reading it may throw). */
+export function browserStore(name) {
   try {
-    return globalThis.localStorage ?? null;
+    return globalThis[name] ?? null;
   } catch {
     return null;
   }

@@ -6,7 +6,7 @@
 // inputs is form.js's job; this file decides what the form shows.
 import { addYears } from './dates.js';
 import { bound, byId, field, make, removeButton, select, whenInput } from './dom.js';
-import { changeShape, contractExpiry, contractKey, fillInput, shapes } from './form.js';
+import { changeShape, contractExpiry, contractKey, fillInput, shapes, switchExpiryMode } from './form.js';
 
 const strikeNames = {
   1: ['Strike'],
@@ -37,14 +37,26 @@ const whenHint = { placeholder: 'YYYY-MM-DD or years' };
  * (draw the whole page's inputs again) and `changed` (recompute soon).
  */
 export function termsForm({ form, state, refill, changed }) {
+  let chosenMode = 'date'; // how the expiry is given when the trade has none yet
+  const aside = {}; // an expiry the page could not convert, kept for when its way is chosen again
+
   /** Draw the rows the document has and show its values in every input of the form. */
   function fill() {
     renderContract();
     renderDividends();
     for (const input of form.querySelectorAll('[data-path], [data-role]')) fillInput(state.doc, input);
-    const mode = contractExpiry(state.doc).expiry_years !== undefined ? 'tenor' : 'date';
+    const expiry = contractExpiry(state.doc);
+    const mode = expiry.expiry_years !== undefined ? 'tenor' : expiry.expiry_date !== undefined ? 'date' : chosenMode;
     for (const radio of form.querySelectorAll('input[name="expiry-mode"]')) radio.checked = radio.value === mode;
     updateVisibility();
+  }
+
+  /** The expiry is to be given as `mode` ("date" or "tenor"): convert it, never losing it. */
+  function switchExpiry(mode) {
+    chosenMode = mode;
+    switchExpiryMode(state.doc, mode, aside);
+    refill();
+    changed();
   }
 
   function updateVisibility() {
@@ -194,5 +206,5 @@ export function termsForm({ form, state, refill, changed }) {
     });
   }
 
-  return { fill, reshaped, updateMarginField, wire };
+  return { fill, reshaped, switchExpiry, updateMarginField, wire };
 }

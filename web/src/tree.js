@@ -32,10 +32,10 @@ function pathNodes(moves) {
 }
 
 /**
- * Draw `tree` (a `tree` result) into `host` with the path `moves` marked; picking a
- * node after the first calls `pick(moves)` with the path routed through it.
+ * Draw `tree` (a `tree` result) into `host` with the path `moves` marked, spots with `digits`
+ * decimals; picking a node after the first calls `pick(moves)` with the path routed through it.
  */
-export function drawTree(host, tree, moves, pick) {
+export function drawTree(host, tree, moves, pick, digits = 2) {
   const nodes = tree.nodes;
   const steps = tree.to_step;
   const onPath = pathNodes(moves);
@@ -72,14 +72,14 @@ export function drawTree(host, tree, moves, pick) {
       class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`,
       tabindex: -1,
       role: 'button',
-      'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, 2)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}`,
+      'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, digits)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}`,
     });
     g.append(makeSvg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
     g.append(
       makeSvg(
         'text',
         { x: x(node.step), y: y(node.step, node.index) - 9, 'text-anchor': 'middle' },
-        formatNumber(node.spot, 2),
+        formatNumber(node.spot, digits),
       ),
     );
     if (on)

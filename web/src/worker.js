@@ -56,7 +56,8 @@ self.onmessage = async (event) => {
   try {
     self.postMessage({ id, result: engine.run(command, trade), version: engine.version, commands: engine.commands });
   } catch (err) {
-    if (err instanceof EngineError) self.postMessage({ id, error: { field: err.field, message: err.message } });
+    if (err instanceof EngineError)
+      self.postMessage({ id, error: { field: err.field, message: err.message, detail: err.detail } });
     else self.postMessage({ id, fatal: String(err.message || err) });
   }
   scheduleWarmUp(engine, command);
