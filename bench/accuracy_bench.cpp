@@ -9,7 +9,8 @@
 //                                 node updates per price; optionally draw the chart (SVG)
 //                                 and write the rows as CSV.
 #include "bench_common.hpp"
-#include "lattice.hpp"
+#include "numerics/lattice.hpp"
+#include "numerics/lattice_price.hpp"
 #include "option_set.hpp"
 
 #include <algorithm>
@@ -27,7 +28,7 @@ using namespace hedgeleaf::bench;
 
 namespace {
 
-// The reference levels: Leisen-Reimer with the Richardson step of price_lattice_only
+// The reference levels: Leisen-Reimer with the Richardson step of price_leg
 // (first-order weights for American options) on 40,001 and 20,001 steps.
 constexpr int reference_steps = 40001;
 constexpr int check_steps = 20001;
@@ -39,8 +40,8 @@ int make_reference(const std::string& path) {
     const double start = now_seconds();
     for (std::size_t i = 0; i < set.size(); ++i) {
         sample_option& o = set[i];
-        o.reference = price_lattice_only(o.market(), o.leg(), {lattice_method::leisen_reimer, reference_steps, true}).premium;
-        o.check = price_lattice_only(o.market(), o.leg(), {lattice_method::leisen_reimer, check_steps, true}).premium;
+        o.reference = price_leg(o.market(), o.leg(), {lattice_method::leisen_reimer, reference_steps, true}).premium;
+        o.check = price_leg(o.market(), o.leg(), {lattice_method::leisen_reimer, check_steps, true}).premium;
         if (i % 50 == 49) std::fprintf(stderr, "%zu of %zu (%.0f s)\n", i + 1, set.size(), now_seconds() - start);
     }
     double sum = 0, worst = 0;
@@ -76,14 +77,14 @@ struct row {
 };
 
 // Plain rows time one induction (what a plain lattice costs); extrapolated rows
-// time price_lattice_only (fine and coarse lattice, Richardson step).
+// time price_leg (fine and coarse lattice, Richardson step).
 row measure(const std::vector<sample_option>& set, lattice_method method, bool extrapolate, int steps) {
     row r{method, extrapolate, effective_steps(method, steps), 0, 0, 0, 0, 0};
     const lattice_settings settings{method, steps, true};
     std::vector<double> premium(set.size());
     const auto price_all = [&] {
         for (std::size_t i = 0; i < set.size(); ++i) {
-            premium[i] = extrapolate ? price_lattice_only(set[i].market(), set[i].leg(), settings).premium
+            premium[i] = extrapolate ? price_leg(set[i].market(), set[i].leg(), settings).premium
                                      : induce(set[i].market(), set[i].leg(), method, steps).value;
         }
     };
@@ -98,7 +99,7 @@ row measure(const std::vector<sample_option>& set, lattice_method method, bool e
         if (spent > 2.0) break;
     }
     r.seconds = best / static_cast<double>(set.size());
-    const lattice_price probe = price_lattice_only(set[0].market(), set[0].leg(), settings);
+    const lattice_price probe = price_leg(set[0].market(), set[0].leg(), settings);
     r.nodes = extrapolate ? node_updates(probe.steps) + node_updates(probe.coarse_steps) : node_updates(r.steps);
     for (const sample_option& o : set) {
         r.swept += induce(o.market(), o.leg(), method, r.steps).node_updates;

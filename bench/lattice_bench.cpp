@@ -8,7 +8,8 @@
 // Usage: lattice_bench            all figures
 //        lattice_bench --rss N    (internal) price once at N steps, print peak RSS in KiB
 #include "bench_common.hpp"
-#include "lattice.hpp"
+#include "numerics/lattice.hpp"
+#include "numerics/lattice_price.hpp"
 #include "usual_loop.hpp"
 
 #include <sys/resource.h>
@@ -39,7 +40,7 @@ option_leg bench_put(exercise_style style) {
     option_leg leg;
     leg.type = payoff_kind::put;
     leg.strike = 100;
-    leg.expiry = 1.0;
+    leg.expiry_years = 1.0;
     leg.exercise = style;
     return leg;
 }
@@ -118,7 +119,7 @@ int rss_child(int steps) {
     if (steps > 0) {
         lattice_settings s;
         s.steps = steps;
-        const lattice_price p = price_lattice_only(bench_market(), bench_put(exercise_style::american), s);
+        const lattice_price p = price_leg(bench_market(), bench_put(exercise_style::american), s);
         if (!std::isfinite(p.premium)) return 1;
     }
     std::printf("%ld\n", peak_rss_kib());

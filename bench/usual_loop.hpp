@@ -7,7 +7,7 @@
 // time the same source, compiled the same way as the kernel.
 #pragma once
 
-#include "lattice.hpp"
+#include "numerics/lattice.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -28,8 +28,8 @@ namespace hedgeleaf::bench {
 HEDGELEAF_BENCH_CLONES inline double usual_induce(const market_data& market, const option_leg& leg, lattice_method method,
                                                   int steps, std::vector<double>& v) {
     const int n_steps = effective_steps(method, steps);
-    const lattice_step st = make_step(method, market, leg.strike, leg.expiry, n_steps);
-    const double s0 = diffusing_spot(market, leg.expiry);
+    const lattice_step st = make_step(method, market, leg.strike, leg.expiry_years, n_steps);
+    const double s0 = diffusing_spot(market, leg.expiry_years);
     const double k = leg.strike;
     const bool put = leg.type == payoff_kind::put;
     const bool american = leg.exercise == exercise_style::american;
