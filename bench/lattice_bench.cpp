@@ -1,7 +1,7 @@
 // Hedgeleaf benchmark: speed of the backward induction, natively.
 //
 // Prints node updates per second and reference cycles per node of the kernel
-// in core/lattice.cpp and of the usual loop (bench/usual_loop.hpp) at 1,000,
+// in core/numerics/lattice_kernel.cpp and of the usual loop (bench/usual_loop.hpp) at 1,000,
 // 10,000 and 50,000 steps, European and American; the latency of one dependent
 // multiply on this machine (what bounds the usual loop); and the peak resident
 // memory of one 1,000 / 10,000 / 50,000-step price, each in its own process.

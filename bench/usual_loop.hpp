@@ -1,5 +1,5 @@
 // Hedgeleaf benchmarks: the backward induction as it is usually written, the
-// baseline the optimised kernel in core/lattice.cpp is measured against.
+// baseline the optimised kernel in core/numerics/lattice_kernel.cpp is measured against.
 //
 // A running spot product (s *= up/down, one multiply per node that waits for
 // the previous one) and one max per node. Vanilla put or call, no dividends.
@@ -15,7 +15,7 @@
 
 namespace hedgeleaf::bench {
 
-// The same code-generation choice as the kernel's sweep (core/lattice.cpp):
+// The same code-generation choice as the kernel's sweep (core/numerics/lattice_kernel.cpp):
 // AVX-512, AVX2+FMA and baseline clones on x86-64 Linux with GCC.
 #if defined(__x86_64__) && defined(__linux__) && defined(__GNUC__) && !defined(__clang__)
 #define HEDGELEAF_BENCH_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))

@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""The core's layers read bottom-up (docs: the contributor guide; notes in CMakeLists.txt):
+"""The core's layers read bottom-up (DEVELOPERS.md has the picture; CMakeLists.txt the glob):
 
     contract -> numerics -> analytics -> commands -> dispatch
 

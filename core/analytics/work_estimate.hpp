@@ -10,7 +10,7 @@
 // Measured on x86-64 (a price of one American leg at 50,001 steps, estimated
 // 9.9e8): natively about 5e9 estimated node updates a second, in the WebAssembly
 // module under Node 20 about 1.3e9, so the page's budget of 4e9 is about 3 seconds
-// (docs: reliability). While the request runs, numerics/work_meter.hpp holds it to
+// (docs/reliability.md). While the request runs, numerics/work_meter.hpp holds it to
 // the same budget.
 #pragma once
 

@@ -69,7 +69,7 @@ inline constexpr std::size_t max_dividends = 200;
 inline constexpr std::size_t max_exercise_dates = 2000;
 inline constexpr std::size_t max_legs = 12;
 inline constexpr int max_lattice_steps = 50000;
-inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs: speed)
+inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs/performance.md)
 
 // ---- quote ---------------------------------------------------------------
 

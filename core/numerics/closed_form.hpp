@@ -8,7 +8,7 @@
 
 namespace hedgeleaf {
 
-/// Sensitivities per unit. Conventions (written in the README):
+/// Sensitivities per unit. Conventions (docs/replication.md, sensitivities):
 /// delta dV/dS; gamma d2V/dS2; theta dV/dt per year as calendar time passes
 /// (negative = decay); vega dV/dsigma per 1.00 of volatility; rho dV/dr per
 /// 1.00 of rate with carry_yield held fixed.

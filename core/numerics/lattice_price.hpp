@@ -16,7 +16,7 @@ struct lattice_price {
     bool extrapolated = false;
 };
 
-/// Bump sizes for the sensitivities taken by re-pricing (documented in the README).
+/// Bump sizes for the sensitivities taken by re-pricing (docs/replication.md, sensitivities).
 inline constexpr double vega_bump = 0.005;  ///< +-0.5 volatility point (halved below vol 0.01)
 inline constexpr double rho_bump = 0.0005;  ///< +-5 basis points
 

@@ -1,4 +1,4 @@
-// Tests for core/hedge: schedule dates, the hedge schedule's accounting, paths and bad input.
+// Tests for analytics/schedule and analytics/hedge: schedule dates, the hedge schedule's accounting, paths and bad input.
 #include "dispatch/dispatch.hpp"
 #include "commands/hedge.hpp"
 #include "commands/trade_reader.hpp"

@@ -1,4 +1,4 @@
-// Tests for core/ladder: spot, volatility and time ladders and the spot x vol grid.
+// Tests for analytics/ladder: spot, volatility and time ladders and the spot x vol grid.
 #include "numerics/closed_form.hpp"
 #include "dispatch/dispatch.hpp"
 #include "contract/errors.hpp"

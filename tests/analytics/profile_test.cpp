@@ -1,4 +1,4 @@
-// Tests for core/profile: payoff at expiry, break-even points and the profile command.
+// Tests for analytics/profile: payoff at expiry, break-even points and the profile command.
 #include "numerics/closed_form.hpp"
 #include "dispatch/dispatch.hpp"
 #include "contract/errors.hpp"

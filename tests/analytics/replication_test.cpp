@@ -1,4 +1,4 @@
-// Tests for core/replication: the replicating portfolio on every node and every path of small trees.
+// Tests for analytics/replication: the replicating portfolio on every node and every path of small trees.
 #include "dispatch/dispatch.hpp"
 #include "numerics/lattice.hpp"
 #include "analytics/replication.hpp"

@@ -1,4 +1,4 @@
-// Tests for core/solver: Brent's root finder and the `solve` command.
+// Tests for analytics/solve and numerics/root_finder: Brent's root finder and the `solve` command.
 #include "numerics/closed_form.hpp"
 #include "dispatch/dispatch.hpp"
 #include "contract/errors.hpp"

@@ -1,4 +1,4 @@
-// Tests for core/work: the up-front work estimate the page uses to refuse a request
+// Tests for analytics/work_estimate: the up-front work estimate the page uses to refuse a request
 // that would run for many seconds.
 #include "dispatch/dispatch.hpp"
 #include "numerics/lattice.hpp"

@@ -1,4 +1,4 @@
-// Tests for core/quote: the client price attached to the price command's result.
+// Tests for commands/quote and analytics/client_price: the client price attached to the price command's result.
 #include "dispatch/dispatch.hpp"
 #include "contract/errors.hpp"
 #include "commands/quote.hpp"

@@ -1,4 +1,4 @@
-// Tests for core/trade: reading the trade document, dates, and one message per bad field.
+// Tests for commands/trade_reader: reading the trade document, dates, and one message per bad field.
 #include "dispatch/dispatch.hpp"
 #include "commands/trade_reader.hpp"
 

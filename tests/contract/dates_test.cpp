@@ -1,4 +1,4 @@
-// Tests for core/dates: civil-day arithmetic, ACT/365F and business days.
+// Tests for contract/dates: civil-day arithmetic, ACT/365F and business days.
 #include "contract/dates.hpp"
 #include "contract/errors.hpp"
 

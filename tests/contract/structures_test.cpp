@@ -1,4 +1,4 @@
-// Tests for core/structures: every ready-made shape prices as the sum of its
+// Tests for contract/structures: every ready-made shape prices as the sum of its
 // legs, and the shapes obey the parity relations between calls, puts and shares.
 #include "numerics/closed_form.hpp"
 #include "dispatch/dispatch.hpp"

@@ -1,4 +1,4 @@
-// Tests for core/closed_form: generalised Black-Scholes-Merton against published
+// Tests for numerics/closed_form: generalised Black-Scholes-Merton against published
 // worked examples, Boost.Math's normal distribution, parity and finite differences.
 #include "numerics/closed_form.hpp"
 

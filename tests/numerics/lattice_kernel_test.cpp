@@ -1,4 +1,4 @@
-// Tests for the backward-induction kernel in core/lattice.cpp: the optimised
+// Tests for the backward-induction kernel in core/numerics/lattice_kernel.cpp: the optimised
 // sweep (precomputed powers, exercise only where it can pay, vectorised rows)
 // must give the same numbers, up to rounding, as the loop written the plain way.
 #include "numerics/closed_form.hpp"
@@ -139,7 +139,7 @@ TEST_CASE("extreme lattices stay finite and agree with the closed form", "[latti
 
 TEST_CASE("sweeping only the probable band leaves premium and Greeks unchanged", "[lattice_kernel]") {
     // Hoeffding's inequality bounds what the skipped nodes can carry by 1e-26 of
-    // the premium (core/lattice.cpp, row_band): far below rounding, so the two
+    // the premium (core/numerics/lattice_kernel.cpp, row_band): far below rounding, so the two
     // extents must agree to the last few bits while the band does far less work.
     struct scenario { payoff_kind type; exercise_style style; double spot, vol, rate, carry, expiry; };
     const scenario cases[] = {{payoff_kind::put, exercise_style::american, 100, 0.25, 0.05, 0.01, 1.0},

@@ -1,4 +1,4 @@
-// Tests for core/lattice: every method against the closed form, published binomial
+// Tests for numerics/lattice and lattice_price: every method against the closed form, published binomial
 // examples, early-exercise facts, convergence orders and the no-arbitrage check.
 #include "numerics/closed_form.hpp"
 #include "contract/errors.hpp"
