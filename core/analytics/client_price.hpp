@@ -17,7 +17,7 @@
 
 namespace hedgeleaf {
 
-enum class margin_kind { absolute, fraction_of_premium, volatility };
+enum class margin_kind { absolute, fraction_of_premium, volatility };  // the order of contract/limits.hpp's margin_types
 
 /// The `quote` section, read and checked (commands/quote.hpp).
 struct quote_terms {

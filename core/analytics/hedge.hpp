@@ -23,6 +23,7 @@
 
 namespace hedgeleaf {
 
+// In the order of their words in contract/limits.hpp (path_kinds, stress_shapes).
 enum class path_kind { scenario, spots, lattice, stress };
 enum class stress_shape { rise, fall, gap_down };
 

@@ -42,7 +42,7 @@ double scenario_work(std::size_t scenarios, std::size_t legs, int steps);
 /// Axis points are typed in decimals: -0.15 and 0, not -0.15000000000000002 and 1e-17.
 double tidy_decimal(double x);
 
-enum class ladder_kind { spot, volatility, time, grid };
+enum class ladder_kind { spot, volatility, time, grid };  // the order of contract/limits.hpp's ladder_kinds
 
 /// The `ladder` section, read and checked (commands/ladder.hpp).
 struct ladder_settings {

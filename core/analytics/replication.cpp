@@ -72,12 +72,8 @@ void leg_hedge(const trade_lattice& lat, std::size_t k, int n, int j, double v_d
 }  // namespace
 
 std::string to_string(node_event e) {
-    switch (e) {
-        case node_event::none: return "none";
-        case node_event::early_exercise: return "early";
-        case node_event::expiry: return "expiry";
-    }
-    return "none";
+    static const std::vector<std::string> words = {"none", "early", "expiry"};  // node_event's order
+    return word_of(words, e);
 }
 
 trade_lattice::trade_lattice(const trade& t, int n_steps) : source(&t), steps(n_steps) {

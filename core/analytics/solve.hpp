@@ -18,7 +18,7 @@
 
 namespace hedgeleaf {
 
-enum class solve_unknown { volatility, strike, quantity };
+enum class solve_unknown { volatility, strike, quantity };  // the order of contract/limits.hpp's solve_unknowns
 
 /// The `solve` section, read and checked (commands/solve.hpp).
 struct solve_settings {

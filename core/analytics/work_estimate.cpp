@@ -41,24 +41,25 @@ std::string steps_text(const trade& t) {
 
 std::string legs_text(int n) { return std::to_string(n) + (n == 1 ? " option leg" : " option legs"); }
 
-}  // namespace
-
-work_estimate estimate_price_work(const trade& t) {
+// A command that prices the whole trade `prices` times on its own lattice.
+work_estimate repricing_work(const trade& t, int prices, const std::string& how) {
     const leg_work legs = count_legs(t);
     work_estimate w;
-    // The price, four re-prices for vega and rho, two for a quote's volatility margin.
-    w.node_updates = 7 * legs.option_legs * price_work(t.lattice.method, t.lattice.steps);
-    w.what = legs_text(legs.option_legs) + " at " + steps_text(t) + ", priced 7 times (premium, vega, rho, quote)";
+    w.node_updates = prices * legs.option_legs * price_work(t.lattice.method, t.lattice.steps);
+    w.what = legs_text(legs.option_legs) + " at " + steps_text(t) + ", " + how;
     return w;
 }
 
+}  // namespace
+
+work_estimate estimate_price_work(const trade& t) {
+    // The price, four re-prices for vega and rho, two for a quote's volatility margin.
+    return repricing_work(t, 7, "priced 7 times (premium, vega, rho, quote)");
+}
+
 work_estimate estimate_solve_work(const trade& t) {
-    const leg_work legs = count_legs(t);
-    work_estimate w;
     // A bracketed root search: about 20 evaluations without sensitivities.
-    w.node_updates = 20 * legs.option_legs * price_work(t.lattice.method, t.lattice.steps);
-    w.what = legs_text(legs.option_legs) + " at " + steps_text(t) + ", priced about 20 times by the search";
-    return w;
+    return repricing_work(t, 20, "priced about 20 times by the search");
 }
 
 work_estimate estimate_hedge_work(const trade& t, const hedge_settings& hs) {

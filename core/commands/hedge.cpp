@@ -11,40 +11,6 @@ namespace hedgeleaf {
 
 namespace {
 
-rebalance_unit parse_unit(const std::string& s) {
-    if (s == "days") return rebalance_unit::days;
-    if (s == "months") return rebalance_unit::months;
-    return rebalance_unit::weeks;
-}
-
-std::string unit_name(rebalance_unit u) {
-    switch (u) {
-        case rebalance_unit::days: return "days";
-        case rebalance_unit::weeks: return "weeks";
-        case rebalance_unit::months: return "months";
-    }
-    return "weeks";
-}
-
-std::string kind_name(path_kind k) {
-    switch (k) {
-        case path_kind::scenario: return "scenario";
-        case path_kind::spots: return "spots";
-        case path_kind::lattice: return "lattice";
-        case path_kind::stress: return "stress";
-    }
-    return "scenario";
-}
-
-std::string shape_name(stress_shape s) {
-    switch (s) {
-        case stress_shape::rise: return "rise";
-        case stress_shape::fall: return "fall";
-        case stress_shape::gap_down: return "gap-down";
-    }
-    return "fall";
-}
-
 // A list of years or dates at `path` (dates need the trade's valuation_date).
 std::vector<double> read_times(const json& list, const std::string& path, const trade& t, bool as_dates) {
     if (!list.is_array() || list.empty()) fail(path, "must be a non-empty list, got " + describe(list));
@@ -124,8 +90,7 @@ void read_scenario(field_reader& r, const trade& t, path_spec& p) {
 }
 
 void read_stress(field_reader& r, const trade& t, path_spec& p) {
-    const std::string shape = r.choice("shape", stress_shapes);
-    p.shape = shape == "rise" ? stress_shape::rise : (shape == "fall" ? stress_shape::fall : stress_shape::gap_down);
+    p.shape = enum_of<stress_shape>(stress_shapes, r.choice("shape", stress_shapes));
     p.change = r.number_or("change", default_stress_change);
     require_positive(p.change, r.child("change"));
     if (p.shape == stress_shape::rise) require_at_most(p.change, max_rise, r.child("change"));
@@ -186,7 +151,7 @@ rebalance_spec read_rebalance(const json& node, const std::string& path, const t
         s.explicit_dates = true;
     } else {
         s.every = static_cast<int>(r.integer_or("every", 1, 1, max_rebalance_every));
-        s.unit = parse_unit(r.choice_or("unit", rebalance_units, "weeks"));
+        s.unit = enum_of<rebalance_unit>(rebalance_units, r.choice_or("unit", rebalance_units, "weeks"));
     }
     r.finish();
     return s;
@@ -275,7 +240,7 @@ json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_sc
         });
     }
     const hedge_totals& tot = s.totals;
-    json path{{"kind", kind_name(hs.path.kind)}};
+    json path{{"kind", word_of(path_kinds, hs.path.kind)}};
     switch (hs.path.kind) {
         case path_kind::scenario:
             path["drift"] = hs.path.drift;
@@ -284,7 +249,7 @@ json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_sc
             break;
         case path_kind::lattice: path["moves"] = moves_text(hs.path.moves); break;
         case path_kind::stress:
-            path["shape"] = shape_name(hs.path.shape);
+            path["shape"] = word_of(stress_shapes, hs.path.shape);
             path["change"] = hs.path.change;
             if (hs.path.shape == stress_shape::gap_down) path["gap_years"] = hs.path.gap_years;
             break;
@@ -293,7 +258,7 @@ json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_sc
     json rebalance = hs.path.kind == path_kind::lattice
                          ? json{{"lattice_steps", hs.path.moves.size()}}
                          : (hs.rebalance.explicit_dates ? json{{"dates", hs.rebalance.years.size()}}
-                                                        : json{{"every", hs.rebalance.every}, {"unit", unit_name(hs.rebalance.unit)}});
+                                                        : json{{"every", hs.rebalance.every}, {"unit", word_of(rebalance_units, hs.rebalance.unit)}});
     bool early = false;
     for (const auto& leg : t.legs) early = early || (leg.type != payoff_kind::stock && leg.exercise != exercise_style::european);
     std::string pricing = hs.path.kind == path_kind::lattice

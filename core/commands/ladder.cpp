@@ -52,13 +52,6 @@ std::vector<long> read_days(field_reader& r, double expiry_years) {
     return days;
 }
 
-ladder_kind parse_ladder_kind(const std::string& text) {
-    if (text == "volatility") return ladder_kind::volatility;
-    if (text == "time") return ladder_kind::time;
-    if (text == "grid") return ladder_kind::grid;
-    return ladder_kind::spot;
-}
-
 bool moves_spot(ladder_kind k) { return k == ladder_kind::spot || k == ladder_kind::grid; }
 bool moves_volatility(ladder_kind k) { return k == ladder_kind::volatility || k == ladder_kind::grid; }
 
@@ -114,7 +107,7 @@ ladder_settings read_ladder_settings(const json& document, const trade& t) {
     const json* section = section_of(document, "ladder");
     field_reader r(section ? *section : empty, "ladder");
     ladder_settings s;
-    s.kind = parse_ladder_kind(r.choice_or("kind", ladder_kinds, "spot"));
+    s.kind = enum_of<ladder_kind>(ladder_kinds, r.choice_or("kind", ladder_kinds, "spot"));
     s.steps = static_cast<int>(r.integer_or("steps", default_ladder_steps, 1, max_ladder_steps));
     const double vol = t.market.volatility;
     const double expiry = t.final_expiry_years();
@@ -154,7 +147,7 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
         rows.push_back(row_json(t, s.kind, r));
     }
     const scenario_value& today = result.today;
-    json out{{"kind", ladder_kinds[static_cast<std::size_t>(s.kind)]},
+    json out{{"kind", word_of(ladder_kinds, s.kind)},
              {"today", {{"value", today.value}, {"delta", today.delta}, {"gamma", today.gamma},
                         {"spot", t.market.spot}, {"volatility", t.market.volatility}}},
              {"quantity", t.quantity},

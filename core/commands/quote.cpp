@@ -48,12 +48,6 @@ std::string read_currency(field_reader& r) {
     return s;
 }
 
-margin_kind parse_margin_kind(const std::string& text) {
-    if (text == "fraction_of_premium") return margin_kind::fraction_of_premium;
-    if (text == "volatility") return margin_kind::volatility;
-    return margin_kind::absolute;
-}
-
 void check_margin(const trade& t, margin_kind kind, double margin, const std::string& margin_path) {
     require_non_negative(margin, margin_path);
     if (kind == margin_kind::absolute) require_at_most(margin, t.market.spot, margin_path);
@@ -82,7 +76,7 @@ std::optional<quote_terms> read_quote_terms(const json& document, const trade& t
     field_reader r(*section, "quote");
     quote_terms q;
     q.currency = read_currency(r);
-    q.margin_type = parse_margin_kind(r.choice_or("margin_type", margin_types, "absolute"));
+    q.margin_type = enum_of<margin_kind>(margin_types, r.choice_or("margin_type", margin_types, "absolute"));
     const std::string margin_path = r.child("margin");
     q.margin = r.number_or("margin", 0.0);
     check_margin(t, q.margin_type, q.margin, margin_path);
@@ -101,7 +95,7 @@ std::optional<quote_terms> read_quote_terms(const json& document, const trade& t
 
 json write_client_price(const quote_terms& terms, const client_price& price) {
     return json{{"currency", terms.currency.empty() ? json(nullptr) : json(terms.currency)},
-                {"margin_type", margin_types[static_cast<std::size_t>(terms.margin_type)]},
+                {"margin_type", word_of(margin_types, terms.margin_type)},
                 {"margin", terms.margin},
                 {"tick", terms.tick ? json(*terms.tick) : json(nullptr)},
                 {"mid", level_json(price.mid)},

@@ -8,12 +8,6 @@ namespace hedgeleaf {
 
 namespace {
 
-solve_unknown parse_unknown(const std::string& text) {
-    if (text == "strike") return solve_unknown::strike;
-    if (text == "quantity") return solve_unknown::quantity;
-    return solve_unknown::volatility;
-}
-
 /// Read solve.lower / solve.upper with defaults and limits.
 void read_bounds(field_reader& r, solve_settings& s, double default_lower, double default_upper, double limit_upper) {
     s.lower_path = r.child("lower");
@@ -97,7 +91,7 @@ solve_settings read_solve_settings(const json& document, const trade& t) {
         fail("solve", "is required for the solve command: {\"for\": \"volatility\" | \"strike\" | \"quantity\", ...}");
     field_reader r(*section, "solve");
     solve_settings s;
-    s.unknown = parse_unknown(r.choice("for", solve_unknowns));
+    s.unknown = enum_of<solve_unknown>(solve_unknowns, r.choice("for", solve_unknowns));
     if (s.unknown == solve_unknown::volatility) read_volatility_terms(r, t, s);
     else if (s.unknown == solve_unknown::strike) read_strike_terms(r, t, s);
     else read_quantity_terms(r, s);
@@ -107,7 +101,7 @@ solve_settings read_solve_settings(const json& document, const trade& t) {
 
 json write_solve_result(const trade&, const solve_settings& s, const solve_result& r) {
     json out = unknown_json(s, r);
-    out["solve_for"] = solve_unknowns[static_cast<std::size_t>(s.unknown)];
+    out["solve_for"] = word_of(solve_unknowns, s.unknown);
     out["residual"] = r.residual;
     out["residual_position"] = r.residual_position;
     out["iterations"] = r.root.iterations;

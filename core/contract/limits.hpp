@@ -45,6 +45,19 @@ inline const std::vector<std::string> command_sections = {"quote", "hedge", "sim
 // The structure shapes live in their table (contract/structures.hpp); the commands in
 // theirs (dispatch/command_table.hpp).
 
+/// The word for a value of an enum whose values follow `words` in order.
+template <class Enum>
+const std::string& word_of(const std::vector<std::string>& words, Enum value) {
+    return words[static_cast<std::size_t>(value)];
+}
+/// The enum value for `word`, which must be one of `words` (readers check it first).
+template <class Enum>
+Enum enum_of(const std::vector<std::string>& words, const std::string& word) {
+    std::size_t i = 0;
+    while (i + 1 < words.size() && words[i] != word) ++i;
+    return static_cast<Enum>(i);
+}
+
 // ---- the document --------------------------------------------------------
 
 inline constexpr std::size_t max_document_bytes = 1 << 20;  ///< 1 MiB of trade document text

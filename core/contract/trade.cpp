@@ -35,55 +35,11 @@ double trade::final_expiry_years() const {
     return t;
 }
 
-std::string to_string(payoff_kind k) {
-    switch (k) {
-        case payoff_kind::call: return "call";
-        case payoff_kind::put: return "put";
-        case payoff_kind::digital_call: return "digital-call";
-        case payoff_kind::digital_put: return "digital-put";
-        case payoff_kind::stock: return "stock";
-    }
-    return "call";
-}
-
-std::string to_string(exercise_style e) {
-    switch (e) {
-        case exercise_style::european: return "european";
-        case exercise_style::american: return "american";
-        case exercise_style::bermudan: return "bermudan";
-    }
-    return "european";
-}
-
-std::string to_string(lattice_method m) {
-    switch (m) {
-        case lattice_method::crr: return "crr";
-        case lattice_method::jarrow_rudd: return "jarrow-rudd";
-        case lattice_method::tian: return "tian";
-        case lattice_method::leisen_reimer: return "leisen-reimer";
-    }
-    return "leisen-reimer";
-}
-
-payoff_kind parse_payoff_kind(const std::string& text) {
-    if (text == "call") return payoff_kind::call;
-    if (text == "put") return payoff_kind::put;
-    if (text == "digital-call") return payoff_kind::digital_call;
-    if (text == "digital-put") return payoff_kind::digital_put;
-    return payoff_kind::stock;
-}
-
-exercise_style parse_exercise_style(const std::string& text) {
-    if (text == "american") return exercise_style::american;
-    if (text == "bermudan") return exercise_style::bermudan;
-    return exercise_style::european;
-}
-
-lattice_method parse_lattice_method(const std::string& text) {
-    if (text == "crr") return lattice_method::crr;
-    if (text == "jarrow-rudd") return lattice_method::jarrow_rudd;
-    if (text == "tian") return lattice_method::tian;
-    return lattice_method::leisen_reimer;
-}
+std::string to_string(payoff_kind k) { return word_of(leg_types, k); }
+std::string to_string(exercise_style e) { return word_of(exercise_styles, e); }
+std::string to_string(lattice_method m) { return word_of(lattice_methods, m); }
+payoff_kind parse_payoff_kind(const std::string& text) { return enum_of<payoff_kind>(leg_types, text); }
+exercise_style parse_exercise_style(const std::string& text) { return enum_of<exercise_style>(exercise_styles, text); }
+lattice_method parse_lattice_method(const std::string& text) { return enum_of<lattice_method>(lattice_methods, text); }
 
 }  // namespace hedgeleaf

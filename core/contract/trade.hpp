@@ -15,6 +15,7 @@
 
 namespace hedgeleaf {
 
+// In the order of their words in contract/limits.hpp (leg_types, exercise_styles, lattice_methods).
 enum class payoff_kind { call, put, digital_call, digital_put, stock };
 enum class exercise_style { european, american, bermudan };
 enum class lattice_method { crr, jarrow_rudd, tian, leisen_reimer };

@@ -3,6 +3,8 @@
 #include "commands/hedge.hpp"
 #include "commands/trade_reader.hpp"
 
+#include "test_support.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -12,14 +14,8 @@ using namespace hedgeleaf;
 
 namespace {
 
-trade trade_of(const std::string& text) { return read_trade(parse_json_text(text)); }
-
 // The hedge schedule of a trade document (its settings come from the document's hedge section).
-hedge_schedule schedule_of(const std::string& text) {
-    const json doc = parse_json_text(text);
-    const trade t = read_trade(doc);
-    return run_hedge(t, read_hedge_settings(doc, t));
-}
+hedge_schedule schedule_of(const std::string& text) { return run_steps(text, read_hedge_settings, run_hedge); }
 
 std::string message_of(const std::string& command, const std::string& text) {
     try {

@@ -5,6 +5,8 @@
 #include "commands/hedge.hpp"
 #include "commands/trade_reader.hpp"
 
+#include "test_support.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <algorithm>
@@ -14,8 +16,6 @@
 using namespace hedgeleaf;
 
 namespace {
-
-trade trade_of(const std::string& text) { return read_trade(parse_json_text(text)); }
 
 // |a - b| within 1e-12 of the size of the terms that produced them.
 bool close(double a, double b, double scale) { return std::fabs(a - b) <= 1e-12 * std::max({scale, std::fabs(a), std::fabs(b)}); }

@@ -4,6 +4,8 @@
 #include "commands/simulate.hpp"
 #include "commands/trade_reader.hpp"
 
+#include "test_support.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -13,14 +15,8 @@ using namespace hedgeleaf;
 
 namespace {
 
-trade trade_of(const std::string& text) { return read_trade(parse_json_text(text)); }
-
 // The simulation of a trade document (its settings come from the document's simulate section).
-simulation simulate(const std::string& text) {
-    const json doc = parse_json_text(text);
-    const trade t = read_trade(doc);
-    return run_simulation(t, read_simulate_settings(doc, t));
-}
+simulation simulate(const std::string& text) { return run_steps(text, read_simulate_settings, run_simulation); }
 
 // A one-year (364-day) at-the-money option on a fictional share, so weekly and
 // four-weekly hedges have exactly 52 and 13 equal intervals.

@@ -10,16 +10,17 @@
 using namespace hedgeleaf;
 
 namespace {
-json twelve_legs(int steps) {
-    json legs = json::array();
-    for (int i = 0; i < 12; ++i)
-        legs.push_back({{"type", "put"}, {"strike", 80 + 5 * i}, {"expiry_years", 2}, {"exercise", "american"}, {"quantity", 1}});
-    return json{{"market", {{"spot", 100}, {"volatility", 0.3}, {"rate", 0.05}}}, {"legs", legs}, {"lattice", {{"steps", steps}}}};
+// One American put on a fictional share (the first leg of analytics/work_estimate_test's trade).
+json american_put(int steps) {
+    const json put = {{"type", "put"}, {"strike", 80}, {"expiry_years", 2}, {"exercise", "american"}, {"quantity", 1}};
+    return json{{"market", {{"spot", 100}, {"volatility", 0.3}, {"rate", 0.05}}},
+                {"legs", json::array({put})},
+                {"lattice", {{"steps", steps}}}};
 }
 }  // namespace
 
 TEST_CASE("the run itself is held to the budget, whatever the estimate said", "[work]") {
-    const trade t = read_trade(twelve_legs(2001));
+    const trade t = read_trade(american_put(2001));
     const option_leg& leg = t.legs[0];
     const double one = induce(t.market, leg, lattice_method::leisen_reimer, 2001).node_updates;
     SECTION("an induction past the budget stops the request") {
@@ -35,8 +36,7 @@ TEST_CASE("the run itself is held to the budget, whatever the estimate said", "[
         CHECK_NOTHROW(price_leg(t.market, leg, t.lattice, bumped_greeks::on));
     }
     SECTION("a command without an up-front estimate names its own field") {
-        json doc = twelve_legs(101);
-        doc["legs"] = json::array({doc["legs"][0]});
+        json doc = american_put(101);
         doc["ladder"] = {{"kind", "grid"}};
         CHECK(estimate_work("ladder", doc).node_updates == 0);
         const json envelope = json::parse(run_command_text("ladder", doc.dump(), 1e5));
