@@ -69,6 +69,31 @@ void leg_hedge(const trade_lattice& lat, std::size_t k, int n, int j, double v_d
     cash = (x_up - shares * (s_up + inc)) * lat.step.discount;
 }
 
+// Per leg and level of a path: the value on the path, its event, and the two children of the path node.
+struct level_info {
+    double here = 0, down = 0, up = 0;
+    node_event event = node_event::none;
+};
+
+// Every leg's level_info along the path through nodes `index` (index[n] = up moves by step n).
+std::vector<std::vector<level_info>> path_levels(const trade_lattice& lat, const std::vector<int>& index) {
+    const std::size_t legs = lat.source->legs.size();
+    const int length = static_cast<int>(index.size()) - 1;
+    std::vector<std::vector<level_info>> info(legs, std::vector<level_info>(lat.steps + 1));
+    for (std::size_t k = 0; k < legs; ++k)
+        induce_leg(lat, k, [&](int n, const std::vector<double>& row, const std::vector<char>& ev) {
+            if (n <= length) {
+                info[k][n].here = row[index[n]];
+                info[k][n].event = static_cast<node_event>(ev[index[n]]);
+            }
+            if (n >= 1 && n - 1 <= length) {
+                info[k][n - 1].down = row[index[n - 1]];
+                info[k][n - 1].up = row[index[n - 1] + 1];
+            }
+        });
+    return info;
+}
+
 }  // namespace
 
 std::string to_string(node_event e) {
@@ -171,23 +196,7 @@ std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int
     std::vector<int> index(static_cast<std::size_t>(length) + 1, 0);
     for (int n = 0; n < length; ++n) index[n + 1] = index[n] + moves[n];
 
-    // Per leg and level: the value on the path, its event, and the two children of the path node.
-    struct level_info {
-        double here = 0, down = 0, up = 0;
-        node_event event = node_event::none;
-    };
-    std::vector<std::vector<level_info>> info(t.legs.size(), std::vector<level_info>(lat.steps + 1));
-    for (std::size_t k = 0; k < t.legs.size(); ++k)
-        induce_leg(lat, k, [&](int n, const std::vector<double>& row, const std::vector<char>& ev) {
-            if (n <= length) {
-                info[k][n].here = row[index[n]];
-                info[k][n].event = static_cast<node_event>(ev[index[n]]);
-            }
-            if (n >= 1 && n - 1 <= length) {
-                info[k][n - 1].down = row[index[n - 1]];
-                info[k][n - 1].up = row[index[n - 1] + 1];
-            }
-        });
+    const auto info = path_levels(lat, index);
 
     std::vector<char> alive(t.legs.size(), 1);
     std::vector<path_step> out;

@@ -405,6 +405,15 @@ void desk_figures(const simulate_settings& st, const std::vector<std::vector<dou
     }
 }
 
+// One European call or put: the hedging error's sd has a closed-form reference.
+void derman_kamal_reference(const trade& t, const simulate_settings& st, simulation& out) {
+    out.derman_kamal = t.legs.size() == 1 && (t.legs[0].type == payoff_kind::call || t.legs[0].type == payoff_kind::put) &&
+                       t.legs[0].exercise == exercise_style::european;
+    if (!out.derman_kamal) return;
+    const double vega = std::fabs(t.legs[0].quantity) * closed_form(t.market, t.legs[0]).sensitivities.vega;
+    for (auto& s : out.frequencies) s.derman_kamal_sd = derman_kamal_sd(vega, st.volatility, s.rebalancings);
+}
+
 }  // namespace
 
 double derman_kamal_sd(double vega, double sigma, int n) {
@@ -447,6 +456,7 @@ simulation run_simulation(const trade& t, const simulate_settings& st) {
     const histogram_range range = summarise(st, cost_sum, out);
     fill_histograms(st, range, out);
     desk_figures(st, desk_pnl, out);
+    derman_kamal_reference(t, st, out);
     return out;
 }
 

@@ -11,6 +11,7 @@
 #include "analytics/schedule.hpp"
 
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -40,6 +41,7 @@ struct pnl_summary {
     double min = 0, max = 0;
     double mean_costs = 0;
     double desk_mean = 0, desk_sd = 0;  ///< per position, the desk's view (costs on |quantity|)
+    std::optional<double> derman_kamal_sd;  ///< the reference sd for one European call or put (derman_kamal_sd)
     std::vector<long> counts;   ///< histogram over the shared bin edges
     long below = 0, above = 0;  ///< outside the edges
     std::vector<double> pnl;    ///< per path (kept for tests; not printed)
@@ -50,6 +52,7 @@ struct simulation {
     std::vector<double> edges;  ///< bins + 1 edges shared by every frequency
     double premium = 0;
     bool closed_form_delta = false;  ///< every leg European: closed-form delta
+    bool derman_kamal = false;       ///< one European call or put: frequencies carry derman_kamal_sd
     int lattice_steps = 0;           ///< delta table steps for other legs
     std::vector<std::string> notes;
 };

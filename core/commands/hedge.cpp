@@ -214,66 +214,80 @@ std::string moves_text(const std::vector<int>& moves) {
     return s;
 }
 
-json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_schedule& s) {
-    const double q = t.signed_quantity();
-    json rows = json::array();
-    for (const auto& r : s.rows) {
-        rows.push_back(json{
-            {"date", r.day ? json(to_iso(*r.day)) : json(nullptr)},
-            {"years", r.years},
-            {"event", r.event},
-            {"spot", r.spot},
-            {"option_value", r.option_value},
-            {"paid", r.paid},
-            {"delta", r.delta ? json(*r.delta) : json(nullptr)},
-            {"shares_held", r.shares_held},
-            {"shares_traded", r.shares_traded},
-            {"trade_cash_flow", r.trade_cash_flow},
-            {"cash", r.cash},
-            {"interest", r.interest},
-            {"dividends", r.dividends},
-            {"cost", r.cost},
-            {"portfolio_value", r.portfolio_value},
-            {"tracking_error", r.tracking_error},
-            {"desk_shares", r.desk_shares},
-            {"desk_pnl", r.desk_pnl},
-        });
-    }
-    const hedge_totals& tot = s.totals;
-    json path{{"kind", word_of(path_kinds, hs.path.kind)}};
-    switch (hs.path.kind) {
+namespace {
+
+json row_json(const hedge_row& r) {
+    return json{
+        {"date", r.day ? json(to_iso(*r.day)) : json(nullptr)},
+        {"years", r.years},
+        {"event", r.event},
+        {"spot", r.spot},
+        {"option_value", r.option_value},
+        {"paid", r.paid},
+        {"delta", r.delta ? json(*r.delta) : json(nullptr)},
+        {"shares_held", r.shares_held},
+        {"shares_traded", r.shares_traded},
+        {"trade_cash_flow", r.trade_cash_flow},
+        {"cash", r.cash},
+        {"interest", r.interest},
+        {"dividends", r.dividends},
+        {"cost", r.cost},
+        {"portfolio_value", r.portfolio_value},
+        {"tracking_error", r.tracking_error},
+        {"desk_shares", r.desk_shares},
+        {"desk_pnl", r.desk_pnl},
+    };
+}
+
+json path_json(const path_spec& p) {
+    json path{{"kind", word_of(path_kinds, p.kind)}};
+    switch (p.kind) {
         case path_kind::scenario:
-            path["drift"] = hs.path.drift;
-            path["volatility"] = hs.path.volatility;
-            path["seed"] = hs.path.seed;
+            path["drift"] = p.drift;
+            path["volatility"] = p.volatility;
+            path["seed"] = p.seed;
             break;
-        case path_kind::lattice: path["moves"] = moves_text(hs.path.moves); break;
+        case path_kind::lattice: path["moves"] = moves_text(p.moves); break;
         case path_kind::stress:
-            path["shape"] = word_of(stress_shapes, hs.path.shape);
-            path["change"] = hs.path.change;
-            if (hs.path.shape == stress_shape::gap_down) path["gap_years"] = hs.path.gap_years;
+            path["shape"] = word_of(stress_shapes, p.shape);
+            path["change"] = p.change;
+            if (p.shape == stress_shape::gap_down) path["gap_years"] = p.gap_years;
             break;
         case path_kind::spots: break;
     }
-    json rebalance = hs.path.kind == path_kind::lattice
-                         ? json{{"lattice_steps", hs.path.moves.size()}}
-                         : (hs.rebalance.explicit_dates ? json{{"dates", hs.rebalance.years.size()}}
-                                                        : json{{"every", hs.rebalance.every}, {"unit", word_of(rebalance_units, hs.rebalance.unit)}});
+    return path;
+}
+
+json rebalance_json(const hedge_settings& hs) {
+    if (hs.path.kind == path_kind::lattice) return json{{"lattice_steps", hs.path.moves.size()}};
+    if (hs.rebalance.explicit_dates) return json{{"dates", hs.rebalance.years.size()}};
+    return json{{"every", hs.rebalance.every}, {"unit", word_of(rebalance_units, hs.rebalance.unit)}};
+}
+
+std::string pricing_text(const trade& t, const hedge_settings& hs) {
     bool early = false;
     for (const auto& leg : t.legs) early = early || (leg.type != payoff_kind::stock && leg.exercise != exercise_style::european);
-    std::string pricing = hs.path.kind == path_kind::lattice
-                              ? "values and deltas from the " + to_string(t.lattice.method) + " lattice of the path (" +
-                                    std::to_string(hs.path.moves.size()) + " steps): replication is exact on it"
-                              : std::string("re-priced on each date with the remaining time: closed form for European legs") +
-                                    (early ? ", " + to_string(t.lattice.method) + " lattice with " +
-                                                 std::to_string(hs.lattice_steps) + " steps for American/Bermudan legs"
-                                           : "");
-    // Column order for CSV and tables; the table leaves out the columns that say nothing for this trade.
-    const json columns = {"date", "years", "event", "spot", "option_value", "paid", "delta", "shares_held",
-                          "shares_traded", "trade_cash_flow", "cash", "interest", "dividends", "cost",
-                          "portfolio_value", "tracking_error", "desk_shares", "desk_pnl"};
+    if (hs.path.kind == path_kind::lattice)
+        return "values and deltas from the " + to_string(t.lattice.method) + " lattice of the path (" +
+               std::to_string(hs.path.moves.size()) + " steps): replication is exact on it";
+    return std::string("re-priced on each date with the remaining time: closed form for European legs") +
+           (early ? ", " + to_string(t.lattice.method) + " lattice with " + std::to_string(hs.lattice_steps) +
+                        " steps for American/Bermudan legs"
+                  : "");
+}
+
+// Column order for CSV and tables.
+const json& hedge_columns() {
+    static const json columns = {"date", "years", "event", "spot", "option_value", "paid", "delta", "shares_held",
+                                 "shares_traded", "trade_cash_flow", "cash", "interest", "dividends", "cost",
+                                 "portfolio_value", "tracking_error", "desk_shares", "desk_pnl"};
+    return columns;
+}
+
+// The table leaves out the columns that say nothing for this trade.
+json table_columns_of(const trade& t, const hedge_totals& tot) {
     json table_columns = json::array();
-    for (const auto& c : columns) {
+    for (const auto& c : hedge_columns()) {
         const std::string name = c.get<std::string>();
         if (name == "years" || name == "trade_cash_flow" || name == "desk_shares") continue;
         if ((name == "paid" && tot.paid == 0) || (name == "dividends" && tot.dividends == 0) || (name == "cost" && tot.costs == 0))
@@ -281,35 +295,50 @@ json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_sc
         if (name == "date" && !t.valuation_date) table_columns.push_back("years");
         else table_columns.push_back(name);
     }
+    return table_columns;
+}
+
+json totals_json(const hedge_totals& tot) {
+    return {{"premium", tot.premium},
+            {"payoff", tot.payoff},
+            {"portfolio_value", tot.portfolio_value},
+            {"replication_error", tot.replication_error},
+            {"total_shares_traded", tot.shares_traded},
+            {"total_costs", tot.costs},
+            {"total_interest", tot.interest},
+            {"total_dividends", tot.dividends},
+            {"total_paid_before_end", tot.paid},
+            {"end_event", tot.end_event}};
+}
+
+json desk_json(const trade& t, const hedge_schedule& s) {
+    const double q = t.signed_quantity();
+    return {{"signed_quantity", q},
+            {"premium", q * s.totals.premium},
+            {"shares_at_start", s.rows.front().desk_shares},
+            {"shares_at_end", s.rows.back().desk_shares},
+            {"pnl", s.rows.back().desk_pnl},
+            {"view", "The desk is the client's counterparty: it receives signed_quantity x premium, owes the client the "
+                     "trade, and holds signed_quantity x the per-unit shares and cash (a desk that sold a put holds "
+                     "the put's negative delta: it is short shares). desk_pnl counts costs on |quantity|."}};
+}
+
+}  // namespace
+
+json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_schedule& s) {
+    json rows = json::array();
+    for (const auto& r : s.rows) rows.push_back(row_json(r));
     return json{
         {"rows", rows},
-        {"columns", columns},
-        {"table_columns", table_columns},
-        {"totals",
-         {{"premium", tot.premium},
-          {"payoff", tot.payoff},
-          {"portfolio_value", tot.portfolio_value},
-          {"replication_error", tot.replication_error},
-          {"total_shares_traded", tot.shares_traded},
-          {"total_costs", tot.costs},
-          {"total_interest", tot.interest},
-          {"total_dividends", tot.dividends},
-          {"total_paid_before_end", tot.paid},
-          {"end_event", tot.end_event}}},
-        {"desk",
-         {{"signed_quantity", q},
-          {"premium", q * tot.premium},
-          {"shares_at_start", s.rows.front().desk_shares},
-          {"shares_at_end", s.rows.back().desk_shares},
-          {"pnl", s.rows.back().desk_pnl},
-          {"view", "The desk is the client's counterparty: it receives signed_quantity x premium, owes the client the "
-                   "trade, and holds signed_quantity x the per-unit shares and cash (a desk that sold a put holds "
-                   "the put's negative delta: it is short shares). desk_pnl counts costs on |quantity|."}}},
-        {"path", path},
-        {"rebalance", rebalance},
+        {"columns", hedge_columns()},
+        {"table_columns", table_columns_of(t, s.totals)},
+        {"totals", totals_json(s.totals)},
+        {"desk", desk_json(t, s)},
+        {"path", path_json(hs.path)},
+        {"rebalance", rebalance_json(hs)},
         {"cost_bp", hs.cost_bp},
         {"rate", t.market.rate},
-        {"pricing", pricing},
+        {"pricing", pricing_text(t, hs)},
         {"view",
          "Per-unit columns replicate one unit of the trade held long: start with the premium in cash, hold delta "
          "shares, keep the rest in cash at the trade's rate. shares_traded + = buy; trade_cash_flow = -shares_traded "

@@ -3,9 +3,6 @@
 
 #include "commands/hedge.hpp"
 #include "commands/trade_reader.hpp"
-#include "numerics/closed_form.hpp"
-
-#include <cmath>
 
 namespace hedgeleaf {
 
@@ -48,55 +45,66 @@ simulate_settings read_simulate_settings(const json& document, const trade& t) {
     return s;
 }
 
+namespace {
+
+std::string frequency_label(const rebalance_spec& f) {
+    if (f.explicit_dates) return "listed dates";
+    return "every " + std::to_string(f.every) + " " +
+           (f.unit == rebalance_unit::days ? "business days" : f.unit == rebalance_unit::weeks ? "weeks" : "months");
+}
+
+json summary_row(const pnl_summary& s) {
+    return json{
+        {"frequency", frequency_label(s.frequency)},
+        {"rebalancings", s.rebalancings},
+        {"mean", s.mean},
+        {"sd", s.sd},
+        {"sd_standard_error", s.sd_standard_error},
+        {"p01", s.p01},
+        {"p05", s.p05},
+        {"p50", s.p50},
+        {"p95", s.p95},
+        {"p99", s.p99},
+        {"min", s.min},
+        {"max", s.max},
+        {"mean_costs", s.mean_costs},
+        {"derman_kamal_sd", s.derman_kamal_sd ? json(*s.derman_kamal_sd) : json(nullptr)},
+        {"desk_mean", s.desk_mean},
+        {"desk_sd", s.desk_sd},
+    };
+}
+
+std::string delta_method(const trade& t, const simulation& sim) {
+    if (sim.closed_form_delta) return "closed-form delta (every leg is European)";
+    return "closed-form delta for European legs; for the others, delta and exercise from a " +
+           to_string(t.lattice.method) + " lattice of " + std::to_string(sim.lattice_steps) +
+           " steps, interpolated between its nodes at the nearest step";
+}
+
+json table_columns_of(const simulate_settings& st, const simulation& sim) {
+    json table_columns = {"frequency", "rebalancings", "mean", "sd", "p01", "p05", "p50", "p95", "p99"};
+    if (sim.derman_kamal) table_columns.push_back("derman_kamal_sd");
+    if (st.cost_bp > 0) table_columns.push_back("mean_costs");
+    table_columns.push_back("desk_mean");
+    return table_columns;
+}
+
+}  // namespace
+
 json write_simulate_result(const trade& t, const simulate_settings& st, const simulation& sim) {
-    const double q = t.signed_quantity();
-    bool single_vanilla = t.legs.size() == 1 && (t.legs[0].type == payoff_kind::call || t.legs[0].type == payoff_kind::put) &&
-                          t.legs[0].exercise == exercise_style::european;
-    const double vega = single_vanilla ? std::fabs(t.legs[0].quantity) * closed_form(t.market, t.legs[0]).sensitivities.vega : 0.0;
     json rows = json::array();
     json series = json::array();
     for (const auto& s : sim.frequencies) {
-        const std::string label = s.frequency.explicit_dates ? "listed dates"
-                                                             : "every " + std::to_string(s.frequency.every) + " " +
-                                                                   (s.frequency.unit == rebalance_unit::days    ? "business days"
-                                                                    : s.frequency.unit == rebalance_unit::weeks ? "weeks"
-                                                                                                                : "months");
-        rows.push_back(json{
-            {"frequency", label},
-            {"rebalancings", s.rebalancings},
-            {"mean", s.mean},
-            {"sd", s.sd},
-            {"sd_standard_error", s.sd_standard_error},
-            {"p01", s.p01},
-            {"p05", s.p05},
-            {"p50", s.p50},
-            {"p95", s.p95},
-            {"p99", s.p99},
-            {"min", s.min},
-            {"max", s.max},
-            {"mean_costs", s.mean_costs},
-            {"derman_kamal_sd", single_vanilla ? json(derman_kamal_sd(vega, st.volatility, s.rebalancings)) : json(nullptr)},
-            {"desk_mean", s.desk_mean},
-            {"desk_sd", s.desk_sd},
-        });
-        series.push_back(json{{"frequency", label}, {"counts", s.counts}, {"below", s.below}, {"above", s.above}});
+        rows.push_back(summary_row(s));
+        series.push_back(json{{"frequency", frequency_label(s.frequency)}, {"counts", s.counts}, {"below", s.below},
+                              {"above", s.above}});
     }
-    std::string delta_method =
-        sim.closed_form_delta
-            ? "closed-form delta (every leg is European)"
-            : "closed-form delta for European legs; for the others, delta and exercise from a " +
-                  to_string(t.lattice.method) + " lattice of " + std::to_string(sim.lattice_steps) +
-                  " steps, interpolated between its nodes at the nearest step";
     const json columns = {"frequency", "rebalancings", "mean", "sd", "sd_standard_error", "p01", "p05", "p50", "p95", "p99",
                           "min", "max", "mean_costs", "derman_kamal_sd", "desk_mean", "desk_sd"};
-    json table_columns = {"frequency", "rebalancings", "mean", "sd", "p01", "p05", "p50", "p95", "p99"};
-    if (single_vanilla) table_columns.push_back("derman_kamal_sd");
-    if (st.cost_bp > 0) table_columns.push_back("mean_costs");
-    table_columns.push_back("desk_mean");
     return json{
         {"rows", rows},
         {"columns", columns},
-        {"table_columns", table_columns},
+        {"table_columns", table_columns_of(st, sim)},
         {"histogram", {{"edges", sim.edges}, {"series", series}}},
         {"premium", sim.premium},
         {"paths", st.paths},
@@ -105,15 +113,15 @@ json write_simulate_result(const trade& t, const simulate_settings& st, const si
         {"volatility", st.volatility},
         {"pricing_volatility", t.market.volatility},
         {"cost_bp", st.cost_bp},
-        {"delta_method", delta_method},
-        {"signed_quantity", q},
+        {"delta_method", delta_method(t, sim)},
+        {"signed_quantity", t.signed_quantity()},
         {"view",
          "P&L per unit = hedge portfolio - payoff at the end (or the exercise value), for one unit of the trade held "
          "long and replicated from its premium; the desk that sold the client the trade and hedged it keeps this. "
          "desk_mean and desk_sd are per position (signed_quantity; costs count on |quantity|, so with costs the desk "
          "mean of a client sale is not the per-unit mean times the quantity)."},
         {"derman_kamal",
-         single_vanilla
+         sim.derman_kamal
              ? json("derman_kamal_sd = sqrt(pi/4) x vega x volatility / sqrt(N), N = hedge intervals: the sd of the hedging "
                     "error of an at-the-money European option (Derman and Kamal (1999), from memory); close to sd when "
                     "realised and pricing volatility agree, the option is near the money and there are no costs")

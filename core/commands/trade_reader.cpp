@@ -62,8 +62,65 @@ lattice_settings read_lattice(const json* node) {
     return s;
 }
 
-// Declared here, defined below: a structure's legs are read through read_option_leg.
-std::vector<option_leg> read_structure(const json& node, const years_reader& times);
+// The expiry, in years (or a date after the valuation date), at most max_expiry_years.
+double read_expiry(field_reader& r, const years_reader& times) {
+    const bool by_date = r.has("expiry_date");
+    const double years = times.read_years(r, "expiry_years", "expiry_date");
+    const std::string expiry_path = r.child(by_date ? "expiry_date" : "expiry_years");
+    if (!(years > 0)) {
+        if (by_date) fail(expiry_path, "must be after valuation_date " + to_iso(*times.valuation_date));
+        fail(expiry_path, "must be > 0, got " + format_number(years));
+    }
+    require_at_most(years, max_expiry_years, expiry_path);
+    return years;
+}
+
+// A digital's payout (default 1); no other option takes one.
+double read_payout(field_reader& r, const option_leg& leg) {
+    const bool digital = leg.type == payoff_kind::digital_call || leg.type == payoff_kind::digital_put;
+    if (digital && leg.exercise != exercise_style::european)
+        fail(r.child("exercise"), "digital options are European only, got \"" + to_string(leg.exercise) + "\"");
+    if (digital) {
+        const double payout = r.number_or("payout", 1.0);
+        require_positive(payout, r.child("payout"));
+        require_at_most(payout, max_price_level, r.child("payout"));
+        return payout;
+    }
+    if (r.has("payout")) {
+        r.raw("payout");
+        fail(r.child("payout"), "only digital-call and digital-put pay a fixed payout");
+    }
+    return leg.payout;
+}
+
+// A Bermudan option's exercise dates (or years), sorted; no other option takes them.
+std::vector<double> read_exercise_schedule(field_reader& r, const years_reader& times, const option_leg& leg) {
+    const json* dates = r.raw_optional("exercise_dates");
+    const json* years = r.raw_optional("exercise_years");
+    std::vector<double> out;
+    if (leg.exercise != exercise_style::bermudan) {
+        if (dates) fail(r.child("exercise_dates"), "only a bermudan option takes exercise dates");
+        if (years) fail(r.child("exercise_years"), "only a bermudan option takes exercise dates");
+        return out;
+    }
+    if (dates && years) fail(r.child("exercise_dates"), "give either exercise_dates or exercise_years, not both");
+    if (!dates && !years) fail(r.child("exercise_dates"), "a bermudan option needs a list of exercise dates");
+    const std::string path = r.child(dates ? "exercise_dates" : "exercise_years");
+    const json& list = dates ? *dates : *years;
+    if (!list.is_array() || list.empty())
+        fail(path, "must be a non-empty list, got " + describe(list));
+    if (list.size() > max_exercise_dates)
+        fail(path, "has " + std::to_string(list.size()) + " dates, at most " + std::to_string(max_exercise_dates));
+    for (std::size_t i = 0; i < list.size(); ++i) {
+        const std::string p = index_path(path, i);
+        const double t = dates ? times.years_from_date(list[i], p) : as_number(list[i], p);
+        if (!(t > 0)) fail(p, "must be after the valuation date");
+        if (t > leg.expiry_years + 1e-12) fail(p, "must be on or before the expiry");
+        out.push_back(t);
+    }
+    std::sort(out.begin(), out.end());
+    return out;
+}
 
 }  // namespace
 
@@ -102,52 +159,10 @@ option_leg read_option_leg(field_reader& r, const years_reader& times, bool sign
     leg.strike = r.number("strike");
     require_positive(leg.strike, r.child("strike"));
     require_at_most(leg.strike, max_price_level, r.child("strike"));
-
-    const bool by_date = r.has("expiry_date");
-    leg.expiry_years = times.read_years(r, "expiry_years", "expiry_date");
-    const std::string expiry_path = r.child(by_date ? "expiry_date" : "expiry_years");
-    if (!(leg.expiry_years > 0)) {
-        if (by_date) fail(expiry_path, "must be after valuation_date " + to_iso(*times.valuation_date));
-        fail(expiry_path, "must be > 0, got " + format_number(leg.expiry_years));
-    }
-    require_at_most(leg.expiry_years, max_expiry_years, expiry_path);
-
+    leg.expiry_years = read_expiry(r, times);
     leg.exercise = parse_exercise_style(r.choice_or("exercise", exercise_styles, "european"));
-    const bool digital = leg.type == payoff_kind::digital_call || leg.type == payoff_kind::digital_put;
-    if (digital && leg.exercise != exercise_style::european)
-        fail(r.child("exercise"), "digital options are European only, got \"" + to_string(leg.exercise) + "\"");
-    if (digital) {
-        leg.payout = r.number_or("payout", 1.0);
-        require_positive(leg.payout, r.child("payout"));
-        require_at_most(leg.payout, max_price_level, r.child("payout"));
-    } else if (r.has("payout")) {
-        r.raw("payout");
-        fail(r.child("payout"), "only digital-call and digital-put pay a fixed payout");
-    }
-
-    const json* dates = r.raw_optional("exercise_dates");
-    const json* years = r.raw_optional("exercise_years");
-    if (leg.exercise != exercise_style::bermudan) {
-        if (dates) fail(r.child("exercise_dates"), "only a bermudan option takes exercise dates");
-        if (years) fail(r.child("exercise_years"), "only a bermudan option takes exercise dates");
-    } else {
-        if (dates && years) fail(r.child("exercise_dates"), "give either exercise_dates or exercise_years, not both");
-        if (!dates && !years) fail(r.child("exercise_dates"), "a bermudan option needs a list of exercise dates");
-        const std::string path = r.child(dates ? "exercise_dates" : "exercise_years");
-        const json& list = dates ? *dates : *years;
-        if (!list.is_array() || list.empty())
-            fail(path, "must be a non-empty list, got " + describe(list));
-        if (list.size() > max_exercise_dates)
-            fail(path, "has " + std::to_string(list.size()) + " dates, at most " + std::to_string(max_exercise_dates));
-        for (std::size_t i = 0; i < list.size(); ++i) {
-            const std::string p = index_path(path, i);
-            const double t = dates ? times.years_from_date(list[i], p) : as_number(list[i], p);
-            if (!(t > 0)) fail(p, "must be after the valuation date");
-            if (t > leg.expiry_years + 1e-12) fail(p, "must be on or before the expiry");
-            leg.exercise_years.push_back(t);
-        }
-        std::sort(leg.exercise_years.begin(), leg.exercise_years.end());
-    }
+    leg.payout = read_payout(r, leg);
+    leg.exercise_years = read_exercise_schedule(r, times, leg);
     r.finish();
     return leg;
 }
@@ -193,17 +208,8 @@ std::vector<option_leg> read_structure(const json& node, const years_reader& tim
     return structure_legs(name, strikes, terms);
 }
 
-}  // namespace
-
-trade read_trade(const json& document) {
-    field_reader r(document, "");
-    trade t;
-    years_reader times;
-    if (auto text = r.text_optional("valuation_date", max_date_chars))
-        times.valuation_date = parse_iso_date(*text, "valuation_date");
-    t.valuation_date = times.valuation_date;
-    t.market = read_market(r.raw("market"), times);
-
+// Exactly one of `option`, `legs` (signed legs) or `structure` (a ready-made shape).
+void read_contract(field_reader& r, const years_reader& times, trade& t) {
     const bool has_option = r.has("option");
     const bool has_legs = r.has("legs");
     const bool has_structure = r.has("structure");
@@ -231,6 +237,20 @@ trade read_trade(const json& document) {
         t.legs = read_structure(r.raw("structure"), times);
         t.is_structure = true;
     }
+}
+
+}  // namespace
+
+trade read_trade(const json& document) {
+    field_reader r(document, "");
+    trade t;
+    years_reader times;
+    if (auto text = r.text_optional("valuation_date", max_date_chars))
+        times.valuation_date = parse_iso_date(*text, "valuation_date");
+    t.valuation_date = times.valuation_date;
+    t.market = read_market(r.raw("market"), times);
+
+    read_contract(r, times, t);
     if (t.final_expiry_years() <= 0) fail("legs", "need at least one option leg (stock alone has no expiry)");
 
     t.quantity = r.number_or("quantity", 1.0);
