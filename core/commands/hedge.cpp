@@ -1,6 +1,7 @@
 // Hedgeleaf commands: the `hedge` section and the hedge command's result (see hedge.hpp).
 #include "commands/hedge.hpp"
 
+#include "commands/table_columns.hpp"
 #include "commands/trade_reader.hpp"
 
 #include <algorithm>
@@ -216,27 +217,31 @@ std::string moves_text(const std::vector<int>& moves) {
 
 namespace {
 
-json row_json(const hedge_row& r) {
-    return json{
-        {"date", r.day ? json(to_iso(*r.day)) : json(nullptr)},
-        {"years", r.years},
-        {"event", r.event},
-        {"spot", r.spot},
-        {"option_value", r.option_value},
-        {"paid", r.paid},
-        {"delta", r.delta ? json(*r.delta) : json(nullptr)},
-        {"shares_held", r.shares_held},
-        {"shares_traded", r.shares_traded},
-        {"trade_cash_flow", r.trade_cash_flow},
-        {"cash", r.cash},
-        {"interest", r.interest},
-        {"dividends", r.dividends},
-        {"cost", r.cost},
-        {"portfolio_value", r.portfolio_value},
-        {"tracking_error", r.tracking_error},
-        {"desk_shares", r.desk_shares},
-        {"desk_pnl", r.desk_pnl},
+using hedge_column = column<hedge_row>;
+
+// The schedule's columns, in the order --table and --csv follow.
+const std::vector<hedge_column>& hedge_columns() {
+    static const std::vector<hedge_column> columns = {
+        {"date", [](const hedge_row& r) { return r.day ? json(to_iso(*r.day)) : json(nullptr); }},
+        {"years", &hedge_row::years},
+        {"event", [](const hedge_row& r) { return json(r.event); }},
+        {"spot", &hedge_row::spot},
+        {"option_value", &hedge_row::option_value},
+        {"paid", &hedge_row::paid},
+        {"delta", [](const hedge_row& r) { return r.delta ? json(*r.delta) : json(nullptr); }},
+        {"shares_held", &hedge_row::shares_held},
+        {"shares_traded", &hedge_row::shares_traded},
+        {"trade_cash_flow", &hedge_row::trade_cash_flow},
+        {"cash", &hedge_row::cash},
+        {"interest", &hedge_row::interest},
+        {"dividends", &hedge_row::dividends},
+        {"cost", &hedge_row::cost},
+        {"portfolio_value", &hedge_row::portfolio_value},
+        {"tracking_error", &hedge_row::tracking_error},
+        {"desk_shares", &hedge_row::desk_shares},
+        {"desk_pnl", &hedge_row::desk_pnl},
     };
+    return columns;
 }
 
 json path_json(const path_spec& p) {
@@ -276,19 +281,11 @@ std::string pricing_text(const trade& t, const hedge_settings& hs) {
                   : "");
 }
 
-// Column order for CSV and tables.
-const json& hedge_columns() {
-    static const json columns = {"date", "years", "event", "spot", "option_value", "paid", "delta", "shares_held",
-                                 "shares_traded", "trade_cash_flow", "cash", "interest", "dividends", "cost",
-                                 "portfolio_value", "tracking_error", "desk_shares", "desk_pnl"};
-    return columns;
-}
-
 // The table leaves out the columns that say nothing for this trade.
 json table_columns_of(const trade& t, const hedge_totals& tot) {
     json table_columns = json::array();
     for (const auto& c : hedge_columns()) {
-        const std::string name = c.get<std::string>();
+        const std::string name = c.name;
         if (name == "years" || name == "trade_cash_flow" || name == "desk_shares") continue;
         if ((name == "paid" && tot.paid == 0) || (name == "dividends" && tot.dividends == 0) || (name == "cost" && tot.costs == 0))
             continue;
@@ -326,11 +323,9 @@ json desk_json(const trade& t, const hedge_schedule& s) {
 }  // namespace
 
 json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_schedule& s) {
-    json rows = json::array();
-    for (const auto& r : s.rows) rows.push_back(row_json(r));
     return json{
-        {"rows", rows},
-        {"columns", hedge_columns()},
+        {"rows", row_objects(hedge_columns(), s.rows)},
+        {"columns", column_names(hedge_columns())},
         {"table_columns", table_columns_of(t, s.totals)},
         {"totals", totals_json(s.totals)},
         {"desk", desk_json(t, s)},

@@ -2,6 +2,7 @@
 #include "commands/profile.hpp"
 
 #include "commands/cautions.hpp"
+#include "commands/table_columns.hpp"
 #include "commands/trade_reader.hpp"
 #include "numerics/lattice.hpp"
 
@@ -10,7 +11,26 @@
 namespace hedgeleaf {
 
 namespace {
+
 json optional_number(const std::optional<double>& x) { return x ? json(*x) : json(nullptr); }
+
+using profile_column = column<profile_row>;
+
+// One row per spot, in the order --table and --csv follow.
+const std::vector<profile_column>& profile_columns() {
+    static const std::vector<profile_column> columns = {
+        {"spot", &profile_row::spot},
+        {"spot_change", &profile_row::spot_change},
+        {"payoff", &profile_row::payoff},
+        {"pnl_at_expiry", &profile_row::pnl_at_expiry},
+        {"value_today", &profile_row::value_today},
+        {"pnl_today", &profile_row::pnl_today},
+        {"position_pnl_at_expiry", &profile_row::position_pnl_at_expiry},
+        {"position_pnl_today", &profile_row::position_pnl_today},
+    };
+    return columns;
+}
+
 }  // namespace
 
 profile_settings read_profile_settings(const json& document, const trade& t) {
@@ -33,16 +53,6 @@ profile_settings read_profile_settings(const json& document, const trade& t) {
 }
 
 json write_profile_result(const trade& t, const profile_settings& s, const profile_result& p) {
-    json rows = json::array();
-    for (const auto& row : p.rows)
-        rows.push_back({{"spot", row.spot},
-                        {"spot_change", row.spot_change},
-                        {"payoff", row.payoff},
-                        {"pnl_at_expiry", row.pnl_at_expiry},
-                        {"value_today", row.value_today},
-                        {"pnl_today", row.pnl_today},
-                        {"position_pnl_at_expiry", row.position_pnl_at_expiry},
-                        {"position_pnl_today", row.position_pnl_today}});
     json ranges = json::array();
     for (const auto& [a, b] : p.zero_pnl.ranges) ranges.push_back({a, b});
     json out{{"premium", p.premium},
@@ -54,9 +64,8 @@ json write_profile_result(const trade& t, const profile_settings& s, const profi
              {"quantity", t.quantity},
              {"side", t.client_sells ? "sell" : "buy"},
              {"lattice", {{"method", to_string(t.lattice.method)}, {"steps", effective_steps(t.lattice.method, s.steps)}}},
-             {"rows", rows},
-             {"columns", {"spot", "spot_change", "payoff", "pnl_at_expiry", "value_today", "pnl_today",
-                          "position_pnl_at_expiry", "position_pnl_today"}}};
+             {"rows", row_objects(profile_columns(), p.rows)},
+             {"columns", column_names(profile_columns())}};
     if (t.valuation_date) out["horizon_date"] = to_iso(add_days(*t.valuation_date, std::lround(p.horizon_years * 365)));
     if (p.one_expiry) {
         out["max_pnl_at_expiry"] = optional_number(p.max_pnl);

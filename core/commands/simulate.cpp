@@ -2,6 +2,7 @@
 #include "commands/simulate.hpp"
 
 #include "commands/hedge.hpp"
+#include "commands/table_columns.hpp"
 #include "commands/trade_reader.hpp"
 
 namespace hedgeleaf {
@@ -53,25 +54,29 @@ std::string frequency_label(const rebalance_spec& f) {
            (f.unit == rebalance_unit::days ? "business days" : f.unit == rebalance_unit::weeks ? "weeks" : "months");
 }
 
-json summary_row(const pnl_summary& s) {
-    return json{
-        {"frequency", frequency_label(s.frequency)},
-        {"rebalancings", s.rebalancings},
-        {"mean", s.mean},
-        {"sd", s.sd},
-        {"sd_standard_error", s.sd_standard_error},
-        {"p01", s.p01},
-        {"p05", s.p05},
-        {"p50", s.p50},
-        {"p95", s.p95},
-        {"p99", s.p99},
-        {"min", s.min},
-        {"max", s.max},
-        {"mean_costs", s.mean_costs},
-        {"derman_kamal_sd", s.derman_kamal_sd ? json(*s.derman_kamal_sd) : json(nullptr)},
-        {"desk_mean", s.desk_mean},
-        {"desk_sd", s.desk_sd},
+using summary_column = column<pnl_summary>;
+
+// One row per rebalancing frequency, in the order --table and --csv follow.
+const std::vector<summary_column>& summary_columns() {
+    static const std::vector<summary_column> columns = {
+        {"frequency", [](const pnl_summary& s) { return json(frequency_label(s.frequency)); }},
+        {"rebalancings", [](const pnl_summary& s) { return json(s.rebalancings); }},
+        {"mean", &pnl_summary::mean},
+        {"sd", &pnl_summary::sd},
+        {"sd_standard_error", &pnl_summary::sd_standard_error},
+        {"p01", &pnl_summary::p01},
+        {"p05", &pnl_summary::p05},
+        {"p50", &pnl_summary::p50},
+        {"p95", &pnl_summary::p95},
+        {"p99", &pnl_summary::p99},
+        {"min", &pnl_summary::min},
+        {"max", &pnl_summary::max},
+        {"mean_costs", &pnl_summary::mean_costs},
+        {"derman_kamal_sd", [](const pnl_summary& s) { return s.derman_kamal_sd ? json(*s.derman_kamal_sd) : json(nullptr); }},
+        {"desk_mean", &pnl_summary::desk_mean},
+        {"desk_sd", &pnl_summary::desk_sd},
     };
+    return columns;
 }
 
 std::string delta_method(const trade& t, const simulation& sim) {
@@ -92,18 +97,13 @@ json table_columns_of(const simulate_settings& st, const simulation& sim) {
 }  // namespace
 
 json write_simulate_result(const trade& t, const simulate_settings& st, const simulation& sim) {
-    json rows = json::array();
     json series = json::array();
-    for (const auto& s : sim.frequencies) {
-        rows.push_back(summary_row(s));
+    for (const auto& s : sim.frequencies)
         series.push_back(json{{"frequency", frequency_label(s.frequency)}, {"counts", s.counts}, {"below", s.below},
                               {"above", s.above}});
-    }
-    const json columns = {"frequency", "rebalancings", "mean", "sd", "sd_standard_error", "p01", "p05", "p50", "p95", "p99",
-                          "min", "max", "mean_costs", "derman_kamal_sd", "desk_mean", "desk_sd"};
     return json{
-        {"rows", rows},
-        {"columns", columns},
+        {"rows", row_objects(summary_columns(), sim.frequencies)},
+        {"columns", column_names(summary_columns())},
         {"table_columns", table_columns_of(st, sim)},
         {"histogram", {{"edges", sim.edges}, {"series", series}}},
         {"premium", sim.premium},
