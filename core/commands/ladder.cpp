@@ -103,9 +103,7 @@ json row_json(const trade& t, ladder_kind kind, const ladder_row& r) {
 }  // namespace
 
 ladder_settings read_ladder_settings(const json& document, const trade& t) {
-    static const json empty = json::object();
-    const json* section = section_of(document, "ladder");
-    field_reader r(section ? *section : empty, "ladder");
+    field_reader r(section_or_empty(document, "ladder"), "ladder");
     ladder_settings s;
     s.kind = enum_of<ladder_kind>(ladder_kinds, r.choice_or("kind", ladder_kinds, "spot"));
     s.steps = static_cast<int>(r.integer_or("steps", default_ladder_steps, 1, max_ladder_steps));

@@ -34,9 +34,7 @@ const std::vector<profile_column>& profile_columns() {
 }  // namespace
 
 profile_settings read_profile_settings(const json& document, const trade& t) {
-    static const json empty = json::object();
-    const json* section = section_of(document, "profile");
-    field_reader r(section ? *section : empty, "profile");
+    field_reader r(section_or_empty(document, "profile"), "profile");
     const double spot = t.market.spot;
     profile_settings s;
     s.spot_low = r.number_or("spot_low", 0.5 * spot);

@@ -277,4 +277,10 @@ const json* section_of(const json& document, const std::string& name) {
     return &document.at(name);
 }
 
+const json& section_or_empty(const json& document, const std::string& name) {
+    static const json empty = json::object();
+    const json* section = section_of(document, name);
+    return section ? *section : empty;
+}
+
 }  // namespace hedgeleaf

@@ -32,5 +32,8 @@ option_leg read_option_leg(field_reader& r, const years_reader& times, bool sign
 
 /// The section `name` of a document, or nullptr when it is absent or null.
 const json* section_of(const json& document, const std::string& name);
+/// The section `name` of a document, or an empty object when it is absent or null
+/// (for sections whose every field is optional).
+const json& section_or_empty(const json& document, const std::string& name);
 
 }  // namespace hedgeleaf
