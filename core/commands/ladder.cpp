@@ -108,21 +108,21 @@ ladder_settings read_ladder_settings(const json& document, const trade& t) {
     s.kind = enum_of<ladder_kind>(ladder_kinds, r.choice_or("kind", ladder_kinds, "spot"));
     s.steps = static_cast<int>(r.integer_or("steps", default_ladder_steps, 1, max_ladder_steps));
     const double vol = t.market.volatility;
-    const double expiry = t.final_expiry_years();
+    const double expiry_years = t.final_expiry_years();
     if (moves_spot(s.kind)) {
         s.spot_shifts = read_axis(r, "spot", spot_axis, min_spot_shift, max_spot_shift,
                                   " (a fraction of today's spot)");
         s.axis_path = r.child("spot_from");
     }
     if (moves_volatility(s.kind)) {
-        const double highest = highest_volatility(expiry);  // the lattice's limit for this expiry
+        const double highest = highest_volatility(expiry_years);  // the lattice's limit for this expiry
         s.vol_shifts = read_axis(r, "vol", vol_axis, min_ladder_volatility - vol, highest - vol,
                                  " (volatility " + format_number(vol) + " must stay within " +
                                      format_number(min_ladder_volatility) + " .. " + format_number(highest) + ")");
         if (s.kind == ladder_kind::volatility) s.axis_path = r.child("vol_from");
     }
     if (s.kind == ladder_kind::time) {
-        s.days = read_days(r, expiry);
+        s.days = read_days(r, expiry_years);
         s.axis_path = r.child("time_step_days");
     }
     r.finish();
