@@ -46,8 +46,7 @@ double bench_price(bool put, double spot, double strike, double volatility, doub
                    const std::string& method, int steps, bool extrapolate) {
     try {
         const lattice_settings s{parse_lattice_method(method), steps, extrapolate};
-        return price_leg(flat_market(spot, volatility, rate, carry), bench_leg(put, true, strike, expiry), s)
-            .premium;
+        return price_leg(flat_market(spot, volatility, rate, carry), bench_leg(put, true, strike, expiry), s).premium;
     } catch (...) {
         return -1;
     }

@@ -26,7 +26,8 @@ namespace {
 std::string trade_text(const std::string& type, const std::string& exercise) {
     return R"({"valuation_date": "2027-01-04",
       "market": {"spot": 48, "volatility": 0.3, "rate": 0.03},
-      "option": {"type": ")" + type + R"(", "strike": 48, "expiry_date": "2028-01-03", "exercise": ")" + exercise + R"("},
+      "option": {"type": ")" +
+           type + R"(", "strike": 48, "expiry_date": "2028-01-03", "exercise": ")" + exercise + R"("},
       "hedge": {"rebalance": {"every": 1, "unit": "weeks"}, "path": {"kind": "scenario", "seed": 3}},
       "simulate": {"paths": 10000, "seed": 5, "frequencies": [{"every": 1, "unit": "weeks"}]}})";
 }
@@ -46,7 +47,8 @@ double best_cpu_seconds(F&& run, int repeats) {
 
 int main() {
     std::printf("simulate_bench (%s)\n", cpu_name().c_str());
-    for (const auto& [type, exercise] : {std::pair<std::string, std::string>{"call", "european"}, {"put", "american"}}) {
+    for (const auto& [type, exercise] :
+         {std::pair<std::string, std::string>{"call", "european"}, {"put", "american"}}) {
         const json doc = parse_json_text(trade_text(type, exercise));
         const trade t = read_trade(doc);
         const simulate_settings st = read_simulate_settings(doc, t);

@@ -25,8 +25,8 @@ namespace hedgeleaf::bench {
 
 /// Value of a vanilla leg (American or European) by the usual loop; `v` is the
 /// caller's buffer (resized to steps + 1), so timing excludes allocation.
-HEDGELEAF_BENCH_CLONES inline double usual_induce(const market_data& market, const option_leg& leg, lattice_method method,
-                                                  int steps, std::vector<double>& v) {
+HEDGELEAF_BENCH_CLONES inline double usual_induce(const market_data& market, const option_leg& leg,
+                                                  lattice_method method, int steps, std::vector<double>& v) {
     const int n_steps = effective_steps(method, steps);
     const lattice_step st = make_step(method, market, leg.strike, leg.expiry_years, n_steps);
     const double s0 = diffusing_spot(market, leg.expiry_years);

@@ -68,8 +68,10 @@ int main(int argc, char** argv) {
     std::string format = "json";
     if (argc == 4) {
         const std::string flag = argv[3];
-        if (flag == "--table") format = "table";
-        else if (flag == "--csv") format = "csv";
+        if (flag == "--table")
+            format = "table";
+        else if (flag == "--csv")
+            format = "csv";
         else {
             std::cerr << "hedgeleaf: unknown option " << flag << " (use --table or --csv)\n";
             return 2;

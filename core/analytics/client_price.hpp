@@ -17,7 +17,11 @@
 
 namespace hedgeleaf {
 
-enum class margin_kind { absolute, fraction_of_premium, volatility };  // the order of contract/limits.hpp's margin_types
+enum class margin_kind {
+    absolute,
+    fraction_of_premium,
+    volatility
+};  // the order of contract/limits.hpp's margin_types
 
 /// The `quote` section, read and checked (commands/quote.hpp).
 struct quote_terms {
@@ -43,7 +47,7 @@ struct client_price {
     double per_unit = 0;          ///< the price the client deals at
     double total = 0;
     double fraction_of_notional = 0;
-    double notional = 0;          ///< quantity x spot
+    double notional = 0;  ///< quantity x spot
     double desk_margin_total = 0;
 };
 

@@ -88,9 +88,10 @@ std::vector<schedule_date> hedge_dates(const trade& t, const hedge_settings& hs,
         });
         if (!present) {
             schedule_date gap{hs.path.gap_years, day_of(t, hs.path.gap_years)};
-            dates.insert(std::upper_bound(dates.begin(), dates.end(), gap,
-                                          [](const schedule_date& a, const schedule_date& b) { return a.years < b.years; }),
-                         gap);
+            dates.insert(
+                std::upper_bound(dates.begin(), dates.end(), gap,
+                                 [](const schedule_date& a, const schedule_date& b) { return a.years < b.years; }),
+                gap);
             notes.push_back("the gap date is added to the rebalancing dates");
         }
     }
@@ -211,9 +212,9 @@ std::vector<mark> lattice_marks(const trade& t, const hedge_settings& hs, std::v
             mk.paid = node.paid;
             mk.delta = node.shares;
             mk.event = node.event == node_event::early_exercise ? "exercise"
-                       : node.event == node_event::expiry        ? "leg expiry"
-                       : k == 0                                  ? "start"
-                                                                 : "rebalance";
+                       : node.event == node_event::expiry       ? "leg expiry"
+                       : k == 0                                 ? "start"
+                                                                : "rebalance";
         }
         marks.push_back(mk);
     }

@@ -37,7 +37,7 @@ struct path_spec {
     std::uint64_t seed = 1;     ///< scenario
     stress_shape shape = stress_shape::fall;
     double change = default_stress_change;  ///< stress: total rise/fall by the final date, or the gap size
-    double gap_years = 0;       ///< stress gap-down: when spot gaps, years from valuation
+    double gap_years = 0;                   ///< stress gap-down: when spot gaps, years from valuation
 };
 
 /// The `hedge` section, read and checked (commands/hedge.hpp).
@@ -69,9 +69,9 @@ leg_mark mark_leg(const market_data& m, const option_leg& leg, lattice_method me
 
 /// One row of the schedule (per unit unless named desk_).
 struct hedge_row {
-    double years = 0;             ///< from valuation
+    double years = 0;  ///< from valuation
     std::optional<date> day;
-    std::string event;            ///< start, rebalance, exercise, leg expiry (a leg ends before the trade), expiry
+    std::string event;  ///< start, rebalance, exercise, leg expiry (a leg ends before the trade), expiry
     double spot = 0;
     double option_value = 0;      ///< legs still running after today's payments (last row: payoff or exercise value)
     double paid = 0;              ///< paid to the holder today by legs ending before the last row
@@ -91,14 +91,14 @@ struct hedge_row {
 
 struct hedge_totals {
     double premium = 0;
-    double payoff = 0;            ///< payoff at expiry or the exercise value
+    double payoff = 0;  ///< payoff at expiry or the exercise value
     double portfolio_value = 0;
     double replication_error = 0;
-    double shares_traded = 0;     ///< sum of |shares traded|
+    double shares_traded = 0;  ///< sum of |shares traded|
     double costs = 0;
     double interest = 0;
     double dividends = 0;
-    double paid = 0;              ///< paid before the last row
+    double paid = 0;  ///< paid before the last row
     std::string end_event;
 };
 

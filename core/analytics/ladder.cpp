@@ -110,7 +110,7 @@ scenario_value value_scenario(const trade& t, const scenario& s, int steps) {
     const double pv = aged.market.dividend_pv(0, last);
     if (!(pv < m.spot))
         fail("", "spot " + format_number(m.spot) + " is not above the present value " + format_number(pv) +
-                           " of the dividends before expiry");
+                     " of the dividends before expiry");
 
     lattice_settings fast = t.lattice;
     fast.steps = steps;

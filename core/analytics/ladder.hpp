@@ -58,10 +58,10 @@ struct ladder_settings {
 struct ladder_row {
     scenario moved;
     scenario_value at;
-    long days = 0;          ///< time ladders
-    double spot = 0;        ///< the scenario's spot
-    double volatility = 0;  ///< the scenario's volatility
-    double pnl = 0;         ///< value - today's value
+    long days = 0;                                                    ///< time ladders
+    double spot = 0;                                                  ///< the scenario's spot
+    double volatility = 0;                                            ///< the scenario's volatility
+    double pnl = 0;                                                   ///< value - today's value
     double position_pnl = 0, position_delta = 0, position_gamma = 0;  ///< x signed quantity
 };
 

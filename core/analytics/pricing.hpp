@@ -24,12 +24,12 @@ struct replicating_portfolio {
 };
 
 struct trade_result {
-    double premium = 0;          ///< net per unit (sum of leg quantity * leg premium)
-    greeks sensitivities;        ///< net per unit
-    valuation reference;         ///< net closed-form European reference
+    double premium = 0;                 ///< net per unit (sum of leg quantity * leg premium)
+    greeks sensitivities;               ///< net per unit
+    valuation reference;                ///< net closed-form European reference
     double early_exercise_premium = 0;  ///< premium - reference (American/Bermudan legs)
     bool has_early_exercise = false;
-    double error_estimate = 0;   ///< sum of |leg quantity| * leg error estimate
+    double error_estimate = 0;  ///< sum of |leg quantity| * leg error estimate
     lattice_method method = lattice_method::leisen_reimer;
     int steps = 0;
     int coarse_steps = 0;

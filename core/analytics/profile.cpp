@@ -38,7 +38,8 @@ bool is_digital(const option_leg& leg) {
 }
 
 bool digital_at(const trade& t, double k) {
-    return std::any_of(t.legs.begin(), t.legs.end(), [k](const option_leg& l) { return is_digital(l) && l.strike == k; });
+    return std::any_of(t.legs.begin(), t.legs.end(),
+                       [k](const option_leg& l) { return is_digital(l) && l.strike == k; });
 }
 
 std::vector<double> sorted_strikes(const trade& t) {
@@ -146,19 +147,22 @@ void linear_extremes(const trade& t, double cost, profile_result& out) {
 }
 
 void profile_notes(const trade& t, const profile_settings& s, profile_result& out) {
-    out.notes.push_back("per unit for the buyer of the trade as written; position figures are times the signed quantity");
+    out.notes.push_back(
+        "per unit for the buyer of the trade as written; position figures are times the signed quantity");
     out.notes.push_back(s.finance_premium ? "P&L at expiry = payoff - premium carried to expiry at market.rate"
                                           : "P&L at expiry = payoff - premium paid today (not carried to expiry)");
     if (out.one_expiry) {
         out.notes.push_back("max/min P&L at expiry: null means unbounded");
     } else {
-        out.notes.push_back("legs expire on different dates: the profile is taken at the first expiry, later legs valued "
-                            "there in closed form (European, same volatility and rates) with their remaining time");
+        out.notes.push_back(
+            "legs expire on different dates: the profile is taken at the first expiry, later legs valued "
+            "there in closed form (European, same volatility and rates) with their remaining time");
     }
     const bool has_stock =
         std::any_of(t.legs.begin(), t.legs.end(), [](const option_leg& l) { return l.type == payoff_kind::stock; });
     if (has_stock && (t.market.carry_yield != 0 || !t.market.dividends.empty()))
-        out.notes.push_back("a stock leg pays the share price at expiry; dividends received before then are not in the payoff");
+        out.notes.push_back(
+            "a stock leg pays the share price at expiry; dividends received before then are not in the payoff");
     if (std::any_of(t.legs.begin(), t.legs.end(), is_digital))
         out.notes.push_back("a digital's payoff jumps at its strike: a break-even there is where the P&L changes sign");
 }
@@ -208,8 +212,10 @@ break_evens find_break_evens(const trade& t, double cost) {
         if (si == 0) {
             std::size_t j = i;
             while (j + 1 < points.size() && sign_of(values[j + 1], tol) == 0) ++j;
-            if (j > i) out.ranges.emplace_back(points[i], points[j]);
-            else out.points.push_back(points[i]);
+            if (j > i)
+                out.ranges.emplace_back(points[i], points[j]);
+            else
+                out.points.push_back(points[i]);
             i = j + 1;
             continue;
         }

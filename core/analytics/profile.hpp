@@ -53,7 +53,7 @@ struct profile_result {
     double horizon_years = 0;   ///< the first expiry
     std::vector<profile_row> rows;
     break_evens zero_pnl;
-    bool one_expiry = true;     ///< every leg ends at the horizon: the payoff is piecewise linear
+    bool one_expiry = true;  ///< every leg ends at the horizon: the payoff is piecewise linear
     /// With one expiry: the extremes of the P&L at expiry (none = unbounded), per unit and position.
     std::optional<double> max_pnl, min_pnl, position_max_pnl, position_min_pnl;
     std::vector<std::string> notes;

@@ -28,7 +28,8 @@ void induce_leg(const trade_lattice& lat, std::size_t k, Visit&& visit) {
     std::vector<char> event(static_cast<std::size_t>(m) + 1, static_cast<char>(node_event::expiry));
     const bool stock = leg.type == payoff_kind::stock;
     const double pv_m = lat.dividends_after(m);  // once per level: spot = S* + pv
-    for (int j = 0; j <= m; ++j) row[j] = stock ? lat.diffusing(m, j) + pv_m : exercise_value(leg, lat.diffusing(m, j) + pv_m);
+    for (int j = 0; j <= m; ++j)
+        row[j] = stock ? lat.diffusing(m, j) + pv_m : exercise_value(leg, lat.diffusing(m, j) + pv_m);
     visit(m, row, event);
     const double pu = lat.step.discount * lat.step.p_up;
     const double pd = lat.step.discount * (1 - lat.step.p_up);
@@ -191,8 +192,8 @@ std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int
     const trade& t = *lat.source;
     const int length = static_cast<int>(moves.size());
     if (length > lat.steps)
-        fail("hedge.path.moves", "has " + std::to_string(length) + " moves, the lattice has " +
-                                     std::to_string(lat.steps) + " steps");
+        fail("hedge.path.moves",
+             "has " + std::to_string(length) + " moves, the lattice has " + std::to_string(lat.steps) + " steps");
     std::vector<int> index(static_cast<std::size_t>(length) + 1, 0);
     for (int n = 0; n < length; ++n) index[n + 1] = index[n] + moves[n];
 

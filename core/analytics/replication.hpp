@@ -30,14 +30,14 @@ enum class node_event { none, early_exercise, expiry };
 
 /// One node of the trade's lattice, per unit of the trade (legs with their signed quantities).
 struct tree_node {
-    int step = 0;         ///< level n (0 = valuation)
-    int index = 0;        ///< up moves j (0 = lowest spot)
-    double spot = 0;      ///< full spot: S* u^j d^(n-j) + PV of the dividends still to come
-    double value = 0;     ///< value of the legs running at this node, including what they pay here
-    double paid = 0;      ///< payoffs and exercise values paid at this node
-    double shares = 0;    ///< Δ held from this node to the next step
-    double cash = 0;      ///< B held from this node to the next step
-    double income = 0;    ///< what one share earns over the next step (dividends, carry yield)
+    int step = 0;       ///< level n (0 = valuation)
+    int index = 0;      ///< up moves j (0 = lowest spot)
+    double spot = 0;    ///< full spot: S* u^j d^(n-j) + PV of the dividends still to come
+    double value = 0;   ///< value of the legs running at this node, including what they pay here
+    double paid = 0;    ///< payoffs and exercise values paid at this node
+    double shares = 0;  ///< Δ held from this node to the next step
+    double cash = 0;    ///< B held from this node to the next step
+    double income = 0;  ///< what one share earns over the next step (dividends, carry yield)
     node_event event = node_event::none;
     /// Δ S + B - (value - paid): zero to rounding.
     double check() const { return shares * spot + cash - (value - paid); }
@@ -48,10 +48,10 @@ struct trade_lattice {
     const trade* source = nullptr;
     lattice_step step;
     int steps = 0;
-    double s0 = 0;                          ///< diffusing spot S* at valuation
-    std::vector<int> last_step;             ///< per leg: its expiry step (stock legs: steps)
+    double s0 = 0;                           ///< diffusing spot S* at valuation
+    std::vector<int> last_step;              ///< per leg: its expiry step (stock legs: steps)
     std::vector<std::vector<char>> allowed;  ///< per leg: early exercise allowed at step n
-    std::vector<std::string> notes;         ///< e.g. a leg expiry moved to the nearest step
+    std::vector<std::string> notes;          ///< e.g. a leg expiry moved to the nearest step
 
     /// Build the lattice of `t` with `steps` steps (exactly; no odd-count bump).
     trade_lattice(const trade& t, int steps);
@@ -70,8 +70,8 @@ std::vector<tree_node> tree_window(const trade_lattice& lattice, int from_step, 
 
 /// One step of a walk along a lattice path.
 struct path_step {
-    tree_node node;          ///< value, paid, shares and cash as seen on this path
-    double carried = 0;      ///< value now of the portfolio set up one step earlier (step 0: the premium)
+    tree_node node;      ///< value, paid, shares and cash as seen on this path
+    double carried = 0;  ///< value now of the portfolio set up one step earlier (step 0: the premium)
 };
 
 /// Walk `moves` (0 = down, 1 = up) from the root. Stops when every leg has paid

@@ -58,7 +58,8 @@ std::vector<schedule_date> schedule_dates(const trade& t, const rebalance_spec& 
         add(leg.expiry_years, day_of(t, leg.expiry_years));
         for (double x : leg.exercise_years) add(x, day_of(t, x));
     }
-    std::stable_sort(out.begin(), out.end(), [](const schedule_date& a, const schedule_date& b) { return a.years < b.years; });
+    std::stable_sort(out.begin(), out.end(),
+                     [](const schedule_date& a, const schedule_date& b) { return a.years < b.years; });
     std::vector<schedule_date> unique;
     for (const auto& d : out)
         if (unique.empty() || d.years > unique.back().years + time_tolerance_years) unique.push_back(d);

@@ -42,19 +42,19 @@ struct table_level {
 };
 
 struct leg_date {
-    bool expires = false;      // the leg pays on this date
+    bool expires = false;  // the leg pays on this date
     bool may_exercise = false;
-    euro_delta euro;           // European legs
-    double pv = 0;             // PV of dividends in (t, leg expiry]: s_leg = S - pv
-    int table = -1;            // index into the leg's table levels (others)
+    euro_delta euro;  // European legs
+    double pv = 0;    // PV of dividends in (t, leg expiry]: s_leg = S - pv
+    int table = -1;   // index into the leg's table levels (others)
 };
 
 struct frequency_plan {
-    std::vector<int> grid;          // union-grid index of each date
-    std::vector<double> growth;     // e^(r dt) into each date
-    std::vector<double> carry;      // e^(r dt) - e^((r-q) dt): carry income per unit of S*
-    std::vector<double> dividends;  // cash dividends in the interval, grown to its end
-    std::vector<std::vector<leg_date>> legs;  // [date][leg]
+    std::vector<int> grid;                         // union-grid index of each date
+    std::vector<double> growth;                    // e^(r dt) into each date
+    std::vector<double> carry;                     // e^(r dt) - e^((r-q) dt): carry income per unit of S*
+    std::vector<double> dividends;                 // cash dividends in the interval, grown to its end
+    std::vector<std::vector<leg_date>> legs;       // [date][leg]
     std::vector<std::vector<table_level>> levels;  // [leg][k]: levels used by this frequency
 };
 
@@ -84,8 +84,9 @@ date_grid simulation_dates(const trade& t, const simulate_settings& st) {
         work += static_cast<double>(st.paths) * static_cast<double>(out.dates.back().size() - 1);
     }
     if (work > max_path_rebalancings)
-        fail("simulate.paths", "paths x rebalancings over all frequencies is " + std::to_string(static_cast<long long>(work)) +
-                                   ", at most " + std::to_string(static_cast<long long>(max_path_rebalancings)) +
+        fail("simulate.paths", "paths x rebalancings over all frequencies is " +
+                                   std::to_string(static_cast<long long>(work)) + ", at most " +
+                                   std::to_string(static_cast<long long>(max_path_rebalancings)) +
                                    "; use fewer paths or rebalance less often");
     std::sort(out.grid.begin(), out.grid.end());
     out.grid.erase(std::unique(out.grid.begin(), out.grid.end(),
@@ -133,8 +134,8 @@ frequency_plan plan_frequency(const trade& t, const std::vector<schedule_date>& 
         const double dt = k == 0 ? 0.0 : ds[k].years - ds[k - 1].years;
         plan.growth.push_back(std::exp(m.rate * dt));
         plan.carry.push_back(std::exp(m.rate * dt) - std::exp((m.rate - m.carry_yield) * dt));
-        plan.dividends.push_back(k == 0 || m.dividends.empty() ? 0.0
-                                                               : m.dividend_pv(ds[k - 1].years, ds[k].years) * std::exp(m.rate * dt));
+        plan.dividends.push_back(
+            k == 0 || m.dividends.empty() ? 0.0 : m.dividend_pv(ds[k - 1].years, ds[k].years) * std::exp(m.rate * dt));
         std::vector<leg_date> lds(n_legs);
         for (std::size_t i = 0; i < n_legs; ++i) {
             const option_leg& leg = t.legs[i];
@@ -148,12 +149,13 @@ frequency_plan plan_frequency(const trade& t, const std::vector<schedule_date>& 
                 ld.euro = euro_delta_for(m, leg, tau);
             } else {
                 ld.may_exercise = leg.exercise == exercise_style::american ||
-                                  std::any_of(leg.exercise_years.begin(), leg.exercise_years.end(),
-                                              [&](double x) { return std::fabs(x - ds[k].years) <= time_tolerance_years; });
+                                  std::any_of(leg.exercise_years.begin(), leg.exercise_years.end(), [&](double x) {
+                                      return std::fabs(x - ds[k].years) <= time_tolerance_years;
+                                  });
                 ld.table = static_cast<int>(plan.levels[i].size());
                 plan.levels[i].push_back(table_level{});
-                plan.levels[i].back().n = std::min(static_cast<int>(std::lround(ds[k].years / lat->step.dt)),
-                                                   lat->last_step[i] - 1);
+                plan.levels[i].back().n =
+                    std::min(static_cast<int>(std::lround(ds[k].years / lat->step.dt)), lat->last_step[i] - 1);
             }
         }
         plan.legs.push_back(std::move(lds));
@@ -185,9 +187,12 @@ double opening_premium(const trade& t, const frequency_plan& first) {
     double premium = 0;
     for (std::size_t i = 0; i < t.legs.size(); ++i) {
         const option_leg& leg = t.legs[i];
-        if (leg.type == payoff_kind::stock) premium += leg.quantity * m.spot;
-        else if (leg.exercise == exercise_style::european) premium += leg.quantity * closed_form(m, leg).premium;
-        else premium += leg.quantity * first.levels[i][0].value[0];
+        if (leg.type == payoff_kind::stock)
+            premium += leg.quantity * m.spot;
+        else if (leg.exercise == exercise_style::european)
+            premium += leg.quantity * closed_form(m, leg).premium;
+        else
+            premium += leg.quantity * first.levels[i][0].value[0];
     }
     return premium;
 }
@@ -224,8 +229,8 @@ struct path_outcome {
 };
 
 // Hedge one path at one frequency until the trade has ended.
-path_outcome hedge_path(const trade& t, const frequency_plan& plan, const path_view& path, const table_reader& from_table,
-                        double premium, double cost_rate, std::vector<char>& alive) {
+path_outcome hedge_path(const trade& t, const frequency_plan& plan, const path_view& path,
+                        const table_reader& from_table, double premium, double cost_rate, std::vector<char>& alive) {
     const std::size_t n_legs = t.legs.size();
     std::fill(alive.begin(), alive.end(), 1);
     double shares = 0, cash = premium, costs = 0, cost_paid = 0, pnl_before_costs = 0;
@@ -387,9 +392,12 @@ void fill_histograms(const simulate_settings& st, const histogram_range& range, 
     for (auto& s : out.frequencies) {
         s.counts.assign(static_cast<std::size_t>(st.bins), 0);
         for (double x : s.pnl) {
-            if (x < lo) ++s.below;
-            else if (x > hi) ++s.above;
-            else s.counts[std::min(st.bins - 1, static_cast<int>((x - lo) / (hi - lo) * st.bins))]++;
+            if (x < lo)
+                ++s.below;
+            else if (x > hi)
+                ++s.above;
+            else
+                s.counts[std::min(st.bins - 1, static_cast<int>((x - lo) / (hi - lo) * st.bins))]++;
         }
     }
 }
@@ -407,7 +415,8 @@ void desk_figures(const simulate_settings& st, const std::vector<std::vector<dou
 
 // One European call or put: the hedging error's sd has a closed-form reference.
 void derman_kamal_reference(const trade& t, const simulate_settings& st, simulation& out) {
-    out.derman_kamal = t.legs.size() == 1 && (t.legs[0].type == payoff_kind::call || t.legs[0].type == payoff_kind::put) &&
+    out.derman_kamal = t.legs.size() == 1 &&
+                       (t.legs[0].type == payoff_kind::call || t.legs[0].type == payoff_kind::put) &&
                        t.legs[0].exercise == exercise_style::european;
     if (!out.derman_kamal) return;
     const double vega = std::fabs(t.legs[0].quantity) * closed_form(t.market, t.legs[0]).sensitivities.vega;

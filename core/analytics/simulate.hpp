@@ -21,18 +21,18 @@ namespace hedgeleaf {
 struct simulate_settings {
     long paths = default_paths;
     std::uint64_t seed = 1;
-    double drift = 0;           ///< default market.rate
-    double volatility = 0;      ///< realised; default market.volatility
+    double drift = 0;       ///< default market.rate
+    double volatility = 0;  ///< realised; default market.volatility
     double cost_bp = 0;
     int bins = default_bins;
     std::vector<rebalance_spec> frequencies;  ///< default: every business day, week, month
-    int lattice_steps = 0;      ///< delta table for non-European legs; 0 = automatic
+    int lattice_steps = 0;                    ///< delta table for non-European legs; 0 = automatic
 };
 
 /// Summary of one frequency's P&L distribution.
 struct pnl_summary {
     rebalance_spec frequency;
-    int rebalancings = 0;       ///< hedge trades after the first (dates after valuation)
+    int rebalancings = 0;  ///< hedge trades after the first (dates after valuation)
     double mean = 0;
     double sd = 0;
     double sd_standard_error = 0;  ///< Monte Carlo error of sd (from the sample kurtosis)
@@ -40,11 +40,11 @@ struct pnl_summary {
     double p01 = 0, p05 = 0, p50 = 0, p95 = 0, p99 = 0;
     double min = 0, max = 0;
     double mean_costs = 0;
-    double desk_mean = 0, desk_sd = 0;  ///< per position, the desk's view (costs on |quantity|)
+    double desk_mean = 0, desk_sd = 0;      ///< per position, the desk's view (costs on |quantity|)
     std::optional<double> derman_kamal_sd;  ///< the reference sd for one European call or put (derman_kamal_sd)
-    std::vector<long> counts;   ///< histogram over the shared bin edges
-    long below = 0, above = 0;  ///< outside the edges
-    std::vector<double> pnl;    ///< per path (kept for tests; not printed)
+    std::vector<long> counts;               ///< histogram over the shared bin edges
+    long below = 0, above = 0;              ///< outside the edges
+    std::vector<double> pnl;                ///< per path (kept for tests; not printed)
 };
 
 struct simulation {

@@ -43,7 +43,7 @@ struct search {
     std::string unknown;  // "volatility", "strike of leg 1"
     double lower = 0, upper = 0;
     std::string lower_path, upper_path;
-    double target = 0;    // net premium per unit
+    double target = 0;  // net premium per unit
     std::function<double(double)> premium_at;
 };
 
@@ -67,16 +67,17 @@ double premium_or_fail(const search& s, double x) {
         throw;  // the budget, not this trial value
     } catch (const input_error& e) {
         const bool near_lower = std::fabs(std::log(x / s.lower)) <= std::fabs(std::log(s.upper / x));
-        fail(near_lower ? s.lower_path : s.upper_path,
-             "the lattice cannot price the trade at " + s.unknown + " " + format_number(x) + " (" + e.what() +
-                 "); narrow the search range");
+        fail(near_lower ? s.lower_path : s.upper_path, "the lattice cannot price the trade at " + s.unknown + " " +
+                                                           format_number(x) + " (" + e.what() +
+                                                           "); narrow the search range");
     }
 }
 
 root_result run_search(const search& s, double spot) {
     root_options options;
     options.f_tolerance = finder_tolerance * spot;
-    const root_result r = find_root([&](double x) { return premium_or_fail(s, x) - s.target; }, s.lower, s.upper, options);
+    const root_result r =
+        find_root([&](double x) { return premium_or_fail(s, x) - s.target; }, s.lower, s.upper, options);
     if (r.bracketed) return r;
     const double p_lower = r.f_lower + s.target, p_upper = r.f_upper + s.target;
     const bool too_high = s.target > std::max(p_lower, p_upper);
@@ -86,8 +87,8 @@ root_result run_search(const search& s, double spot) {
     fail(lower_hit ? s.lower_path : s.upper_path,
          "no solution: the " + std::string(too_high ? "highest" : "lowest") + " net premium in the search range is " +
              format_number(hit_premium) + " at the " + (lower_hit ? "lower" : "upper") + " bound " + s.unknown + " " +
-             format_number(lower_hit ? s.lower : s.upper) + ", " + (too_high ? "below" : "above") +
-             " the target " + format_number(s.target) + " (solve.target_premium); widen the range or check the target");
+             format_number(lower_hit ? s.lower : s.upper) + ", " + (too_high ? "below" : "above") + " the target " +
+             format_number(s.target) + " (solve.target_premium); widen the range or check the target");
 }
 
 std::vector<solved_leg> price_legs(const market_data& m, const std::vector<option_leg>& legs,
@@ -108,12 +109,14 @@ std::optional<premium_range> option_premium_range(const trade& t) {
     const option_leg& leg = t.legs.front();
     if (leg.type != payoff_kind::call && leg.type != payoff_kind::put) return std::nullopt;
     const market_data& m = t.market;
-    const double forward_spot = (m.spot - m.dividend_pv(0, leg.expiry_years)) * std::exp(-m.carry_yield * leg.expiry_years);
+    const double forward_spot =
+        (m.spot - m.dividend_pv(0, leg.expiry_years)) * std::exp(-m.carry_yield * leg.expiry_years);
     const double pv_strike = leg.strike * std::exp(-m.rate * leg.expiry_years);
     const bool call = leg.type == payoff_kind::call;
     premium_range out;
     out.lower = std::max(0.0, call ? forward_spot - pv_strike : pv_strike - forward_spot);
-    out.lower_reason = call ? "max(spot·e^(-carry·T) - strike·e^(-rate·T), 0)" : "max(strike·e^(-rate·T) - spot·e^(-carry·T), 0)";
+    out.lower_reason =
+        call ? "max(spot·e^(-carry·T) - strike·e^(-rate·T), 0)" : "max(strike·e^(-rate·T) - spot·e^(-carry·T), 0)";
     out.upper = call ? forward_spot : pv_strike;
     out.upper_reason = call ? "spot·e^(-carry·T): a call is never worth more than the share"
                             : "strike·e^(-rate·T): a put is never worth more than the strike paid at expiry";
@@ -137,14 +140,17 @@ solve_result solve_volatility(const trade& t, const solve_settings& settings) {
     if (const auto range = option_premium_range(t)) {
         const std::string kind = to_string(t.legs.front().exercise) + " " + to_string(t.legs.front().type);
         if (!(s.target > range->lower))
-            fail("solve.target_premium", format_number(s.target) + " is at or below the lowest premium any volatility gives the " +
-                                             kind + ", " + format_number(range->lower) + " (" + range->lower_reason + ")");
+            fail("solve.target_premium", format_number(s.target) +
+                                             " is at or below the lowest premium any volatility gives the " + kind +
+                                             ", " + format_number(range->lower) + " (" + range->lower_reason + ")");
         if (!(s.target < range->upper))
-            fail("solve.target_premium", format_number(s.target) + " is at or above the no-arbitrage upper bound of the " + kind +
-                                             ", " + format_number(range->upper) + " (" + range->upper_reason + ")");
+            fail("solve.target_premium", format_number(s.target) +
+                                             " is at or above the no-arbitrage upper bound of the " + kind + ", " +
+                                             format_number(range->upper) + " (" + range->upper_reason + ")");
     } else {
-        out.notes.push_back("the net premium of a structure or a digital need not rise with volatility; the solution "
-                            "found in the range is one of possibly several");
+        out.notes.push_back(
+            "the net premium of a structure or a digital need not rise with volatility; the solution "
+            "found in the range is one of possibly several");
     }
     s.premium_at = [&](double vol) {
         market_data m = t.market;
@@ -181,8 +187,9 @@ solve_result solve_strike(const trade& t, const solve_settings& settings) {
         if (j == index || t.legs[j].type == payoff_kind::stock) continue;
         const double before = chosen.strike - t.legs[j].strike, after = out.root.x - t.legs[j].strike;
         if ((before > 0) != (after > 0) || (before == 0) != (after == 0))
-            out.notes.push_back("the solved strike " + format_number(out.root.x) + " is " + (after > 0 ? "above" : "below") +
-                                " leg " + std::to_string(j) + "'s strike " + format_number(t.legs[j].strike) +
+            out.notes.push_back("the solved strike " + format_number(out.root.x) + " is " +
+                                (after > 0 ? "above" : "below") + " leg " + std::to_string(j) + "'s strike " +
+                                format_number(t.legs[j].strike) +
                                 ", unlike the trade as written; the legs no longer make the same shape");
     }
     out.solution = out.root.x;
@@ -200,8 +207,10 @@ solve_result solve_quantity(const trade& t, const solve_settings& settings) {
                                  " (the client does not pay premium), so a budget does not fix the quantity");
     const double quantity = budget / premium;
     if (quantity > max_quantity)
-        fail("solve.budget", "buys " + format_number(quantity) + " units, more than the limit " + format_number(max_quantity));
-    out.notes.push_back("the premium is linear in the quantity: quantity = budget / net premium per unit, no iteration");
+        fail("solve.budget",
+             "buys " + format_number(quantity) + " units, more than the limit " + format_number(max_quantity));
+    out.notes.push_back(
+        "the premium is linear in the quantity: quantity = budget / net premium per unit, no iteration");
     out.solution = quantity;
     out.target_premium = budget / quantity;
     out.root.x = quantity;
@@ -231,14 +240,16 @@ void report_figures(const trade& t, const solve_settings& settings, solve_result
     out.position_premium = (t.client_sells ? -1.0 : 1.0) * out.quantity * out.premium_at_solution;
     out.within_tolerance = std::fabs(out.residual * out.quantity) <= target_tolerance * out.notional;
     if (!out.within_tolerance)
-        out.notes.push_back("the residual is larger than 1e-8 of notional: the premium jumps near the solution "
-                            "(a digital leg or a coarse lattice); check the legs at the solution");
+        out.notes.push_back(
+            "the residual is larger than 1e-8 of notional: the premium jumps near the solution "
+            "(a digital leg or a coarse lattice); check the legs at the solution");
     out.pricing = pricing_label(t.legs);
 }
 
 }  // namespace
 
-double solver_net_premium(const market_data& market, const std::vector<option_leg>& legs, const lattice_settings& settings) {
+double solver_net_premium(const market_data& market, const std::vector<option_leg>& legs,
+                          const lattice_settings& settings) {
     double total = 0;
     for (const auto& leg : legs) total += leg.quantity * leg_premium(market, leg, settings);
     return total;

@@ -23,8 +23,8 @@ enum class solve_unknown { volatility, strike, quantity };  // the order of cont
 /// The `solve` section, read and checked (commands/solve.hpp).
 struct solve_settings {
     solve_unknown unknown = solve_unknown::volatility;
-    double target_premium = 0;       ///< net premium per unit (volatility, strike)
-    double lower = 0, upper = 0;     ///< the search range (volatility, strike)
+    double target_premium = 0;    ///< net premium per unit (volatility, strike)
+    double lower = 0, upper = 0;  ///< the search range (volatility, strike)
     std::string lower_path = "solve.lower", upper_path = "solve.upper";
     std::size_t leg = 0;             ///< strike: which leg
     double budget = 0;               ///< quantity
@@ -52,18 +52,18 @@ struct solved_leg {
 
 struct solve_result {
     double solution = 0;
-    root_result root;                 ///< the search (a quantity: x, fx, no iterations)
-    std::vector<solved_leg> legs;     ///< every leg at the solution
-    double residual = 0;              ///< premium at the solution - target, per unit
+    root_result root;              ///< the search (a quantity: x, fx, no iterations)
+    std::vector<solved_leg> legs;  ///< every leg at the solution
+    double residual = 0;           ///< premium at the solution - target, per unit
     double residual_position = 0;
-    int evaluations = 0;              ///< prices of the whole trade
-    double target_premium = 0;        ///< the quantity solve: budget / quantity
+    int evaluations = 0;        ///< prices of the whole trade
+    double target_premium = 0;  ///< the quantity solve: budget / quantity
     double premium_at_solution = 0;
-    double quantity = 0;              ///< units of the position at the solution
-    double notional = 0;              ///< quantity x spot
-    double position_premium = 0;      ///< signed by side
-    bool within_tolerance = false;    ///< |residual x quantity| <= 1e-8 of notional
-    std::string pricing;              ///< closed-form, lattice, or both
+    double quantity = 0;            ///< units of the position at the solution
+    double notional = 0;            ///< quantity x spot
+    double position_premium = 0;    ///< signed by side
+    bool within_tolerance = false;  ///< |residual x quantity| <= 1e-8 of notional
+    std::string pricing;            ///< closed-form, lattice, or both
     /// The quantity solve with a lot size: whole lots and what is left of the budget.
     double quantity_in_lots = 0, premium_in_lots = 0, budget_left = 0;
     std::vector<std::string> notes;

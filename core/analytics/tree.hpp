@@ -11,9 +11,9 @@ namespace hedgeleaf {
 
 /// The tree view's size and window (kept in the trade's `hedge` section, as the page does).
 struct tree_spec {
-    int steps = 0;      ///< 0 = the lattice path's move count, else default_tree_steps
+    int steps = 0;  ///< 0 = the lattice path's move count, else default_tree_steps
     int from_step = 0;
-    int to_step = -1;   ///< -1 = as far as the node cap allows
+    int to_step = -1;  ///< -1 = as far as the node cap allows
 };
 
 /// The tree command's settings: the window, and the moves of a lattice hedge path if any.

@@ -35,7 +35,8 @@ double price_work(lattice_method method, int steps) {
 }
 
 std::string steps_text(const trade& t) {
-    const int steps = effective_steps(t.lattice.method, t.lattice.steps > 0 ? t.lattice.steps : default_steps(t.lattice.method));
+    const int steps =
+        effective_steps(t.lattice.method, t.lattice.steps > 0 ? t.lattice.steps : default_steps(t.lattice.method));
     return std::to_string(steps) + " steps";
 }
 
@@ -80,7 +81,8 @@ void check_work_budget(const work_estimate& w, double budget) {
     if (!std::isfinite(budget)) return;
     if (w.node_updates <= budget) return;
     fail(w.field, w.what + " need about " + in_millions(w.node_updates) + " lattice node updates, more than the " +
-                      in_millions(budget) + " the page runs at once (a few seconds); use fewer steps, or the hedgeleaf "
+                      in_millions(budget) +
+                      " the page runs at once (a few seconds); use fewer steps, or the hedgeleaf "
                       "command-line tool, which has no such limit");
 }
 

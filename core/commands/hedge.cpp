@@ -25,9 +25,11 @@ std::vector<double> read_times(const json& list, const std::string& path, const 
         const double x = as_dates ? times.years_from_date(list[i], p) : as_number(list[i], p);
         if (!(x > 0)) fail(p, as_dates ? "must be after valuation_date" : "must be > 0, got " + format_number(x));
         if (x > T + time_tolerance_years)
-            fail(p, as_dates ? "must be on or before the final expiry " + to_iso(add_days(*t.valuation_date, std::lround(T * 365))) +
-                                   ", got " + list[i].get<std::string>()
-                             : "must be on or before the final expiry " + format_number(T) + " years, got " + format_number(x));
+            fail(p, as_dates ? "must be on or before the final expiry " +
+                                   to_iso(add_days(*t.valuation_date, std::lround(T * 365))) + ", got " +
+                                   list[i].get<std::string>()
+                             : "must be on or before the final expiry " + format_number(T) + " years, got " +
+                                   format_number(x));
         out.push_back(x);
     }
     return out;
@@ -64,7 +66,8 @@ std::vector<int> read_lattice_moves(field_reader& r) {
         const std::string path = r.child("nodes");
         if (!list.is_array()) fail(path, "must be a list of node indices, got " + describe(list));
         if (list.size() > static_cast<std::size_t>(max_tree_steps) + 1)
-            fail(path, "has " + std::to_string(list.size()) + " entries, at most " + std::to_string(max_tree_steps + 1));
+            fail(path,
+                 "has " + std::to_string(list.size()) + " entries, at most " + std::to_string(max_tree_steps + 1));
         std::vector<int> nodes;
         for (std::size_t i = 0; i < list.size(); ++i) {
             const double x = as_number(list[i], index_path(path, i));
@@ -75,8 +78,8 @@ std::vector<int> read_lattice_moves(field_reader& r) {
         moves = moves_from_nodes(nodes, path);
     }
     if (moves.size() > static_cast<std::size_t>(max_tree_steps))
-        fail(r.child(has_moves ? "moves" : "nodes"), "has " + std::to_string(moves.size()) + " moves, at most " +
-                                                        std::to_string(max_tree_steps));
+        fail(r.child(has_moves ? "moves" : "nodes"),
+             "has " + std::to_string(moves.size()) + " moves, at most " + std::to_string(max_tree_steps));
     return moves;
 }
 
@@ -94,8 +97,10 @@ void read_stress(field_reader& r, const trade& t, path_spec& p) {
     p.shape = enum_of<stress_shape>(stress_shapes, r.choice("shape", stress_shapes));
     p.change = r.number_or("change", default_stress_change);
     require_positive(p.change, r.child("change"));
-    if (p.shape == stress_shape::rise) require_at_most(p.change, max_rise, r.child("change"));
-    else if (!(p.change < 1)) fail(r.child("change"), "must be below 1 (a fall of 100 % or more), got " + format_number(p.change));
+    if (p.shape == stress_shape::rise)
+        require_at_most(p.change, max_rise, r.child("change"));
+    else if (!(p.change < 1))
+        fail(r.child("change"), "must be below 1 (a fall of 100 % or more), got " + format_number(p.change));
     if (p.shape == stress_shape::gap_down) {
         const years_reader times{t.valuation_date};
         const bool by_date = r.has("date");
@@ -173,8 +178,8 @@ hedge_settings read_hedge_settings(const json& document, const trade& t) {
     hs.cost_bp = r.number_or("cost_bp", 0.0);
     require_non_negative(hs.cost_bp, r.child("cost_bp"));
     require_at_most(hs.cost_bp, max_cost_bp, r.child("cost_bp"));
-    hs.lattice_steps = static_cast<int>(r.integer_or("lattice_steps", default_hedge_lattice_steps, min_hedge_lattice_steps,
-                                                       max_hedge_lattice_steps));
+    hs.lattice_steps = static_cast<int>(
+        r.integer_or("lattice_steps", default_hedge_lattice_steps, min_hedge_lattice_steps, max_hedge_lattice_steps));
     if (const json* node = r.raw_optional("tree")) hs.tree = read_tree_spec(*node);
     r.finish();
     return hs;
@@ -184,9 +189,12 @@ std::vector<int> parse_moves(const std::string& moves, const std::string& field)
     std::vector<int> out;
     for (std::size_t i = 0; i < moves.size(); ++i) {
         const char c = static_cast<char>(std::toupper(static_cast<unsigned char>(moves[i])));
-        if (c == 'U') out.push_back(1);
-        else if (c == 'D') out.push_back(0);
-        else if (c == ' ' || c == ',' || c == '-') continue;  // readable separators: "UUD DU"
+        if (c == 'U')
+            out.push_back(1);
+        else if (c == 'D')
+            out.push_back(0);
+        else if (c == ' ' || c == ',' || c == '-')
+            continue;  // readable separators: "UUD DU"
         else
             fail(field, "moves are U (up) or D (down); character " + std::to_string(i + 1) + " is \"" +
                             std::string(1, moves[i]) + "\"");
@@ -271,7 +279,8 @@ json rebalance_json(const hedge_settings& hs) {
 
 std::string pricing_text(const trade& t, const hedge_settings& hs) {
     bool early = false;
-    for (const auto& leg : t.legs) early = early || (leg.type != payoff_kind::stock && leg.exercise != exercise_style::european);
+    for (const auto& leg : t.legs)
+        early = early || (leg.type != payoff_kind::stock && leg.exercise != exercise_style::european);
     if (hs.path.kind == path_kind::lattice)
         return "values and deltas from the " + to_string(t.lattice.method) + " lattice of the path (" +
                std::to_string(hs.path.moves.size()) + " steps): replication is exact on it";
@@ -287,10 +296,13 @@ json table_columns_of(const trade& t, const hedge_totals& tot) {
     for (const auto& c : hedge_columns()) {
         const std::string name = c.name;
         if (name == "years" || name == "trade_cash_flow" || name == "desk_shares") continue;
-        if ((name == "paid" && tot.paid == 0) || (name == "dividends" && tot.dividends == 0) || (name == "cost" && tot.costs == 0))
+        if ((name == "paid" && tot.paid == 0) || (name == "dividends" && tot.dividends == 0) ||
+            (name == "cost" && tot.costs == 0))
             continue;
-        if (name == "date" && !t.valuation_date) table_columns.push_back("years");
-        else table_columns.push_back(name);
+        if (name == "date" && !t.valuation_date)
+            table_columns.push_back("years");
+        else
+            table_columns.push_back(name);
     }
     return table_columns;
 }
@@ -315,9 +327,10 @@ json desk_json(const trade& t, const hedge_schedule& s) {
             {"shares_at_start", s.rows.front().desk_shares},
             {"shares_at_end", s.rows.back().desk_shares},
             {"pnl", s.rows.back().desk_pnl},
-            {"view", "The desk is the client's counterparty: it receives signed_quantity x premium, owes the client the "
-                     "trade, and holds signed_quantity x the per-unit shares and cash (a desk that sold a put holds "
-                     "the put's negative delta: it is short shares). desk_pnl counts costs on |quantity|."}};
+            {"view",
+             "The desk is the client's counterparty: it receives signed_quantity x premium, owes the client the "
+             "trade, and holds signed_quantity x the per-unit shares and cash (a desk that sold a put holds "
+             "the put's negative delta: it is short shares). desk_pnl counts costs on |quantity|."}};
 }
 
 }  // namespace

@@ -56,7 +56,8 @@ double as_number(const json& value, const std::string& path) {
         char* end = nullptr;
         const double x = decimal ? std::strtod(text.c_str(), &end) : 0.0;
         if (decimal && end == text.c_str() + text.size()) {
-            if (!std::isfinite(x)) fail(path, "must be a finite number, got " + describe(value) + ", too large to hold");
+            if (!std::isfinite(x))
+                fail(path, "must be a finite number, got " + describe(value) + ", too large to hold");
             fail(path, "must be a number, got " + describe(value) + " (write numbers without quotes)");
         }
     }
@@ -67,13 +68,10 @@ double as_number(const json& value, const std::string& path) {
 }
 
 field_reader::field_reader(const json& object, std::string path) : object_(object), path_(std::move(path)) {
-    if (!object_.is_object())
-        fail(path_, "must be an object {...}, got " + describe(object_));
+    if (!object_.is_object()) fail(path_, "must be an object {...}, got " + describe(object_));
 }
 
-bool field_reader::has(const std::string& key) const {
-    return object_.contains(key) && !object_.at(key).is_null();
-}
+bool field_reader::has(const std::string& key) const { return object_.contains(key) && !object_.at(key).is_null(); }
 
 const json& field_reader::raw(const std::string& key) {
     seen_.insert(key);
@@ -112,8 +110,8 @@ long long field_reader::integer_or(const std::string& key, long long fallback, l
     const double x = as_number(*v, child(key));
     if (x != std::floor(x)) fail(child(key), "must be a whole number, got " + format_number(x));
     if (x < static_cast<double>(lo) || x > static_cast<double>(hi))
-        fail(child(key), "must be between " + std::to_string(lo) + " and " + std::to_string(hi) +
-                             ", got " + format_number(x));
+        fail(child(key),
+             "must be between " + std::to_string(lo) + " and " + std::to_string(hi) + ", got " + format_number(x));
     return static_cast<long long>(x);
 }
 
@@ -122,8 +120,8 @@ std::string field_reader::text(const std::string& key, std::size_t max_length) {
     if (!v.is_string()) fail(child(key), "must be text, got " + describe(v));
     const auto& s = v.get_ref<const std::string&>();
     if (s.size() > max_length)
-        fail(child(key), "is too long (" + std::to_string(s.size()) + " characters, at most " +
-                             std::to_string(max_length) + ")");
+        fail(child(key),
+             "is too long (" + std::to_string(s.size()) + " characters, at most " + std::to_string(max_length) + ")");
     return s;
 }
 
@@ -183,7 +181,10 @@ void field_reader::finish() const {
         std::size_t best = 3;
         for (const auto& known : seen_) {
             const std::size_t d = distance(it.key(), known);
-            if (d < best) { best = d; hint = known; }
+            if (d < best) {
+                best = d;
+                hint = known;
+            }
         }
         fail(join_path(path_, key),
              "unknown field" + (hint.empty() ? std::string() : " (did you mean \"" + hint + "\"?)"));
@@ -204,9 +205,12 @@ json parse_json_text(const std::string& text) {
     bool in_string = false, escaped = false;
     for (const char c : text) {
         if (in_string) {
-            if (escaped) escaped = false;
-            else if (c == '\\') escaped = true;
-            else if (c == '"') in_string = false;
+            if (escaped)
+                escaped = false;
+            else if (c == '\\')
+                escaped = true;
+            else if (c == '"')
+                in_string = false;
         } else if (c == '"') {
             in_string = true;
         } else if (c == '{' || c == '[') {

@@ -52,8 +52,7 @@ public:
     bool boolean_or(const std::string& key, bool fallback);
     /// A string that must be one of `choices`.
     std::string choice(const std::string& key, const std::vector<std::string>& choices);
-    std::string choice_or(const std::string& key, const std::vector<std::string>& choices,
-                          const std::string& fallback);
+    std::string choice_or(const std::string& key, const std::vector<std::string>& choices, const std::string& fallback);
 
     /// Reject keys that were never read (with a did-you-mean hint).
     void finish() const;

@@ -20,15 +20,18 @@ std::vector<double> read_axis(field_reader& r, const std::string& stem, const ax
     const double from = r.number_or(stem + "_from", defaults.from);
     const double to = r.number_or(stem + "_to", defaults.to);
     const double step = r.number_or(stem + "_step", defaults.step);
-    if (!(from >= lowest)) fail(from_path, "must be >= " + format_number(lowest) + why + ", got " + format_number(from));
+    if (!(from >= lowest))
+        fail(from_path, "must be >= " + format_number(lowest) + why + ", got " + format_number(from));
     if (!(to <= highest)) fail(to_path, "must be <= " + format_number(highest) + why + ", got " + format_number(to));
-    if (!(to >= from)) fail(to_path, "must be >= " + stem + "_from " + format_number(from) + ", got " + format_number(to));
+    if (!(to >= from))
+        fail(to_path, "must be >= " + stem + "_from " + format_number(from) + ", got " + format_number(to));
     require_positive(step, step_path);
     // A tolerance so that 0.4 / 0.02 counts as 20 steps, not 19.999...
     const double count = std::floor((to - from) / step + 1e-9) + 1;
     if (count > max_points_per_axis)
         fail(step_path, "gives " + format_number(count) + " rows from " + format_number(from) + " to " +
-                            format_number(to) + ", at most " + std::to_string(max_points_per_axis) + "; use a larger step");
+                            format_number(to) + ", at most " + std::to_string(max_points_per_axis) +
+                            "; use a larger step");
     std::vector<double> points;
     for (int i = 0; i < static_cast<int>(count); ++i) {
         points.push_back(tidy_decimal(from + i * step));
@@ -69,9 +72,11 @@ json ladder_columns(const trade& t, ladder_kind kind) {
     if (moves_volatility(kind)) columns.push_back("volatility");
     const bool greeks = kind != ladder_kind::grid;
     for (const char* c : {"value", "pnl"}) columns.push_back(c);
-    if (greeks) for (const char* c : {"delta", "gamma"}) columns.push_back(c);
+    if (greeks)
+        for (const char* c : {"delta", "gamma"}) columns.push_back(c);
     columns.push_back("position_pnl");
-    if (greeks) for (const char* c : {"position_delta", "position_gamma"}) columns.push_back(c);
+    if (greeks)
+        for (const char* c : {"position_delta", "position_gamma"}) columns.push_back(c);
     return columns;
 }
 
@@ -110,8 +115,8 @@ ladder_settings read_ladder_settings(const json& document, const trade& t) {
     const double vol = t.market.volatility;
     const double expiry_years = t.final_expiry_years();
     if (moves_spot(s.kind)) {
-        s.spot_shifts = read_axis(r, "spot", spot_axis, min_spot_shift, max_spot_shift,
-                                  " (a fraction of today's spot)");
+        s.spot_shifts =
+            read_axis(r, "spot", spot_axis, min_spot_shift, max_spot_shift, " (a fraction of today's spot)");
         s.axis_path = r.child("spot_from");
     }
     if (moves_volatility(s.kind)) {
@@ -146,23 +151,33 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
     }
     const scenario_value& today = result.today;
     json out{{"kind", word_of(ladder_kinds, s.kind)},
-             {"today", {{"value", today.value}, {"delta", today.delta}, {"gamma", today.gamma},
-                        {"spot", t.market.spot}, {"volatility", t.market.volatility}}},
+             {"today",
+              {{"value", today.value},
+               {"delta", today.delta},
+               {"gamma", today.gamma},
+               {"spot", t.market.spot},
+               {"volatility", t.market.volatility}}},
              {"quantity", t.quantity},
              {"side", t.client_sells ? "sell" : "buy"},
-             {"lattice", {{"method", to_string(t.lattice.method)},
-                          {"steps", effective_steps(t.lattice.method, s.steps)}, {"extrapolated", true}}},
+             {"lattice",
+              {{"method", to_string(t.lattice.method)},
+               {"steps", effective_steps(t.lattice.method, s.steps)},
+               {"extrapolated", true}}},
              {"rows", rows}};
     out["columns"] = ladder_columns(t, s.kind);
     if (s.kind == ladder_kind::grid)
-        out["grid"] = {{"spot_shifts", s.spot_shifts}, {"vol_shifts", s.vol_shifts}, {"pnl", grid_pnl},
+        out["grid"] = {{"spot_shifts", s.spot_shifts},
+                       {"vol_shifts", s.vol_shifts},
+                       {"pnl", grid_pnl},
                        {"position_pnl", grid_position}};
     json notes = json::array();
-    notes.push_back("values per unit; position figures are times the signed quantity; P&L is against today's value "
-                    "on the same lattice");
+    notes.push_back(
+        "values per unit; position figures are times the signed quantity; P&L is against today's value "
+        "on the same lattice");
     if (s.kind == ladder_kind::time)
-        notes.push_back("spot and volatility held; legs that have expired are paid at their payoff at today's spot; "
-                        "dividends paid by then drop out; premium is not carried");
+        notes.push_back(
+            "spot and volatility held; legs that have expired are paid at their payoff at today's spot; "
+            "dividends paid by then drop out; premium is not carried");
     out["notes"] = notes;
     out["caution"] = client_caution();
     return out;

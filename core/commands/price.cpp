@@ -16,8 +16,11 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
     const double q = t.signed_quantity();
     json legs = json::array();
     for (const auto& lr : r.legs) {
-        json leg{{"type", to_string(lr.leg.type)}, {"quantity", lr.leg.quantity}, {"premium", lr.lattice.premium},
-                 {"greeks", greeks_json(lr.lattice.sensitivities)}, {"closed_form_premium", lr.reference.premium},
+        json leg{{"type", to_string(lr.leg.type)},
+                 {"quantity", lr.leg.quantity},
+                 {"premium", lr.lattice.premium},
+                 {"greeks", greeks_json(lr.lattice.sensitivities)},
+                 {"closed_form_premium", lr.reference.premium},
                  {"error_estimate", lr.lattice.error_estimate}};
         if (lr.leg.type != payoff_kind::stock) {
             leg["strike"] = lr.leg.strike;
@@ -32,13 +35,20 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
         {"closed_form", {{"premium", r.reference.premium}, {"greeks", greeks_json(r.reference.sensitivities)}}},
         {"early_exercise_premium", r.has_early_exercise ? json(r.early_exercise_premium) : json(nullptr)},
         {"lattice",
-         {{"method", to_string(r.method)}, {"steps", r.steps}, {"coarse_steps", r.coarse_steps},
-          {"extrapolated", r.extrapolated}, {"error_estimate", r.error_estimate}}},
+         {{"method", to_string(r.method)},
+          {"steps", r.steps},
+          {"coarse_steps", r.coarse_steps},
+          {"extrapolated", r.extrapolated},
+          {"error_estimate", r.error_estimate}}},
         {"replication",
-         {{"spot", r.replication.spot}, {"shares", r.replication.shares}, {"cash", r.replication.cash},
+         {{"spot", r.replication.spot},
+          {"shares", r.replication.shares},
+          {"cash", r.replication.cash},
           {"value", r.replication.value}}},
         {"position",
-         {{"quantity", t.quantity}, {"side", t.client_sells ? "sell" : "buy"}, {"premium", q * r.premium},
+         {{"quantity", t.quantity},
+          {"side", t.client_sells ? "sell" : "buy"},
+          {"premium", q * r.premium},
           {"greeks", greeks_json(q * r.sensitivities)}}},
         {"legs", legs},
         {"spot", t.market.spot},

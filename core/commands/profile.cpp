@@ -42,7 +42,8 @@ profile_settings read_profile_settings(const json& document, const trade& t) {
     require_positive(s.spot_low, r.child("spot_low"));
     require_at_most(s.spot_high, max_price_level, r.child("spot_high"));
     if (!(s.spot_high > s.spot_low))
-        fail(r.child("spot_high"), "must be above spot_low " + format_number(s.spot_low) + ", got " + format_number(s.spot_high));
+        fail(r.child("spot_high"),
+             "must be above spot_low " + format_number(s.spot_low) + ", got " + format_number(s.spot_high));
     s.points = static_cast<int>(r.integer_or("points", default_profile_points, 2, max_profile_points));
     s.steps = static_cast<int>(r.integer_or("steps", default_ladder_steps, 1, max_profile_steps));
     s.finance_premium = r.boolean_or("finance_premium", false);
@@ -53,17 +54,18 @@ profile_settings read_profile_settings(const json& document, const trade& t) {
 json write_profile_result(const trade& t, const profile_settings& s, const profile_result& p) {
     json ranges = json::array();
     for (const auto& [a, b] : p.zero_pnl.ranges) ranges.push_back({a, b});
-    json out{{"premium", p.premium},
-             {"cost_at_expiry", p.cost_at_expiry},
-             {"finance_premium", s.finance_premium},
-             {"horizon_years", p.horizon_years},
-             {"break_even", p.zero_pnl.points},
-             {"break_even_ranges", ranges},
-             {"quantity", t.quantity},
-             {"side", t.client_sells ? "sell" : "buy"},
-             {"lattice", {{"method", to_string(t.lattice.method)}, {"steps", effective_steps(t.lattice.method, s.steps)}}},
-             {"rows", row_objects(profile_columns(), p.rows)},
-             {"columns", column_names(profile_columns())}};
+    json out{
+        {"premium", p.premium},
+        {"cost_at_expiry", p.cost_at_expiry},
+        {"finance_premium", s.finance_premium},
+        {"horizon_years", p.horizon_years},
+        {"break_even", p.zero_pnl.points},
+        {"break_even_ranges", ranges},
+        {"quantity", t.quantity},
+        {"side", t.client_sells ? "sell" : "buy"},
+        {"lattice", {{"method", to_string(t.lattice.method)}, {"steps", effective_steps(t.lattice.method, s.steps)}}},
+        {"rows", row_objects(profile_columns(), p.rows)},
+        {"columns", column_names(profile_columns())}};
     if (t.valuation_date) out["horizon_date"] = to_iso(add_days(*t.valuation_date, std::lround(p.horizon_years * 365)));
     if (p.one_expiry) {
         out["max_pnl_at_expiry"] = optional_number(p.max_pnl);

@@ -12,9 +12,8 @@ namespace {
 
 /// Characters (not bytes) of UTF-8 text: continuation bytes are not counted.
 std::size_t char_count(const std::string& s) {
-    return static_cast<std::size_t>(std::count_if(s.begin(), s.end(), [](char c) {
-        return (static_cast<unsigned char>(c) & 0xC0) != 0x80;
-    }));
+    return static_cast<std::size_t>(
+        std::count_if(s.begin(), s.end(), [](char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
 }
 
 /// Plain text for the page and the printed sheet: length-limited, no control
@@ -65,7 +64,8 @@ void check_margin(const trade& t, margin_kind kind, double margin, const std::st
 }
 
 json level_json(const price_level& level) {
-    return json{{"per_unit", level.per_unit}, {"total", level.total}, {"fraction_of_notional", level.fraction_of_notional}};
+    return json{
+        {"per_unit", level.per_unit}, {"total", level.total}, {"fraction_of_notional", level.fraction_of_notional}};
 }
 
 }  // namespace
@@ -85,10 +85,14 @@ std::optional<quote_terms> read_quote_terms(const json& document, const trade& t
         require_positive(*q.tick, r.child("tick"));
         require_at_most(*q.tick, t.market.spot, r.child("tick"));
     }
-    if (r.has("client")) q.client = plain_text(r, "client", max_client_name_chars, false);
-    else r.raw_optional("client");
-    if (r.has("notes")) q.notes = plain_text(r, "notes", max_notes_chars, true);
-    else r.raw_optional("notes");
+    if (r.has("client"))
+        q.client = plain_text(r, "client", max_client_name_chars, false);
+    else
+        r.raw_optional("client");
+    if (r.has("notes"))
+        q.notes = plain_text(r, "notes", max_notes_chars, true);
+    else
+        r.raw_optional("notes");
     r.finish();
     return q;
 }

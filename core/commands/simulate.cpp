@@ -36,12 +36,14 @@ simulate_settings read_simulate_settings(const json& document, const trade& t) {
     if (const json* list = r.raw_optional("frequencies")) {
         const std::string path = r.child("frequencies");
         if (!list->is_array() || list->empty() || list->size() > max_frequencies)
-            fail(path, "must be a list of 1 to " + std::to_string(max_frequencies) + " {every, unit} objects, got " + describe(*list));
+            fail(path, "must be a list of 1 to " + std::to_string(max_frequencies) + " {every, unit} objects, got " +
+                           describe(*list));
         s.frequencies.clear();
         for (std::size_t i = 0; i < list->size(); ++i)
             s.frequencies.push_back(read_rebalance((*list)[i], index_path(path, i), t));
     }
-    s.lattice_steps = static_cast<int>(r.integer_or("lattice_steps", 0, min_simulate_lattice_steps, max_simulate_lattice_steps));
+    s.lattice_steps =
+        static_cast<int>(r.integer_or("lattice_steps", 0, min_simulate_lattice_steps, max_simulate_lattice_steps));
     r.finish();
     return s;
 }
@@ -51,7 +53,9 @@ namespace {
 std::string frequency_label(const rebalance_spec& f) {
     if (f.explicit_dates) return "listed dates";
     return "every " + std::to_string(f.every) + " " +
-           (f.unit == rebalance_unit::days ? "business days" : f.unit == rebalance_unit::weeks ? "weeks" : "months");
+           (f.unit == rebalance_unit::days    ? "business days"
+            : f.unit == rebalance_unit::weeks ? "weeks"
+                                              : "months");
 }
 
 using summary_column = column<pnl_summary>;
@@ -72,7 +76,8 @@ const std::vector<summary_column>& summary_columns() {
         {"min", &pnl_summary::min},
         {"max", &pnl_summary::max},
         {"mean_costs", &pnl_summary::mean_costs},
-        {"derman_kamal_sd", [](const pnl_summary& s) { return s.derman_kamal_sd ? json(*s.derman_kamal_sd) : json(nullptr); }},
+        {"derman_kamal_sd",
+         [](const pnl_summary& s) { return s.derman_kamal_sd ? json(*s.derman_kamal_sd) : json(nullptr); }},
         {"desk_mean", &pnl_summary::desk_mean},
         {"desk_sd", &pnl_summary::desk_sd},
     };
@@ -99,8 +104,8 @@ json table_columns_of(const simulate_settings& st, const simulation& sim) {
 json write_simulate_result(const trade& t, const simulate_settings& st, const simulation& sim) {
     json series = json::array();
     for (const auto& s : sim.frequencies)
-        series.push_back(json{{"frequency", frequency_label(s.frequency)}, {"counts", s.counts}, {"below", s.below},
-                              {"above", s.above}});
+        series.push_back(json{
+            {"frequency", frequency_label(s.frequency)}, {"counts", s.counts}, {"below", s.below}, {"above", s.above}});
     return json{
         {"rows", row_objects(summary_columns(), sim.frequencies)},
         {"columns", column_names(summary_columns())},
@@ -122,7 +127,8 @@ json write_simulate_result(const trade& t, const simulate_settings& st, const si
          "mean of a client sale is not the per-unit mean times the quantity)."},
         {"derman_kamal",
          sim.derman_kamal
-             ? json("derman_kamal_sd = sqrt(pi/4) x vega x volatility / sqrt(N), N = hedge intervals: the sd of the hedging "
+             ? json("derman_kamal_sd = sqrt(pi/4) x vega x volatility / sqrt(N), N = hedge intervals: the sd of the "
+                    "hedging "
                     "error of an at-the-money European option (Derman and Kamal (1999), from memory); close to sd when "
                     "realised and pricing volatility agree, the option is near the money and there are no costs")
              : json(nullptr)},

@@ -30,7 +30,8 @@ void read_strike_terms(field_reader& r, const trade& t, solve_settings& s) {
     const long last = static_cast<long>(t.legs.size()) - 1;
     const std::string leg_path = r.child("leg");
     if (last > 0 && !r.has("leg"))
-        fail(leg_path, "is required: which leg's strike to solve (0 to " + std::to_string(last) + ", in the order of "
+        fail(leg_path, "is required: which leg's strike to solve (0 to " + std::to_string(last) +
+                           ", in the order of "
                            "the legs; a ready-made structure lists its legs in the result of price)");
     s.leg = static_cast<std::size_t>(r.integer_or("leg", 0, 0, last));
     if (t.legs[s.leg].type == payoff_kind::stock)
@@ -67,12 +68,17 @@ json leg_rows(const std::vector<solved_leg>& legs) {
 // The part that depends on the unknown, in the order the result gives it.
 json unknown_json(const solve_settings& s, const solve_result& r) {
     if (s.unknown == solve_unknown::volatility)
-        return json{{"solution", r.solution}, {"target_premium", r.target_premium}, {"lower", s.lower},
-                    {"upper", s.upper}, {"rows", leg_rows(r.legs)}};
+        return json{{"solution", r.solution},
+                    {"target_premium", r.target_premium},
+                    {"lower", s.lower},
+                    {"upper", s.upper},
+                    {"rows", leg_rows(r.legs)}};
     if (s.unknown == solve_unknown::strike)
-        return json{{"solution", r.solution}, {"leg", s.leg}, {"target_premium", r.target_premium},
-                    {"lower", s.lower}, {"upper", s.upper}, {"rows", leg_rows(r.legs)}};
-    json out{{"solution", r.solution}, {"target_premium", r.target_premium}, {"budget", s.budget},
+        return json{{"solution", r.solution}, {"leg", s.leg},     {"target_premium", r.target_premium},
+                    {"lower", s.lower},       {"upper", s.upper}, {"rows", leg_rows(r.legs)}};
+    json out{{"solution", r.solution},
+             {"target_premium", r.target_premium},
+             {"budget", s.budget},
              {"rows", leg_rows(r.legs)}};
     if (s.lot_size) {
         out["lot_size"] = *s.lot_size;
@@ -92,9 +98,12 @@ solve_settings read_solve_settings(const json& document, const trade& t) {
     field_reader r(*section, "solve");
     solve_settings s;
     s.unknown = enum_of<solve_unknown>(solve_unknowns, r.choice("for", solve_unknowns));
-    if (s.unknown == solve_unknown::volatility) read_volatility_terms(r, t, s);
-    else if (s.unknown == solve_unknown::strike) read_strike_terms(r, t, s);
-    else read_quantity_terms(r, s);
+    if (s.unknown == solve_unknown::volatility)
+        read_volatility_terms(r, t, s);
+    else if (s.unknown == solve_unknown::strike)
+        read_strike_terms(r, t, s);
+    else
+        read_quantity_terms(r, s);
     r.finish();
     return s;
 }

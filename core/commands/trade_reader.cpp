@@ -38,8 +38,8 @@ market_data read_market(const json& node, const years_reader& times) {
             div.amount = d.number("amount");
             require_non_negative(div.amount, d.child("amount"));
             if (!(div.amount < m.spot))
-                fail(d.child("amount"), "must be below market.spot " + format_number(m.spot) + ", got " +
-                                            format_number(div.amount));
+                fail(d.child("amount"),
+                     "must be below market.spot " + format_number(m.spot) + ", got " + format_number(div.amount));
             d.finish();
             m.dividends.push_back(div);
         }
@@ -107,8 +107,7 @@ std::vector<double> read_exercise_schedule(field_reader& r, const years_reader& 
     if (!dates && !years) fail(r.child("exercise_dates"), "a bermudan option needs a list of exercise dates");
     const std::string path = r.child(dates ? "exercise_dates" : "exercise_years");
     const json& list = dates ? *dates : *years;
-    if (!list.is_array() || list.empty())
-        fail(path, "must be a non-empty list, got " + describe(list));
+    if (!list.is_array() || list.empty()) fail(path, "must be a non-empty list, got " + describe(list));
     if (list.size() > max_exercise_dates)
         fail(path, "has " + std::to_string(list.size()) + " dates, at most " + std::to_string(max_exercise_dates));
     for (std::size_t i = 0; i < list.size(); ++i) {
@@ -133,8 +132,7 @@ double years_reader::years_from_date(const json& value, const std::string& path)
 double years_reader::read_years(field_reader& r, const std::string& years_key, const std::string& date_key) const {
     const bool has_years = r.has(years_key);
     const bool has_date = r.has(date_key);
-    if (has_years && has_date)
-        fail(r.child(years_key), "give either " + years_key + " or " + date_key + ", not both");
+    if (has_years && has_date) fail(r.child(years_key), "give either " + years_key + " or " + date_key + ", not both");
     if (!has_years && !has_date) {
         r.raw_optional(years_key);
         r.raw_optional(date_key);
@@ -180,16 +178,16 @@ std::vector<option_leg> read_structure(const json& node, const years_reader& tim
     const std::string path = r.child("strikes");
     if (!list.is_array()) fail(path, "must be a list of strikes in ascending order, got " + describe(list));
     if (static_cast<int>(list.size()) != strike_count)
-        fail(path, "a " + name + " takes " + std::to_string(strike_count) + " strike" +
-                       (strike_count > 1 ? "s" : "") + ", got " + std::to_string(list.size()));
+        fail(path, "a " + name + " takes " + std::to_string(strike_count) + " strike" + (strike_count > 1 ? "s" : "") +
+                       ", got " + std::to_string(list.size()));
     std::vector<double> strikes;
     for (std::size_t i = 0; i < list.size(); ++i) {
         const double k = as_number(list[i], index_path(path, i));
         require_positive(k, index_path(path, i));
         require_at_most(k, max_price_level, index_path(path, i));
         if (!strikes.empty() && !(k > strikes.back()))
-            fail(index_path(path, i), "strikes must be in ascending order, got " + format_number(k) +
-                                          " after " + format_number(strikes.back()));
+            fail(index_path(path, i), "strikes must be in ascending order, got " + format_number(k) + " after " +
+                                          format_number(strikes.back()));
         strikes.push_back(k);
     }
 
@@ -198,7 +196,8 @@ std::vector<option_leg> read_structure(const json& node, const years_reader& tim
     json common = json::object();
     for (const char* key : {"expiry_years", "expiry_date", "exercise"})
         if (r.has(key)) common[key] = r.raw(key);
-    if (common.contains("exercise") && common["exercise"] == "bermudan")  // any type: read_option_leg names a non-string
+    if (common.contains("exercise") &&
+        common["exercise"] == "bermudan")  // any type: read_option_leg names a non-string
         fail(r.child("exercise"), "structures are european or american; give bermudan options as legs");
     common["type"] = "call";
     common["strike"] = strikes.front();
@@ -263,7 +262,8 @@ trade read_trade(const json& document) {
 
     const double pv = t.market.dividend_pv(0, t.final_expiry_years());
     if (!(pv < t.market.spot))
-        fail("market.dividends", "present value " + format_number(pv) + " of dividends before expiry must be below market.spot " +
+        fail("market.dividends", "present value " + format_number(pv) +
+                                     " of dividends before expiry must be below market.spot " +
                                      format_number(t.market.spot));
 
     // Sections read by their own modules; named here so misspellings are caught.

@@ -7,9 +7,9 @@ namespace hedgeleaf {
 
 namespace {
 json node_json(const tree_node& node, double dt) {
-    return json{{"step", node.step},       {"index", node.index},   {"time_years", node.step * dt},
-                {"spot", node.spot},       {"value", node.value},   {"paid", node.paid},
-                {"shares", node.shares},   {"cash", node.cash},     {"event", to_string(node.event)},
+    return json{{"step", node.step},     {"index", node.index}, {"time_years", node.step * dt},
+                {"spot", node.spot},     {"value", node.value}, {"paid", node.paid},
+                {"shares", node.shares}, {"cash", node.cash},   {"event", to_string(node.event)},
                 {"check", node.check()}};
 }
 }  // namespace

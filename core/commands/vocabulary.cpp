@@ -138,8 +138,8 @@ void hedge_fields(json& f) {
     f["hedge.path.change"] = by_default(positive_up_to(max_rise), default_stress_change);
     f["hedge.path.years"] = above(number_field(), 0);
     f["hedge.cost_bp"] = by_default(between(number_field(), 0, max_cost_bp), 0);
-    f["hedge.lattice_steps"] =
-        by_default(between(whole_field(), min_hedge_lattice_steps, max_hedge_lattice_steps), default_hedge_lattice_steps);
+    f["hedge.lattice_steps"] = by_default(between(whole_field(), min_hedge_lattice_steps, max_hedge_lattice_steps),
+                                          default_hedge_lattice_steps);
     f["hedge.tree.steps"] = between(whole_field(), 1, max_tree_steps);
     f["hedge.tree.from_step"] = by_default(between(whole_field(), 0, max_tree_steps), 0);
     f["hedge.tree.to_step"] = between(whole_field(), 0, max_tree_steps);
@@ -159,7 +159,8 @@ void simulate_fields(json& f) {
 
 json lists() {
     json shapes = json::array();
-    for (const auto& shape : structure_shapes()) shapes.push_back({{"name", shape}, {"strikes", shape_strike_count(shape)}});
+    for (const auto& shape : structure_shapes())
+        shapes.push_back({{"name", shape}, {"strikes", shape_strike_count(shape)}});
     return json{{"option_types", option_types},
                 {"leg_types", leg_types},
                 {"exercise_styles", exercise_styles},

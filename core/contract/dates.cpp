@@ -55,8 +55,8 @@ date parse_iso_date(const std::string& text, const std::string& field) {
     };
     date d{num(0, 4), num(5, 2), num(8, 2)};
     if (d.year < min_year || d.year > max_year)
-        fail(field, "year must be between " + std::to_string(min_year) + " and " + std::to_string(max_year) + ", got \"" +
-                        text + "\"");
+        fail(field, "year must be between " + std::to_string(min_year) + " and " + std::to_string(max_year) +
+                        ", got \"" + text + "\"");
     if (d.month < 1 || d.month > 12 || d.day < 1 || d.day > days_in_month(d.year, d.month))
         fail(field, "is not a calendar date: \"" + text + "\"");
     return d;

@@ -19,9 +19,12 @@ std::string one_line(const std::string& text) {
     out.reserve(text.size());
     for (const char c : text) {
         const auto u = static_cast<unsigned char>(c);
-        if (c == '\n') out += "\\n";
-        else if (c == '\r') out += "\\r";
-        else if (c == '\t') out += "\\t";
+        if (c == '\n')
+            out += "\\n";
+        else if (c == '\r')
+            out += "\\r";
+        else if (c == '\t')
+            out += "\\t";
         else if (u < 0x20 || u == 0x7f) {
             char buf[8];
             std::snprintf(buf, sizeof buf, "\\u%04x", u);

@@ -86,8 +86,8 @@ inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accurac
 
 // ---- quote ---------------------------------------------------------------
 
-inline constexpr double max_margin_fraction = 1.0;     ///< a margin of the whole premium on each side
-inline constexpr double max_volatility_margin = 0.5;   ///< fifty volatility points
+inline constexpr double max_margin_fraction = 1.0;        ///< a margin of the whole premium on each side
+inline constexpr double max_volatility_margin = 0.5;      ///< fifty volatility points
 inline constexpr std::size_t max_client_name_chars = 80;  ///< printed on the sheet
 inline constexpr std::size_t max_notes_chars = 500;
 
@@ -136,7 +136,7 @@ inline constexpr double max_spot_shift = 4.0;    ///< spot five times today's
 struct axis_defaults {
     double from, to, step;
 };
-inline constexpr axis_defaults spot_axis{-0.2, 0.2, 0.02};  ///< fractions of today's spot
+inline constexpr axis_defaults spot_axis{-0.2, 0.2, 0.02};   ///< fractions of today's spot
 inline constexpr axis_defaults vol_axis{-0.05, 0.05, 0.01};  ///< volatility points as decimals
 inline constexpr long max_ladder_days = 36500;
 inline constexpr int default_profile_points = 41;

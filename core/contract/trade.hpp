@@ -40,7 +40,7 @@ struct market_data {
 /// One option (or share) position inside a trade.
 struct option_leg {
     payoff_kind type = payoff_kind::call;
-    double strike = 0;                   ///< unused for stock
+    double strike = 0;  ///< unused for stock
     double expiry_years = 0;
     exercise_style exercise = exercise_style::european;
     std::vector<double> exercise_years;  ///< Bermudan exercise dates (the expiry always may)

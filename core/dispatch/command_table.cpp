@@ -35,8 +35,10 @@ struct steps {
     static constexpr bool needs_settings = !std::is_invocable_v<decltype(estimate), const trade&>;
 
     static work_estimate estimate_of(const json& document, const trade& t) {
-        if constexpr (needs_settings) return estimate(t, read(document, t));
-        else return estimate(t);
+        if constexpr (needs_settings)
+            return estimate(t, read(document, t));
+        else
+            return estimate(t);
     }
 
     static json execute(const command_descriptor& self, const json& document, const trade& t, double budget) {
@@ -67,11 +69,9 @@ const std::vector<command_descriptor>& command_table() {
         describe<steps<read_price_settings, estimate_price_work, run_price, write_price_result>>(
             "price", "premium, Greeks and replicating portfolio; the client price with a quote section",
             "lattice.steps"),
-        describe<steps<read_profile_settings, estimate_bounded_work, run_profile,
-                       write_profile_result>>(
+        describe<steps<read_profile_settings, estimate_bounded_work, run_profile, write_profile_result>>(
             "profile", "payoff and P&L at expiry, value today, break-even spots (profile section)", "profile.steps"),
-        describe<steps<read_simulate_settings, estimate_bounded_work, run_simulation,
-                       write_simulate_result>>(
+        describe<steps<read_simulate_settings, estimate_bounded_work, run_simulation, write_simulate_result>>(
             "simulate", "P&L of discrete delta hedging over many simulated paths (simulate section)", "lattice.steps"),
         describe<steps<read_solve_settings, estimate_solve_work, run_solve, write_solve_result>>(
             "solve", "the volatility, a strike or the quantity for a target (solve section)", "lattice.steps"),

@@ -9,7 +9,9 @@
 namespace hedgeleaf {
 
 namespace {
-std::string envelope_text(const json& envelope) { return envelope.dump(-1, ' ', false, json::error_handler_t::replace); }
+std::string envelope_text(const json& envelope) {
+    return envelope.dump(-1, ' ', false, json::error_handler_t::replace);
+}
 }  // namespace
 
 const char* engine_version() { return project_version; }
@@ -35,8 +37,8 @@ std::string run_command_text(const std::string& command, const std::string& text
     } catch (const input_error& e) {
         return envelope_text(json{{"ok", false}, {"error", {{"field", e.field()}, {"message", e.what()}}}});
     } catch (const std::bad_alloc&) {
-        return envelope_text(
-            json{{"ok", false}, {"error", {{"field", ""}, {"message", "out of memory: reduce lattice.steps or paths"}}}});
+        return envelope_text(json{
+            {"ok", false}, {"error", {{"field", ""}, {"message", "out of memory: reduce lattice.steps or paths"}}}});
     } catch (const std::exception& e) {
         return envelope_text(
             json{{"ok", false}, {"error", {{"field", ""}, {"message", std::string("internal error: ") + e.what()}}}});

@@ -5,9 +5,7 @@
 
 namespace hedgeleaf {
 
-greeks operator*(double s, const greeks& g) {
-    return {s * g.delta, s * g.gamma, s * g.theta, s * g.vega, s * g.rho};
-}
+greeks operator*(double s, const greeks& g) { return {s * g.delta, s * g.gamma, s * g.theta, s * g.vega, s * g.rho}; }
 greeks operator+(const greeks& a, const greeks& b) {
     return {a.delta + b.delta, a.gamma + b.gamma, a.theta + b.theta, a.vega + b.vega, a.rho + b.rho};
 }

@@ -16,16 +16,16 @@ namespace {
 // low volatility) p rounds to 1 or 0 while 1 - p or p is still tiny but exact here,
 // so the step stays defined (was "breaks no-arbitrage, down 0, up 0").
 struct log_probability {
-    double p;           ///< log p
-    double not_p;       ///< log (1 - p)
+    double p;      ///< log p
+    double not_p;  ///< log (1 - p)
 };
 log_probability peizer_pratt(double z, int n) {
     const double nn = static_cast<double>(n);
     const double a = z / (nn + 1.0 / 3.0 + 0.1 / (nn + 1.0));
     const double x = a * a * (nn + 1.0 / 6.0);
-    const double root = std::sqrt(-std::expm1(-x));                   // sqrt(1 - e^-x)
-    const double log_big = std::log1p(root) - std::log(2.0);           // log (1 + root) / 2
-    const double log_small = -x - std::log(2.0) - std::log1p(root);    // log (1 - root) / 2
+    const double root = std::sqrt(-std::expm1(-x));                  // sqrt(1 - e^-x)
+    const double log_big = std::log1p(root) - std::log(2.0);         // log (1 + root) / 2
+    const double log_small = -x - std::log(2.0) - std::log1p(root);  // log (1 - root) / 2
     return z >= 0 ? log_probability{log_big, log_small} : log_probability{log_small, log_big};
 }
 
@@ -98,8 +98,9 @@ lattice_step make_step(lattice_method method, const market_data& m, double strik
              "the " + to_string(method) + " lattice breaks no-arbitrage (needs 0 < down < growth < up; got down " +
                  format_number(st.down) + ", growth " + format_number(st.growth) + ", up " + format_number(st.up) +
                  ") with market.volatility " + format_number(sigma) + ", market.rate " + format_number(m.rate) +
-                 ", market.carry_yield " + format_number(m.carry_yield) + " and lattice.steps " + std::to_string(steps) +
-                 " over " + format_number(expiry_years) + " years; raise the volatility or lattice.steps, or narrow the rate-carry gap");
+                 ", market.carry_yield " + format_number(m.carry_yield) + " and lattice.steps " +
+                 std::to_string(steps) + " over " + format_number(expiry_years) +
+                 " years; raise the volatility or lattice.steps, or narrow the rate-carry gap");
     }
     st.p_up = (st.growth - st.down) / (st.up - st.down);
     return st;

@@ -36,8 +36,7 @@ double diffusing_spot(const market_data& market, double expiry_years);
 
 /// Build the step for `method` with `steps` steps to `expiry_years`. `strike` centres
 /// Leisen-Reimer. Throws input_error naming the inputs if 0 < d < growth < u fails.
-lattice_step make_step(lattice_method method, const market_data& market, double strike, double expiry_years,
-                       int steps);
+lattice_step make_step(lattice_method method, const market_data& market, double strike, double expiry_years, int steps);
 
 /// Which steps allow early exercise (size steps+1; the last step always pays).
 std::vector<char> exercise_steps(const option_leg& leg, int steps, double dt);

@@ -56,7 +56,7 @@ struct sweep {
                                       // pricing measure and the share measure (p u / growth)
     bool full = true;                 // sweep every node (no truncation)
     bool early = false, has_dividends = false;
-    double updates = 0;               // node updates done
+    double updates = 0;  // node updates done
     double row1[2] = {0, 0}, row2[3] = {0, 0, 0};
 };
 
@@ -87,11 +87,13 @@ void fill_powers(double log_ratio, int first, int count, double* table) {
 
 // First index i in [0, count) with factor * r[i] >= level (count if none); r increases.
 int first_at_or_above(const double* r, int count, double factor, double level) {
-    return static_cast<int>(std::lower_bound(r, r + count, level, [factor](double x, double lv) { return factor * x < lv; }) - r);
+    return static_cast<int>(
+        std::lower_bound(r, r + count, level, [factor](double x, double lv) { return factor * x < lv; }) - r);
 }
 // First index i in [0, count) with factor * r[i] > level.
 int first_above(const double* r, int count, double factor, double level) {
-    return static_cast<int>(std::upper_bound(r, r + count, level, [factor](double lv, double x) { return lv < factor * x; }) - r);
+    return static_cast<int>(
+        std::upper_bound(r, r + count, level, [factor](double lv, double x) { return lv < factor * x; }) - r);
 }
 
 // The hot loops. Each node depends only on the row below, so the loops carry no
@@ -101,12 +103,12 @@ int first_above(const double* r, int count, double factor, double level) {
 HEDGELEAF_ROW_INLINE void continue_range(double* __restrict v, int from, int to, double pu, double pd) {
     for (int i = from; i < to; ++i) v[i] = pu * v[i + 1] + pd * v[i];
 }
-HEDGELEAF_ROW_INLINE void put_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
-                      double level, double factor) {
+HEDGELEAF_ROW_INLINE void put_range(double* __restrict v, const double* __restrict r, int from, int to, double pu,
+                                    double pd, double level, double factor) {
     for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], level - factor * r[i]);
 }
-HEDGELEAF_ROW_INLINE void call_range(double* __restrict v, const double* __restrict r, int from, int to, double pu, double pd,
-                       double level, double factor) {
+HEDGELEAF_ROW_INLINE void call_range(double* __restrict v, const double* __restrict r, int from, int to, double pu,
+                                     double pd, double level, double factor) {
     for (int i = from; i < to; ++i) v[i] = std::max(pu * v[i + 1] + pd * v[i], factor * r[i] - level);
 }
 
@@ -117,9 +119,9 @@ struct row_plan {
     row_rule rule = row_rule::hold;
     int lo = 0, hi = 0;            // nodes swept: [lo, hi] (the probable band, or the whole row)
     int next_lo = 0, next_hi = 0;  // the band of the row below (row n + 1)
-    int split = 0;             // put: exercise can pay in [0, split); call: in [split, n]
-    double factor = 0;         // node i's diffusing spot is factor * r[i]
-    double level = 0;          // strike - pv of the dividends still to come
+    int split = 0;                 // put: exercise can pay in [0, split); call: in [split, n]
+    double factor = 0;             // node i's diffusing spot is factor * r[i]
+    double level = 0;              // strike - pv of the dividends still to come
     double pv = 0;
     const double* r = nullptr;
 };
@@ -213,9 +215,7 @@ HEDGELEAF_ROW_INLINE void apply_row(const sweep& w, const row_plan& plan, int lo
     // call's down: there max(hold, exercise) is hold, the same value.
     const int end = hi == plan.hi + 1 ? lo + (hi - lo + 7) / 8 * 8 : hi;
     switch (plan.rule) {
-        case row_rule::hold:
-            continue_range(v, lo, end, w.pu, w.pd);
-            return;
+        case row_rule::hold: continue_range(v, lo, end, w.pu, w.pd); return;
         case row_rule::put: {
             const int m = std::min(end, lo + (std::clamp(plan.split, lo, hi) - lo + 7) / 8 * 8);
             put_range(v, plan.r, lo, m, w.pu, w.pd, plan.level, plan.factor);
@@ -230,7 +230,8 @@ HEDGELEAF_ROW_INLINE void apply_row(const sweep& w, const row_plan& plan, int lo
         }
         case row_rule::general:
             for (int i = lo; i < hi; ++i)
-                v[i] = std::max(w.pu * v[i + 1] + w.pd * v[i], exercise_value(*w.leg, plan.factor * plan.r[i] + plan.pv));
+                v[i] =
+                    std::max(w.pu * v[i + 1] + w.pd * v[i], exercise_value(*w.leg, plan.factor * plan.r[i] + plan.pv));
             return;
     }
 }
@@ -251,6 +252,7 @@ public:
 #if defined(__SSE__) || defined(__x86_64__)
     flush_subnormals() : saved_(_mm_getcsr()) { _mm_setcsr(saved_ | 0x8040u); }  // FTZ | DAZ
     ~flush_subnormals() { _mm_setcsr(saved_); }
+
 private:
     unsigned saved_;
 #endif
@@ -285,7 +287,6 @@ std::vector<double>& scratch(std::size_t size) {
     if (buffer.size() < size) buffer.resize(size);
     return buffer;
 }
-
 
 // The sweep's constants for `leg` on the step `st` (n_steps steps, diffusing spot s0).
 sweep sweep_for(const market_data& market, const option_leg& leg, const lattice_step& st, int n_steps, double s0,

@@ -98,12 +98,13 @@ void add_bumped_greeks(const market_data& market, const option_leg& leg, const l
         if (up && down) return (*up - *down) / (2 * h);
         if (up) return (*up - out.premium) / h;
         if (down) return (out.premium - *down) / h;
-        fail("market.volatility", "the lattice cannot be bumped on either side of these inputs to measure vega and rho; "
-                                  "raise the volatility or lattice.steps");
+        fail("market.volatility",
+             "the lattice cannot be bumped on either side of these inputs to measure vega and rho; "
+             "raise the volatility or lattice.steps");
     };
     const double hv = std::min(vega_bump, 0.5 * market.volatility);
-    out.sensitivities.vega = slope(premium_with(market.volatility + hv, market.rate),
-                                   premium_with(market.volatility - hv, market.rate), hv);
+    out.sensitivities.vega =
+        slope(premium_with(market.volatility + hv, market.rate), premium_with(market.volatility - hv, market.rate), hv);
     out.sensitivities.rho = slope(premium_with(market.volatility, market.rate + rho_bump),
                                   premium_with(market.volatility, market.rate - rho_bump), rho_bump);
 }

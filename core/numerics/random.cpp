@@ -35,7 +35,8 @@ double random_stream::normal() { return normal_quantile(uniform()); }
 
 double normal_quantile(double p) {
     // Wichura, "Algorithm AS 241: The percentage points of the normal distribution",
-    // Applied Statistics 37 (1988), PPND16 coefficients.
+    // Applied Statistics 37 (1988), PPND16 coefficients, nested as published (not reflowed).
+    // clang-format off
     const double q = p - 0.5;
     if (std::fabs(q) <= 0.425) {
         const double r = 0.180625 - q * q;
@@ -67,6 +68,7 @@ double normal_quantile(double p) {
                      7.868691311456132591e-4) * r + 0.0148753612908506148525) * r + 0.13692988092273580531) * r +
                   0.59983220655588793769) * r + 1.0);
     }
+    // clang-format on
     return q < 0 ? -value : value;
 }
 

@@ -38,8 +38,12 @@ root_result find_root(const std::function<double(double)>& f, double lower, doub
             d = e = b - a;
         }
         if (std::fabs(fc) < std::fabs(fb)) {
-            a = b; b = c; c = a;
-            fa = fb; fb = fc; fc = fa;
+            a = b;
+            b = c;
+            c = a;
+            fa = fb;
+            fb = fc;
+            fc = fa;
         }
         const double tol = 2 * eps * std::fabs(b) + 0.5 * options.x_tolerance;
         const double m = 0.5 * (c - b);
@@ -60,8 +64,10 @@ root_result find_root(const std::function<double(double)>& f, double lower, doub
                 p = s * (2 * m * qa * (qa - r) - (b - a) * (r - 1));
                 q = (qa - 1) * (r - 1) * (s - 1);
             }
-            if (p > 0) q = -q;
-            else p = -p;
+            if (p > 0)
+                q = -q;
+            else
+                p = -p;
             // Accept the step only if it stays well inside the bracket and shrinks fast enough.
             if (2 * p < std::min(3 * m * q - std::fabs(tol * q), std::fabs(e * q))) {
                 e = d;

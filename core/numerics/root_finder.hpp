@@ -14,9 +14,9 @@ namespace hedgeleaf {
 
 /// Stopping rules for find_root.
 struct root_options {
-    double x_tolerance = 0;     ///< absolute width at which the bracket counts as closed (0 = machine precision)
-    double f_tolerance = 0;     ///< stop as soon as |f(x)| <= this
-    int max_iterations = 200;   ///< evaluations after the two ends
+    double x_tolerance = 0;    ///< absolute width at which the bracket counts as closed (0 = machine precision)
+    double f_tolerance = 0;    ///< stop as soon as |f(x)| <= this
+    int max_iterations = 200;  ///< evaluations after the two ends
 };
 
 /// Outcome of find_root.

@@ -1,7 +1,7 @@
 // Tests for analytics/schedule and analytics/hedge: schedule dates, the hedge schedule's accounting, paths and bad input.
-#include "dispatch/dispatch.hpp"
 #include "commands/hedge.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include "test_support.hpp"
 
@@ -53,7 +53,8 @@ TEST_CASE("schedule along an explicit spot path matches an independent re-comput
     REQUIRE(s.rows.size() == 5);
     const double option_value[] = {1.15277504551085, 1.52095758975702, 0.404425030712595, 1.81210712149355, 2.4};
     const double delta[] = {0.37413908128504, 0.485878906632231, 0.222307856732623, 0.716414405318893};
-    const double cash[] = {-16.8059008561711, -22.3563716381448, -9.94155802929463, -35.3006701570037, -35.3413134855738};
+    const double cash[] = {-16.8059008561711, -22.3563716381448, -9.94155802929463, -35.3006701570037,
+                           -35.3413134855738};
     const double interest[] = {0, -0.0193494272877931, -0.0257399464112822, -0.0114461852334787, -0.0406433285700659};
     const double tracking[] = {0, 0.173676650393592, 0.146947777772606, -0.360718285638065, -0.201198646863794};
     for (std::size_t k = 0; k < 5; ++k) {
@@ -217,19 +218,24 @@ TEST_CASE("hedge result JSON has flat rows and totals", "[hedge]") {
 }
 
 TEST_CASE("bad hedge input names the field", "[hedge]") {
-    const std::string head = R"({"valuation_date": "2027-01-04", "market": {"spot": 48, "volatility": 0.25, "rate": 0.03},
+    const std::string head =
+        R"({"valuation_date": "2027-01-04", "market": {"spot": 48, "volatility": 0.25, "rate": 0.03},
       "option": {"type": "call", "strike": 48, "expiry_date": "2027-07-05"}, "hedge": )";
     CHECK(message_of("hedge", head + R"({"rebalance": {"every": 0}}})") ==
           "hedge.rebalance.every: must be between 1 and 1000, got 0");
-    CHECK(message_of("hedge", head + R"({"cost_pb": 4}})") == "hedge.cost_pb: unknown field (did you mean \"cost_bp\"?)");
+    CHECK(message_of("hedge", head + R"({"cost_pb": 4}})") ==
+          "hedge.cost_pb: unknown field (did you mean \"cost_bp\"?)");
     CHECK(message_of("hedge", head + R"({"cost_bp": -1}})") == "hedge.cost_bp: must be >= 0, got -1");
-    CHECK(message_of("hedge", head + R"({"rebalance": {"dates": ["2027-02-01"]}, "path": {"kind": "spots", "spots": [50]}}})") ==
+    CHECK(message_of("hedge",
+                     head + R"({"rebalance": {"dates": ["2027-02-01"]}, "path": {"kind": "spots", "spots": [50]}}})") ==
           "hedge.path.spots: has 1 spots; the schedule has 2 dates after valuation (2027-02-01, 2027-07-05)");
     CHECK(message_of("hedge", head + R"({"path": {"kind": "lattice", "moves": "UUXD"}}})") ==
           "hedge.path.moves: moves are U (up) or D (down); character 3 is \"X\"");
     CHECK(message_of("hedge", head + R"({"path": {"kind": "lattice", "nodes": [0, 1, 3]}}})") ==
           "hedge.path.nodes[2]: must be the previous index (down) or one more (up), got 3 after 1");
-    CHECK(message_of("hedge", head + R"({"path": {"kind": "stress", "shape": "gap-down", "change": 1.5, "date": "2027-02-01"}}})") ==
+    CHECK(message_of(
+              "hedge",
+              head + R"({"path": {"kind": "stress", "shape": "gap-down", "change": 1.5, "date": "2027-02-01"}}})") ==
           "hedge.path.change: must be below 1 (a fall of 100 % or more), got 1.5");
     CHECK(message_of("hedge", head + R"({"rebalance": {"dates": ["2027-09-01"]}}})") ==
           "hedge.rebalance.dates[0]: must be on or before the final expiry 2027-07-05, got 2027-09-01");

@@ -1,9 +1,9 @@
 // Tests for analytics/ladder: spot, volatility and time ladders and the spot x vol grid.
-#include "numerics/closed_form.hpp"
-#include "dispatch/dispatch.hpp"
-#include "contract/errors.hpp"
 #include "analytics/ladder.hpp"
 #include "commands/trade_reader.hpp"
+#include "contract/errors.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/closed_form.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -93,8 +93,9 @@ TEST_CASE("time ladder: value at future dates, paid at payoff on expiry", "[ladd
 
 TEST_CASE("time ladder with legs of different expiries settles the short leg first", "[ladder]") {
     json doc{{"market", {{"spot", 100}, {"volatility", 0.3}, {"rate", 0.02}}},
-             {"legs", {{{"type", "put"}, {"strike", 110}, {"expiry_years", 0.5}, {"quantity", 1}},
-                       {{"type", "call"}, {"strike", 100}, {"expiry_years", 1.0}, {"quantity", -1}}}},
+             {"legs",
+              {{{"type", "put"}, {"strike", 110}, {"expiry_years", 0.5}, {"quantity", 1}},
+               {{"type", "call"}, {"strike", 100}, {"expiry_years", 1.0}, {"quantity", -1}}}},
              {"ladder", {{"kind", "time"}, {"time_step_days", 200}, {"time_to_days", 200}}}};
     const json r = run_command("ladder", doc);
     const json& later = r["rows"][1];
@@ -131,8 +132,9 @@ TEST_CASE("spot x vol grid: 21 x 11 by default, matrix matches rows", "[ladder]"
 TEST_CASE("the ladder section is read strictly and its limits named", "[ladder]") {
     json doc = call_doc();
     doc["ladder"] = {{"kind", "spots"}};
-    CHECK_THROWS_WITH(run_command("ladder", doc),
-                      "ladder.kind: must be one of spot, volatility, time, grid, got string \"spots\" (did you mean \"spot\"?)");
+    CHECK_THROWS_WITH(
+        run_command("ladder", doc),
+        "ladder.kind: must be one of spot, volatility, time, grid, got string \"spots\" (did you mean \"spot\"?)");
     doc["ladder"] = {{"spot_form", -0.1}};
     CHECK_THROWS_WITH(run_command("ladder", doc), "ladder.spot_form: unknown field (did you mean \"spot_from\"?)");
     doc["ladder"] = {{"spot_from", -1.5}};

@@ -1,9 +1,9 @@
 // Tests for analytics/profile: payoff at expiry, break-even points and the profile command.
-#include "numerics/closed_form.hpp"
-#include "dispatch/dispatch.hpp"
-#include "contract/errors.hpp"
 #include "analytics/profile.hpp"
 #include "commands/trade_reader.hpp"
+#include "contract/errors.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/closed_form.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -34,12 +34,20 @@ TEST_CASE("break-even points of every shape match the textbook formulas", "[prof
     const std::vector<expected> all = {
         {"call-spread", {95, 110}, [](double p) { return std::vector<double>{95 + p}; }},
         {"put-spread", {90, 105}, [](double p) { return std::vector<double>{105 - p}; }},
-        {"straddle", {100}, [](double p) { return std::vector<double>{100 - p, 100 + p}; }},
-        {"strangle", {90, 110}, [](double p) { return std::vector<double>{90 - p, 110 + p}; }},
+        {"straddle",
+         {100},
+         [](double p) {
+             return std::vector<double>{100 - p, 100 + p};
+         }},
+        {"strangle",
+         {90, 110},
+         [](double p) {
+             return std::vector<double>{90 - p, 110 + p};
+         }},
         {"risk-reversal", {90, 110}, [](double p) { return std::vector<double>{110 + p}; }},  // p > 0 here
         {"seagull", {85, 100, 120}, [](double p) { return std::vector<double>{100 + p}; }},   // 0 < p < 20
         {"covered-call", {110}, [](double p) { return std::vector<double>{p}; }},             // share cost less call
-        {"collar", {90, 112}, [](double p) { return std::vector<double>{112 - p}; }},          // p < 0: a credit
+        {"collar", {90, 112}, [](double p) { return std::vector<double>{112 - p}; }},         // p < 0: a credit
     };
     for (const auto& e : all) {
         INFO(e.shape);
@@ -114,8 +122,9 @@ TEST_CASE("profile rows: payoff, P&L and value today", "[profile]") {
 
 TEST_CASE("legs with different expiries: profile at the first expiry, later legs in closed form", "[profile]") {
     json doc{{"market", {{"spot", 100}, {"volatility", 0.25}, {"rate", 0.03}}},
-             {"legs", {{{"type", "put"}, {"strike", 95}, {"expiry_years", 0.5}, {"quantity", -1}},
-                       {{"type", "call"}, {"strike", 105}, {"expiry_years", 1.0}, {"quantity", 1}}}}};
+             {"legs",
+              {{{"type", "put"}, {"strike", 95}, {"expiry_years", 0.5}, {"quantity", -1}},
+               {{"type", "call"}, {"strike", 105}, {"expiry_years", 1.0}, {"quantity", 1}}}}};
     const json r = run_command("profile", doc);
     CHECK(r["horizon_years"] == 0.5);
     CHECK_FALSE(r.contains("max_pnl_at_expiry"));

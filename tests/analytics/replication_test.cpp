@@ -1,9 +1,9 @@
 // Tests for analytics/replication: the replicating portfolio on every node and every path of small trees.
-#include "dispatch/dispatch.hpp"
-#include "numerics/lattice.hpp"
 #include "analytics/replication.hpp"
 #include "commands/hedge.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/lattice.hpp"
 
 #include "test_support.hpp"
 
@@ -18,7 +18,9 @@ using namespace hedgeleaf;
 namespace {
 
 // |a - b| within 1e-12 of the size of the terms that produced them.
-bool close(double a, double b, double scale) { return std::fabs(a - b) <= 1e-12 * std::max({scale, std::fabs(a), std::fabs(b)}); }
+bool close(double a, double b, double scale) {
+    return std::fabs(a - b) <= 1e-12 * std::max({scale, std::fabs(a), std::fabs(b)});
+}
 
 struct case_spec {
     const char* name;
@@ -29,23 +31,30 @@ struct case_spec {
 // Invented markets around a fictional share (Orchard Vale Robotics, spot near 48).
 const case_spec cases[] = {
     {"European call, CRR", R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.04},
-        "option": {"type": "call", "strike": 50, "expiry_years": 0.75}, "lattice": {"method": "crr"}})", 6},
+        "option": {"type": "call", "strike": 50, "expiry_years": 0.75}, "lattice": {"method": "crr"}})",
+     6},
     {"European put with dividend and carry, Leisen-Reimer", R"({"market": {"spot": 48, "volatility": 0.28, "rate": 0.03,
         "carry_yield": 0.015, "dividends": [{"time_years": 0.3, "amount": 0.6}]},
-        "option": {"type": "put", "strike": 47, "expiry_years": 1}, "lattice": {"method": "leisen-reimer"}})", 7},
+        "option": {"type": "put", "strike": 47, "expiry_years": 1}, "lattice": {"method": "leisen-reimer"}})",
+     7},
     {"American put with dividends, CRR", R"({"market": {"spot": 48, "volatility": 0.35, "rate": 0.06,
         "dividends": [{"time_years": 0.2, "amount": 0.8}, {"time_years": 0.7, "amount": 0.8}]},
-        "option": {"type": "put", "strike": 52, "expiry_years": 1, "exercise": "american"}, "lattice": {"method": "crr"}})", 8},
+        "option": {"type": "put", "strike": 52, "expiry_years": 1, "exercise": "american"}, "lattice": {"method": "crr"}})",
+     8},
     {"American call with a large dividend, Jarrow-Rudd", R"({"market": {"spot": 48, "volatility": 0.25, "rate": 0.02,
         "dividends": [{"time_years": 0.45, "amount": 4.0}]},
-        "option": {"type": "call", "strike": 44, "expiry_years": 0.9, "exercise": "american"}, "lattice": {"method": "jarrow-rudd"}})", 6},
+        "option": {"type": "call", "strike": 44, "expiry_years": 0.9, "exercise": "american"}, "lattice": {"method": "jarrow-rudd"}})",
+     6},
     {"digital call, Jarrow-Rudd", R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.03},
-        "option": {"type": "digital-call", "strike": 49, "expiry_years": 0.5, "payout": 10}, "lattice": {"method": "jarrow-rudd"}})", 6},
+        "option": {"type": "digital-call", "strike": 49, "expiry_years": 0.5, "payout": 10}, "lattice": {"method": "jarrow-rudd"}})",
+     6},
     {"digital put, CRR", R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.03},
-        "option": {"type": "digital-put", "strike": 46, "expiry_years": 0.5}, "lattice": {"method": "crr"}})", 7},
+        "option": {"type": "digital-put", "strike": 46, "expiry_years": 0.5}, "lattice": {"method": "crr"}})",
+     7},
     {"Bermudan put, Tian", R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.05},
         "option": {"type": "put", "strike": 50, "expiry_years": 1, "exercise": "bermudan", "exercise_years": [0.25, 0.5, 0.75]},
-        "lattice": {"method": "tian"}})", 8},
+        "lattice": {"method": "tian"}})",
+     8},
 };
 
 // Every move sequence of `steps` moves.
@@ -63,11 +72,14 @@ void check_tree(const trade& t, int steps, bool single_leg) {
     const trade_lattice lat(t, steps);
     const auto nodes = tree_window(lat, 0, steps);
     REQUIRE(nodes.size() == static_cast<std::size_t>((steps + 1) * (steps + 2) / 2));
-    const auto at = [&](int n, int j) -> const tree_node& { return nodes[static_cast<std::size_t>(n * (n + 1) / 2 + j)]; };
+    const auto at = [&](int n, int j) -> const tree_node& {
+        return nodes[static_cast<std::size_t>(n * (n + 1) / 2 + j)];
+    };
     const double growth = 1.0 / lat.step.discount;
     for (const auto& node : nodes) {
         INFO("node (" << node.step << ", " << node.index << ")");
-        const double scale = std::max({std::fabs(node.value), std::fabs(node.shares * node.spot), std::fabs(node.cash)});
+        const double scale =
+            std::max({std::fabs(node.value), std::fabs(node.shares * node.spot), std::fabs(node.cash)});
         CHECK(close(node.shares * node.spot + node.cash, node.value - node.paid, scale));
         if (!single_leg || node.event != node_event::none || node.step == steps) continue;
         // Both branches: the portfolio grows into the child's value (dividends and carry in `income`).
@@ -158,7 +170,8 @@ TEST_CASE("structures with different expiries and shares replicate on one lattic
 TEST_CASE("tree command: nodes, the highlighted path, caps and messages", "[replication]") {
     const std::string head = R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.04},
         "option": {"type": "put", "strike": 50, "expiry_years": 1, "exercise": "american"}, "lattice": {"method": "crr"})";
-    const json r = run_command("tree", parse_json_text(head + R"(, "hedge": {"path": {"kind": "lattice", "moves": "UDDU"}}})"));
+    const json r =
+        run_command("tree", parse_json_text(head + R"(, "hedge": {"path": {"kind": "lattice", "moves": "UDDU"}}})"));
     CHECK(r["steps"] == 4);
     CHECK(r["nodes"].size() == 15);
     CHECK(r["path"]["moves"] == "UDDU");
@@ -167,8 +180,10 @@ TEST_CASE("tree command: nodes, the highlighted path, caps and messages", "[repl
 
     const json big = run_command("tree", parse_json_text(head + R"(, "hedge": {"tree": {"steps": 500}}})"));
     CHECK(big["to_step"] == 61);  // 62 levels hold 1953 nodes; 63 would hold 2016
-    CHECK(big["notes"][0] == "steps 0 to 61 of 500 listed (at most 2000 nodes); set hedge.tree.from_step and to_step for other levels");
-    const json window = run_command("tree", parse_json_text(head + R"(, "hedge": {"tree": {"steps": 500, "from_step": 490, "to_step": 492}}})"));
+    CHECK(big["notes"][0] ==
+          "steps 0 to 61 of 500 listed (at most 2000 nodes); set hedge.tree.from_step and to_step for other levels");
+    const json window = run_command(
+        "tree", parse_json_text(head + R"(, "hedge": {"tree": {"steps": 500, "from_step": 490, "to_step": 492}}})"));
     CHECK(window["nodes"].size() == 491 + 492 + 493);
 
     const auto message = [&](const std::string& tail) {
@@ -183,5 +198,6 @@ TEST_CASE("tree command: nodes, the highlighted path, caps and messages", "[repl
           "hedge.tree.to_step: steps 0 to 80 hold 3321 nodes, at most 2000 are listed; narrow the window");
     CHECK(message(R"(, "hedge": {"tree": {"steps": 3}, "path": {"kind": "lattice", "moves": "UDDU"}}})") ==
           "hedge.path.moves: has 4 moves, more than hedge.tree.steps 3");
-    CHECK(message(R"(, "hedge": {"tree": {"steps": 6000}}})") == "hedge.tree.steps: must be between 1 and 5000, got 6000");
+    CHECK(message(R"(, "hedge": {"tree": {"steps": 6000}}})") ==
+          "hedge.tree.steps: must be between 1 and 5000, got 6000");
 }

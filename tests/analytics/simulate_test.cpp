@@ -1,8 +1,8 @@
 // Tests for analytics/simulate (through commands/simulate): the Derman-Kamal scaling of the hedging error, levels and caps.
-#include "numerics/closed_form.hpp"
-#include "dispatch/dispatch.hpp"
 #include "commands/simulate.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/closed_form.hpp"
 
 #include "test_support.hpp"
 
@@ -22,8 +22,10 @@ simulation simulate(const std::string& text) { return run_steps(text, read_simul
 // four-weekly hedges have exactly 52 and 13 equal intervals.
 std::string atm(const std::string& type, const std::string& exercise, const std::string& simulate) {
     return R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.0},
-      "option": {"type": ")" + type + R"(", "strike": 48, "expiry_years": 0.9972602739726028, "exercise": ")" + exercise + R"("},
-      "simulate": )" + simulate + "}";
+      "option": {"type": ")" +
+           type + R"(", "strike": 48, "expiry_years": 0.9972602739726028, "exercise": ")" + exercise + R"("},
+      "simulate": )" +
+           simulate + "}";
 }
 
 }  // namespace
@@ -72,7 +74,8 @@ TEST_CASE("realised volatility above the pricing volatility loses money for the 
     CHECK(s_hot.frequencies[0].mean < -10 * s_hot.frequencies[0].mean_standard_error);
     const simulation a = simulate(atm("call", "european", R"({"paths": 4000, "cost_bp": 20,
         "frequencies": [{"every": 1, "unit": "weeks"}]})"));
-    const simulation b = simulate(atm("call", "european", R"({"paths": 4000, "frequencies": [{"every": 1, "unit": "weeks"}]})"));
+    const simulation b =
+        simulate(atm("call", "european", R"({"paths": 4000, "frequencies": [{"every": 1, "unit": "weeks"}]})"));
     CHECK(a.frequencies[0].mean_costs > 0);
     // Same seed, same paths: the gap is the costs (grown at the rate, which is 0 here).
     CHECK(b.frequencies[0].mean - a.frequencies[0].mean == Approx(a.frequencies[0].mean_costs).epsilon(0.05));
@@ -86,7 +89,8 @@ TEST_CASE("American put: lattice delta table, error falls with more rebalancing,
     CHECK(a.frequencies[1].sd < 0.65 * a.frequencies[0].sd);
     CHECK(std::fabs(a.frequencies[1].mean) < 4 * a.frequencies[1].mean_standard_error + 0.01);
     const simulation b = simulate(text);
-    for (std::size_t i = 0; i < a.frequencies[1].pnl.size(); ++i) REQUIRE(a.frequencies[1].pnl[i] == b.frequencies[1].pnl[i]);
+    for (std::size_t i = 0; i < a.frequencies[1].pnl.size(); ++i)
+        REQUIRE(a.frequencies[1].pnl[i] == b.frequencies[1].pnl[i]);
 }
 
 TEST_CASE("covered call with a dividend: the share leg's income is passed through", "[simulate]") {
@@ -112,10 +116,13 @@ TEST_CASE("simulate result, caps and bad input", "[simulate]") {
         }
         return std::string("(no error)");
     };
-    CHECK(message(atm("call", "european", R"({"paths": 300000})")) == "simulate.paths: must be between 1 and 200000, got 300000");
+    CHECK(message(atm("call", "european", R"({"paths": 300000})")) ==
+          "simulate.paths: must be between 1 and 200000, got 300000");
     CHECK(message(atm("call", "european", R"({"paths": 200000, "frequencies": [{"every": 1, "unit": "days"}]})")) ==
-          "simulate.paths: paths x rebalancings over all frequencies is 52000000, at most 50000000; use fewer paths or rebalance less often");
+          "simulate.paths: paths x rebalancings over all frequencies is 52000000, at most 50000000; use fewer paths or "
+          "rebalance less often");
     CHECK(message(atm("call", "european", R"({"frequencies": [{"every": 1, "unit": "fortnights"}]})")) ==
           "simulate.frequencies[0].unit: must be one of days, weeks, months, got string \"fortnights\"");
-    CHECK(message(atm("call", "european", R"({"path": 5})")) == "simulate.path: unknown field (did you mean \"paths\"?)");
+    CHECK(message(atm("call", "european", R"({"path": 5})")) ==
+          "simulate.path: unknown field (did you mean \"paths\"?)");
 }

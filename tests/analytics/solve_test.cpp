@@ -1,9 +1,9 @@
 // Tests for analytics/solve and numerics/root_finder: Brent's root finder and the `solve` command.
-#include "numerics/closed_form.hpp"
-#include "dispatch/dispatch.hpp"
-#include "contract/errors.hpp"
 #include "analytics/solve.hpp"
 #include "commands/trade_reader.hpp"
+#include "contract/errors.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/closed_form.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -159,8 +159,9 @@ TEST_CASE("zero-cost collar: the call strike that pays for the put", "[solver]")
     CHECK(k2 > 36.4);
     // Independent re-pricing of the two legs in closed form.
     json legs{{"market", doc["market"]},
-              {"legs", {{{"type", "put"}, {"strike", 32}, {"expiry_years", 1.0}, {"quantity", 1}},
-                        {{"type", "call"}, {"strike", k2}, {"expiry_years", 1.0}, {"quantity", -1}}}}};
+              {"legs",
+               {{{"type", "put"}, {"strike", 32}, {"expiry_years", 1.0}, {"quantity", 1}},
+                {{"type", "call"}, {"strike", k2}, {"expiry_years", 1.0}, {"quantity", -1}}}}};
     CHECK(std::fabs(150000 * closed_form_premium(legs)) <= 1e-8 * 150000 * 36.4);
     CHECK(r["iterations"].get<int>() < 20);
     CHECK(r["rows"].size() == 2);
@@ -182,7 +183,8 @@ TEST_CASE("zero-cost risk reversal struck at the forward is symmetric (put-call 
 
 TEST_CASE("zero-cost seagull and a target premium for a put spread", "[solver]") {
     json doc{{"market", market(120, 0.3, 0.03, 0.0)},
-             {"structure", {{"shape", "seagull"}, {"strikes", {95, 125, 150}}, {"expiry_years", 1.0}, {"exercise", "american"}}},
+             {"structure",
+              {{"shape", "seagull"}, {"strikes", {95, 125, 150}}, {"expiry_years", 1.0}, {"exercise", "american"}}},
              {"solve", {{"for", "strike"}, {"leg", 0}, {"target_premium", 0}}}};
     const json r = run_command("solve", doc);
     CHECK(r["pricing"] == "lattice");
@@ -209,7 +211,8 @@ TEST_CASE("a strike solve with no solution names the bound that was hit", "[solv
         FAIL("expected an error");
     } catch (const input_error& e) {
         CHECK(e.field() == "solve.upper");
-        CHECK(std::string(e.what()).find("no solution: the highest net premium in the search range is") != std::string::npos);
+        CHECK(std::string(e.what()).find("no solution: the highest net premium in the search range is") !=
+              std::string::npos);
         CHECK(std::string(e.what()).find("below the target 5") != std::string::npos);
     }
     doc["solve"].erase("leg");
@@ -251,15 +254,15 @@ TEST_CASE("quantity for a premium budget", "[solver]") {
     json collar{{"market", market(100, 0.25, 0.03, 0.0)},
                 {"structure", {{"shape", "collar"}, {"strikes", {90, 103}}, {"expiry_years", 1.0}}},
                 {"solve", {{"for", "quantity"}, {"budget", 1000}}}};
-    CHECK_THROWS_WITH(run_command("solve", collar),
-                      Catch::StartsWith("solve.budget: the net premium per unit is -"));
+    CHECK_THROWS_WITH(run_command("solve", collar), Catch::StartsWith("solve.budget: the net premium per unit is -"));
 }
 
 TEST_CASE("the solve section is read strictly", "[solver]") {
     json doc = single(market(100, 0.25, 0.03, 0.0), "call", 105, 1.0, "european");
     CHECK_THROWS_WITH(run_command("solve", doc), Catch::StartsWith("solve: is required for the solve command"));
     doc["solve"] = {{"for", "vol"}};
-    CHECK_THROWS_WITH(run_command("solve", doc), "solve.for: must be one of volatility, strike, quantity, got string \"vol\"");
+    CHECK_THROWS_WITH(run_command("solve", doc),
+                      "solve.for: must be one of volatility, strike, quantity, got string \"vol\"");
     doc["solve"] = {{"for", "volatility"}, {"target_premium", 10}, {"uper", 2}};
     CHECK_THROWS_WITH(run_command("solve", doc), "solve.uper: unknown field (did you mean \"upper\"?)");
     doc["solve"] = {{"for", "volatility"}};

@@ -1,9 +1,9 @@
 // Tests for analytics/work_estimate: the up-front work estimate the page uses to refuse a request
 // that would run for many seconds.
+#include "analytics/work_estimate.hpp"
+#include "commands/trade_reader.hpp"
 #include "dispatch/dispatch.hpp"
 #include "numerics/lattice.hpp"
-#include "commands/trade_reader.hpp"
-#include "analytics/work_estimate.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -15,8 +15,11 @@ namespace {
 json twelve_legs(int steps) {
     json legs = json::array();
     for (int i = 0; i < 12; ++i)
-        legs.push_back({{"type", "put"}, {"strike", 80 + 5 * i}, {"expiry_years", 2}, {"exercise", "american"}, {"quantity", 1}});
-    return json{{"market", {{"spot", 100}, {"volatility", 0.3}, {"rate", 0.05}}}, {"legs", legs}, {"lattice", {{"steps", steps}}}};
+        legs.push_back(
+            {{"type", "put"}, {"strike", 80 + 5 * i}, {"expiry_years", 2}, {"exercise", "american"}, {"quantity", 1}});
+    return json{{"market", {{"spot", 100}, {"volatility", 0.3}, {"rate", 0.05}}},
+                {"legs", legs},
+                {"lattice", {{"steps", steps}}}};
 }
 }  // namespace
 

@@ -1,8 +1,8 @@
 // Tests for commands/quote and analytics/client_price: the client price attached to the price command's result.
-#include "dispatch/dispatch.hpp"
-#include "contract/errors.hpp"
 #include "commands/quote.hpp"
 #include "commands/trade_reader.hpp"
+#include "contract/errors.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -58,12 +58,15 @@ TEST_CASE("margin as a fraction of the premium, client selling", "[quote]") {
 }
 
 TEST_CASE("margin in volatility points re-prices at vol +- margin", "[quote]") {
-    const json r = run_command("price", doc_with({{"currency", "GBP"}, {"margin_type", "volatility"}, {"margin", 0.01}}));
+    const json r =
+        run_command("price", doc_with({{"currency", "GBP"}, {"margin_type", "volatility"}, {"margin", 0.01}}));
     json up = doc_with(nullptr), down = doc_with(nullptr);
     up["market"]["volatility"] = 0.28;
     down["market"]["volatility"] = 0.26;
-    CHECK(r["client_price"]["offer"]["per_unit"].get<double>() == Approx(run_command("price", up)["premium"].get<double>()).epsilon(1e-12));
-    CHECK(r["client_price"]["bid"]["per_unit"].get<double>() == Approx(run_command("price", down)["premium"].get<double>()).epsilon(1e-12));
+    CHECK(r["client_price"]["offer"]["per_unit"].get<double>() ==
+          Approx(run_command("price", up)["premium"].get<double>()).epsilon(1e-12));
+    CHECK(r["client_price"]["bid"]["per_unit"].get<double>() ==
+          Approx(run_command("price", down)["premium"].get<double>()).epsilon(1e-12));
 
     // A collar sold against a holding is short volatility on its call: the offer is still the dearer price.
     json collar{{"market", {{"spot", 36.4}, {"volatility", 0.27}, {"rate", 0.032}, {"carry_yield", 0.018}}},
@@ -89,11 +92,13 @@ TEST_CASE("rounding to a tick favours the desk", "[quote]") {
     // A price already on a tick stays there (no 1.10 -> 1.11 from binary fractions).
     json exact = doc_with({{"currency", "EUR"}, {"margin", 0.0}, {"tick", 0.01}});
     const json e = run_command("price", exact);
-    CHECK(e["client_price"]["offer"]["per_unit"].get<double>() - e["client_price"]["bid"]["per_unit"].get<double>() <= 0.01 + 1e-12);
+    CHECK(e["client_price"]["offer"]["per_unit"].get<double>() - e["client_price"]["bid"]["per_unit"].get<double>() <=
+          0.01 + 1e-12);
 }
 
 TEST_CASE("the currency is an ISO 4217 code of three capital letters", "[quote]") {
-    const std::string shape = "quote.currency: must be an ISO 4217 currency code of three capital letters (e.g. EUR, USD, GBP), got ";
+    const std::string shape =
+        "quote.currency: must be an ISO 4217 currency code of three capital letters (e.g. EUR, USD, GBP), got ";
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "eur"}})), shape + "string \"eur\"");
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EURO"}})), shape + "string \"EURO\"");
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", 978}})), shape + "978");
@@ -122,11 +127,14 @@ TEST_CASE("quote fields are checked and named", "[quote]") {
                       "quote.margn: unknown field (did you mean \"margin\"?)");
     CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"margin", -0.1}})),
                       "quote.margin: must be >= 0, got -0.1");
-    CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"margin_type", "volatility"}, {"margin", 0.3}})),
-                      "quote.margin: must be below market.volatility 0.27 (the bid re-prices at volatility - margin), got 0.3");
-    CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"margin_type", "percent"}})),
-                      "quote.margin_type: must be one of absolute, fraction_of_premium, volatility, got string \"percent\"");
-    CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"tick", 0}})), "quote.tick: must be > 0, got 0");
+    CHECK_THROWS_WITH(
+        run_command("price", doc_with({{"currency", "EUR"}, {"margin_type", "volatility"}, {"margin", 0.3}})),
+        "quote.margin: must be below market.volatility 0.27 (the bid re-prices at volatility - margin), got 0.3");
+    CHECK_THROWS_WITH(
+        run_command("price", doc_with({{"currency", "EUR"}, {"margin_type", "percent"}})),
+        "quote.margin_type: must be one of absolute, fraction_of_premium, volatility, got string \"percent\"");
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"currency", "EUR"}, {"tick", 0}})),
+                      "quote.tick: must be > 0, got 0");
 }
 
 TEST_CASE("a quote without a currency still prices (client name only)", "[quote]") {

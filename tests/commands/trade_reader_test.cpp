@@ -1,6 +1,6 @@
 // Tests for commands/trade_reader: reading the trade document, dates, and one message per bad field.
-#include "dispatch/dispatch.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -57,7 +57,8 @@ TEST_CASE("each bad field gets one message naming it", "[trade]") {
     const bad_case cases[] = {
         {R"({"market": {"volatility": -0.2}})", "market.volatility: must be > 0, got -0.2"},
         {R"({"market": {"volatility": 6}})", "market.volatility: must be <= 5, got 6"},
-        {R"({"market": {"spot": "100"}})", "market.spot: must be a number, got string \"100\" (write numbers without quotes)"},
+        {R"({"market": {"spot": "100"}})",
+         "market.spot: must be a number, got string \"100\" (write numbers without quotes)"},
         {R"({"market": {"spot": "NaN"}})", "market.spot: must be a number, got string \"NaN\""},
         {R"({"market": {"spot": 0}})", "market.spot: must be > 0, got 0"},
         {R"({"market": {"volatilty": 0.2}})", "market.volatilty: unknown field (did you mean \"volatility\"?)"},
@@ -65,10 +66,12 @@ TEST_CASE("each bad field gets one message naming it", "[trade]") {
         {R"({"option": {"expiry_years": 0}})", "option.expiry_years: must be > 0, got 0"},
         {R"({"option": {"type": "straddle"}})",
          "option.type: must be one of call, put, digital-call, digital-put, got string \"straddle\""},
-        {R"({"option": {"exercise": "bermudan"}})", "option.exercise_dates: a bermudan option needs a list of exercise dates"},
+        {R"({"option": {"exercise": "bermudan"}})",
+         "option.exercise_dates: a bermudan option needs a list of exercise dates"},
         {R"({"option": {"type": "digital-call", "exercise": "american"}})",
          "option.exercise: digital options are European only, got \"american\""},
-        {R"({"option": {"expiry_date": "2027-01-01"}})", "option.expiry_years: give either expiry_years or expiry_date, not both"},
+        {R"({"option": {"expiry_date": "2027-01-01"}})",
+         "option.expiry_years: give either expiry_years or expiry_date, not both"},
         {R"({"lattice": {"steps": 0}})", "lattice.steps: must be between 1 and 50000, got 0"},
         {R"({"lattice": {"steps": 50001}})", "lattice.steps: must be between 1 and 50000, got 50001"},
         {R"({"lattice": {"method": "trinomial"}})",

@@ -23,8 +23,10 @@ const json call = {{"type", "call"}, {"strike", 100}, {"expiry_years", 1}};
 /// `leg` as a Bermudan option, its schedule given the way `path` names it (dates or years).
 json bermudan(json leg, const std::string& path) {
     leg["exercise"] = "bermudan";
-    if (path.find("exercise_dates") != std::string::npos) leg["exercise_dates"] = {"2027-06-01"};
-    else leg["exercise_years"] = {0.5};
+    if (path.find("exercise_dates") != std::string::npos)
+        leg["exercise_dates"] = {"2027-06-01"};
+    else
+        leg["exercise_years"] = {0.5};
     return leg;
 }
 
@@ -203,9 +205,9 @@ std::vector<std::pair<std::string, json>> breaking_values(const json& rules) {
 
 // Fields whose message states their bound another way (each reason as the reader words it).
 bool states_otherwise(const std::string& path) {
-    return path == "legs[].quantity"       // |quantity| <= 1e12: the message states 1e+12
-           || path == "structure.strikes"  // "a collar takes 2 strikes": the shape's own count
-           || path == "solve.leg"          // "between 0 and <the last leg>": the trade's own legs
+    return path == "legs[].quantity"         // |quantity| <= 1e12: the message states 1e+12
+           || path == "structure.strikes"    // "a collar takes 2 strikes": the shape's own count
+           || path == "solve.leg"            // "between 0 and <the last leg>": the trade's own legs
            || path == "hedge.path.nodes[]";  // "a whole number from 0 up": the cap is the list's
 }
 

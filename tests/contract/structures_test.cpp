@@ -1,10 +1,10 @@
 // Tests for contract/structures: every ready-made shape prices as the sum of its
 // legs, and the shapes obey the parity relations between calls, puts and shares.
-#include "numerics/closed_form.hpp"
-#include "dispatch/dispatch.hpp"
-#include "contract/errors.hpp"
 #include "contract/structures.hpp"
 #include "commands/trade_reader.hpp"
+#include "contract/errors.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/closed_form.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -19,8 +19,9 @@ constexpr double spot = 100, vol = 0.25, rate = 0.04, carry = 0.015, expiry = 0.
 json market_json() { return json{{"spot", spot}, {"volatility", vol}, {"rate", rate}, {"carry_yield", carry}}; }
 
 json shape_doc(const std::string& shape, const std::vector<double>& strikes, const std::string& exercise = "european") {
-    return json{{"market", market_json()},
-                {"structure", {{"shape", shape}, {"strikes", strikes}, {"expiry_years", expiry}, {"exercise", exercise}}}};
+    return json{
+        {"market", market_json()},
+        {"structure", {{"shape", shape}, {"strikes", strikes}, {"expiry_years", expiry}, {"exercise", exercise}}}};
 }
 
 json option_doc(const std::string& type, double strike, const std::string& exercise = "european") {
@@ -92,8 +93,9 @@ TEST_CASE("risk reversal at one strike is a synthetic forward (put-call parity)"
     // C(K) - P(K) = S e^{-qT} - K e^{-rT} for European options (Hull, ch. 11, put-call parity).
     for (double k : {80.0, 100.0, 125.0}) {
         const json doc{{"market", market_json()},
-                       {"legs", {{{"type", "call"}, {"strike", k}, {"expiry_years", expiry}, {"quantity", 1}},
-                                 {{"type", "put"}, {"strike", k}, {"expiry_years", expiry}, {"quantity", -1}}}}};
+                       {"legs",
+                        {{{"type", "call"}, {"strike", k}, {"expiry_years", expiry}, {"quantity", 1}},
+                         {{"type", "put"}, {"strike", k}, {"expiry_years", expiry}, {"quantity", -1}}}}};
         const json r = run_command("price", doc);
         const double forward_value = spot * std::exp(-carry * expiry) - k * std::exp(-rate * expiry);
         CHECK(r["premium"].get<double>() == Approx(forward_value).margin(lattice_margin));
@@ -107,7 +109,8 @@ TEST_CASE("risk reversal at one strike is a synthetic forward (put-call parity)"
 TEST_CASE("covered call = share - call, and a collar on a holding caps both ways", "[structures]") {
     const json cc = run_command("price", shape_doc("covered-call", {110}));
     CHECK(cc["premium"].get<double>() == Approx(spot - bsm("call", 110)).margin(lattice_margin));
-    CHECK(cc["greeks"]["delta"].get<double>() == Approx(1 - cc["legs"][1]["greeks"]["delta"].get<double>()).margin(1e-12));
+    CHECK(cc["greeks"]["delta"].get<double>() ==
+          Approx(1 - cc["legs"][1]["greeks"]["delta"].get<double>()).margin(1e-12));
     // Share + collar(K1, K2) is worth between K1 e^{-rT} and K2 e^{-rT} (no-arbitrage bounds).
     const double collar = lattice_premium(shape_doc("collar", {90, 112}));
     CHECK(spot + collar > 90 * std::exp(-rate * expiry));

@@ -3,8 +3,8 @@
 // tests/bad_inputs.json gives one line "<field>: <problem>" naming the expected field.
 // The same table drives tests/bad_inputs_cli.py (CLI) and tests/node/bad_inputs.test.mjs
 // (module == CLI). Regressions found by the fuzzer (tests/fuzz) are named below.
-#include "dispatch/dispatch.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -126,8 +126,8 @@ TEST_CASE("regression: a misspelt required field is named as the likely cause", 
     CHECK(r.message == "market.volatility: is required but missing; \"volatilty\" looks like a misspelling of it");
     // Nothing close: the plain message.
     CHECK(refusal_of("price", R"({"market": {"spot": 100, "rate": 0.03},
-        "option": {"type": "call", "strike": 100, "expiry_years": 1}})").message ==
-          "market.volatility: is required but missing");
+        "option": {"type": "call", "strike": 100, "expiry_years": 1}})")
+              .message == "market.volatility: is required but missing");
 }
 
 TEST_CASE("regression: an empty list is described as empty", "[bad_inputs]") {
@@ -141,7 +141,8 @@ TEST_CASE("regression (fuzz): quoted text with a line break or a terminal escape
     // a two-line message. Control characters are now written out as \n, \u001b, ...
     const refusal r = refusal_of("price", R"({"market": {"spot": 100, "volatility": 0.2, "rate": 0.03},
         "option": {"type": "put", "strike": 100, "expiry_years": 1, "exercise": "bermud\n\u001b[31m"}})");
-    CHECK(r.message == R"(option.exercise: must be one of european, american, bermudan, got string "bermud\n\u001b[31m")");
+    CHECK(r.message ==
+          R"(option.exercise: must be one of european, american, bermudan, got string "bermud\n\u001b[31m")");
     // A misspelt key with a line break in it: the field path is escaped the same way.
     const refusal k = refusal_of("price", R"({"market": {"spot": 100, "volatility": 0.2, "rate": 0.03, "a\tb\n": 1},
         "option": {"type": "put", "strike": 100, "expiry_years": 1}})");

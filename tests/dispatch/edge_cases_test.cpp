@@ -5,10 +5,10 @@
 //
 // Negative rates are allowed (market.rate and carry_yield within [-1, 1], continuously
 // compounded): discount factors exp(-rate T) above 1 are used as they come.
-#include "numerics/closed_form.hpp"
-#include "dispatch/dispatch.hpp"
 #include "analytics/pricing.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
+#include "numerics/closed_form.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -30,9 +30,10 @@ struct edge {
 };
 
 json document(const edge& e) {
-    return json{{"market", {{"spot", e.spot}, {"volatility", e.volatility}, {"rate", e.rate}, {"carry_yield", e.carry}}},
-                {"option", {{"type", e.type}, {"strike", e.strike}, {"expiry_years", e.years}, {"exercise", e.exercise}}},
-                {"lattice", {{"method", e.method}}}};
+    return json{
+        {"market", {{"spot", e.spot}, {"volatility", e.volatility}, {"rate", e.rate}, {"carry_yield", e.carry}}},
+        {"option", {{"type", e.type}, {"strike", e.strike}, {"expiry_years", e.years}, {"exercise", e.exercise}}},
+        {"lattice", {{"method", e.method}}}};
 }
 
 trade_result price(const edge& e) { return price_trade(read_trade(document(e)), bumped_greeks::on); }
@@ -213,8 +214,10 @@ TEST_CASE("zero and negative rates", "[edge_cases]") {
         CHECK(std::fabs(put.premium - european_reference(e)) <= put.error_estimate + 1e-7);
         e.type = "call";
         const trade_result call = price(e);
-        if (rate == 0) CHECK(std::fabs(call.premium - european_reference(e)) <= call.error_estimate + 1e-7);
-        else CHECK(call.premium > european_reference(e) + call.error_estimate);
+        if (rate == 0)
+            CHECK(std::fabs(call.premium - european_reference(e)) <= call.error_estimate + 1e-7);
+        else
+            CHECK(call.premium > european_reference(e) + call.error_estimate);
         CHECK(call.premium >= 0.0 - call.error_estimate);  // at the money: exercise value 0
         // Put-call parity for the European pair: C - P = S e^-qT - K e^-rT (Hull, "Options,
         // Futures, and Other Derivatives", 10th ed., eq. 11.6 / 17.3).
@@ -253,18 +256,32 @@ TEST_CASE("prices move by small steps as inputs cross the edges", "[edge_cases]"
     const auto by_theta = [](const trade_result& r, const edge&) { return std::fabs(r.sensitivities.theta); };
     // dP/dK is at most 1 for a put (common practice); dP/dq at most T S e^{-qT} for a call.
     const auto by_strike = [](const trade_result&, const edge&) { return 1.0; };
-    const auto by_carry = [](const trade_result&, const edge& e) { return e.years * e.spot * std::exp(-e.carry * e.years); };
+    const auto by_carry = [](const trade_result&, const edge& e) {
+        return e.years * e.spot * std::exp(-e.carry * e.years);
+    };
 
     edge e;  // American put, spot 100, strike 100, 1 year, vol 0.2, rate 0.03
     continuous("the rate across zero", e, &edge::rate, -0.01, 0.01, 20, by_rho);
-    continuous("spot across the strike at one day", [] { edge a; a.years = 1.0 / 365; return a; }(), &edge::spot, 98, 102, 40,
-               by_delta);
+    continuous(
+        "spot across the strike at one day",
+        [] {
+            edge a;
+            a.years = 1.0 / 365;
+            return a;
+        }(),
+        &edge::spot, 98, 102, 40, by_delta);
     continuous("expiry from three days down to one", e, &edge::years, 3.0 / 365, 1.0 / 365, 16, by_theta);
     continuous("volatility from 2 % down to 0.05 %", e, &edge::volatility, 0.02, 0.0005, 39, by_vega);
     // Deep in the money at low volatility the Leisen-Reimer probability rounds to 1 near
     // strike 51 (|d2| about 6 sqrt(steps)); the price must not notice.
-    continuous("strike through the far in-the-money zone", [] { edge a; a.volatility = 0.005; return a; }(), &edge::strike,
-               40, 60, 40, by_strike);
+    continuous(
+        "strike through the far in-the-money zone",
+        [] {
+            edge a;
+            a.volatility = 0.005;
+            return a;
+        }(),
+        &edge::strike, 40, 60, 40, by_strike);
     edge call;
     call.type = "call";
     call.rate = 0.03;

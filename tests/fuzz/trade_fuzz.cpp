@@ -23,9 +23,9 @@
 #include "dispatch/dispatch.hpp"
 
 #include <cmath>
+#include <cstdint>
 #include <cstdio>
 #include <cstdlib>
-#include <cstdint>
 #include <map>
 #include <string>
 #include <vector>
@@ -52,9 +52,10 @@ struct work_field {
 
 const std::vector<work_field>& work_fields() {
     static const std::vector<work_field> fields = {
-        {"lattice", nullptr, "steps", 40, hedgeleaf::max_lattice_steps, true},  // default 1601
+        {"lattice", nullptr, "steps", 40, hedgeleaf::max_lattice_steps, true},                // default 1601
         {"simulate", nullptr, "paths", 16, static_cast<double>(hedgeleaf::max_paths), true},  // default 10,000
-        {"simulate", nullptr, "lattice_steps", 20, hedgeleaf::max_simulate_lattice_steps, true},  // automatic: 200 and up
+        {"simulate", nullptr, "lattice_steps", 20, hedgeleaf::max_simulate_lattice_steps,
+         true},                                                                             // automatic: 200 and up
         {"hedge", nullptr, "lattice_steps", 12, hedgeleaf::max_hedge_lattice_steps, true},  // default 151
         {"hedge", "tree", "steps", 40, hedgeleaf::max_tree_steps, false},
         {"ladder", nullptr, "steps", 21, hedgeleaf::max_ladder_steps, true},    // default 101
@@ -74,7 +75,10 @@ bool clamp_work(json& doc) {
             if (!step) continue;
             auto it = node->find(step);
             if (it == node->end() || it->is_null()) {
-                if (!f.inject) { missing = true; break; }
+                if (!f.inject) {
+                    missing = true;
+                    break;
+                }
                 (*node)[step] = json::object();
                 changed = true;
             } else if (!it->is_object()) {
@@ -118,7 +122,8 @@ void check_envelope(const std::string& command, const std::string& text, const s
         // The envelope text turns NaN into null; look at the result itself.
         try {
             const json result = hedgeleaf::run_command(command, json::parse(text), hedgeleaf::page_work_budget);
-            if (!all_finite(result)) broken("result holds NaN or infinity", result.dump(-1, ' ', false, json::error_handler_t::replace));
+            if (!all_finite(result))
+                broken("result holds NaN or infinity", result.dump(-1, ' ', false, json::error_handler_t::replace));
         } catch (const std::exception& e) {
             broken(std::string("run_command threw after run_command_text succeeded: ") + e.what(), text);
         }

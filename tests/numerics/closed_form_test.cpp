@@ -95,7 +95,8 @@ TEST_CASE("analytic Greeks match finite differences of the price", "[closed_form
             up.spot += h;
             dn.spot -= h;
             CHECK(g.delta == Approx((price(up, 0.9) - price(dn, 0.9)) / (2 * h)).epsilon(1e-6).margin(1e-9));
-            CHECK(g.gamma == Approx((price(up, 0.9) - 2 * price(m, 0.9) + price(dn, 0.9)) / (h * h)).epsilon(1e-4).margin(1e-7));
+            CHECK(g.gamma ==
+                  Approx((price(up, 0.9) - 2 * price(m, 0.9) + price(dn, 0.9)) / (h * h)).epsilon(1e-4).margin(1e-7));
             up = m, dn = m;
             const double hv = 1e-4;  // digital vega has a large third derivative
             up.volatility += hv;
@@ -110,7 +111,8 @@ TEST_CASE("analytic Greeks match finite differences of the price", "[closed_form
             for (auto& d : later.dividends) d.years -= h;
             auto earlier = m;
             for (auto& d : earlier.dividends) d.years += h;
-            CHECK(g.theta == Approx((price(later, 0.9 - h) - price(earlier, 0.9 + h)) / (2 * h)).epsilon(1e-5).margin(1e-8));
+            CHECK(g.theta ==
+                  Approx((price(later, 0.9 - h) - price(earlier, 0.9 + h)) / (2 * h)).epsilon(1e-5).margin(1e-8));
         }
 }
 

@@ -105,8 +105,12 @@ TEST_CASE("the optimised kernel matches the plain induction at several step coun
 TEST_CASE("the optimised kernel matches the plain induction on larger American lattices", "[lattice_kernel]") {
     // Rate below and above carry (put and call both exercised early), deep and
     // far out of the money, a long expiry with high volatility.
-    struct scenario { double spot, vol, rate, carry, expiry; };
-    const scenario cases[] = {{100, 0.2, 0.08, 0.0, 1.0}, {70, 0.45, 0.02, 0.09, 2.5}, {130, 0.1, 0.1, 0.05, 0.1},
+    struct scenario {
+        double spot, vol, rate, carry, expiry;
+    };
+    const scenario cases[] = {{100, 0.2, 0.08, 0.0, 1.0},
+                              {70, 0.45, 0.02, 0.09, 2.5},
+                              {130, 0.1, 0.1, 0.05, 0.1},
                               {100, 0.9, 0.03, 0.03, 10.0}};
     for (const scenario& s : cases)
         for (const payoff_kind type : {payoff_kind::put, payoff_kind::call})
@@ -141,7 +145,11 @@ TEST_CASE("sweeping only the probable band leaves premium and Greeks unchanged",
     // Hoeffding's inequality bounds what the skipped nodes can carry by 1e-26 of
     // the premium (core/numerics/lattice_kernel.cpp, row_band): far below rounding, so the two
     // extents must agree to the last few bits while the band does far less work.
-    struct scenario { payoff_kind type; exercise_style style; double spot, vol, rate, carry, expiry; };
+    struct scenario {
+        payoff_kind type;
+        exercise_style style;
+        double spot, vol, rate, carry, expiry;
+    };
     const scenario cases[] = {{payoff_kind::put, exercise_style::american, 100, 0.25, 0.05, 0.01, 1.0},
                               {payoff_kind::call, exercise_style::american, 120, 0.6, 0.02, 0.08, 3.0},
                               {payoff_kind::digital_call, exercise_style::european, 90, 0.3, 0.04, 0.0, 2.0}};

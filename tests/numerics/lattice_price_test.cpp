@@ -1,9 +1,9 @@
 // Tests for numerics/lattice and lattice_price: every method against the closed form, published binomial
 // examples, early-exercise facts, convergence orders and the no-arbitrage check.
-#include "numerics/closed_form.hpp"
-#include "contract/errors.hpp"
-#include "numerics/lattice.hpp"
 #include "numerics/lattice_price.hpp"
+#include "contract/errors.hpp"
+#include "numerics/closed_form.hpp"
+#include "numerics/lattice.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,9 +1,9 @@
 // Tests for numerics/work_meter: the run of a request is held to the page's budget.
+#include "numerics/work_meter.hpp"
 #include "commands/trade_reader.hpp"
 #include "dispatch/dispatch.hpp"
 #include "numerics/lattice.hpp"
 #include "numerics/lattice_price.hpp"
-#include "numerics/work_meter.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -42,8 +42,9 @@ TEST_CASE("the run itself is held to the budget, whatever the estimate said", "[
         const json envelope = json::parse(run_command_text("ladder", doc.dump(), 1e5));
         CHECK(envelope["ok"] == false);
         CHECK(envelope["error"]["field"] == "ladder.steps");
-        CHECK_THAT(envelope["error"]["message"].get<std::string>(),
-                   Catch::StartsWith("ladder.steps: the request stopped after about") && Catch::Contains("command-line tool"));
+        CHECK_THAT(
+            envelope["error"]["message"].get<std::string>(),
+            Catch::StartsWith("ladder.steps: the request stopped after about") && Catch::Contains("command-line tool"));
         CHECK(json::parse(run_command_text("ladder", doc.dump(), page_work_budget))["ok"] == true);
     }
 }
