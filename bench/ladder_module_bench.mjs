@@ -21,7 +21,7 @@ const structure = (shape, strikes, exercise) => ({ market, structure: { shape, s
 
 function time(doc, ladder, runs = 15) {
   const text = JSON.stringify({ ...doc, ladder });
-  module.run('ladder', text);  // warm-up: the first call also compiles the hot code in the engine's tiers
+  module.run('ladder', text); // warm-up: the first call also compiles the hot code in the engine's tiers
   const ms = [];
   for (let i = 0; i < runs; i += 1) {
     const start = performance.now();
@@ -35,7 +35,9 @@ function time(doc, ladder, runs = 15) {
 
 function report(label, doc, ladder) {
   const t = time(doc, ladder);
-  console.log(`  ${label.padEnd(44)} ${t.median.toFixed(2).padStart(9)} ms median  ${t.best.toFixed(2).padStart(9)} ms best`);
+  console.log(
+    `  ${label.padEnd(44)} ${t.median.toFixed(2).padStart(9)} ms median  ${t.best.toFixed(2).padStart(9)} ms best`,
+  );
 }
 
 console.log(`ladder command in the WebAssembly module (${modulePath}), Node ${process.version}, 15 runs each`);

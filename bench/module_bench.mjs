@@ -83,11 +83,13 @@ async function load(file) {
 function readReference(file) {
   const lines = readFileSync(file, 'utf8').trim().split('\n');
   const header = lines.shift().split(',');
-  return lines.filter((l) => l && !l.startsWith('#')).map((line) => {
-    const cells = line.split(',');
-    const row = Object.fromEntries(header.map((h, i) => [h, h === 'type' ? cells[i] : Number(cells[i])]));
-    return row;
-  });
+  return lines
+    .filter((l) => l && !l.startsWith('#'))
+    .map((line) => {
+      const cells = line.split(',');
+      const row = Object.fromEntries(header.map((h, i) => [h, h === 'type' ? cells[i] : Number(cells[i])]));
+      return row;
+    });
 }
 
 const benchPut = { spot: 100, strike: 100, vol: 0.25, rate: 0.05, carry: 0.01, expiry: 1 };
@@ -102,7 +104,7 @@ async function main() {
     let start = performance.now();
     module.benchKernel('kernel', 10000, true);
     const coldMs = performance.now() - start;
-    for (let i = 0; i < 20; i++) module.benchKernel('kernel', 50 + i, true);  // warm-up with small prices
+    for (let i = 0; i < 20; i++) module.benchKernel('kernel', 50 + i, true); // warm-up with small prices
     module.benchKernel('usual', 100, true);
     start = performance.now();
     module.benchKernel('kernel', 10000, true);
@@ -113,13 +115,17 @@ async function main() {
   console.log(`# Module backward induction (bench/module_bench.mjs), Node ${process.version}`);
   for (const m of loaded) {
     console.log(`${m.label}: ${m.file}`);
-    console.log(`  instantiate ${m.loadMs.toFixed(1)} ms; 10,000-step American kernel: first call ${m.coldMs.toFixed(1)} ms ` +
-      `(baseline tier), after warm-up with small prices ${m.warmMs.toFixed(1)} ms`);
+    console.log(
+      `  instantiate ${m.loadMs.toFixed(1)} ms; 10,000-step American kernel: first call ${m.coldMs.toFixed(1)} ms ` +
+        `(baseline tier), after warm-up with small prices ${m.warmMs.toFixed(1)} ms`,
+    );
   }
   console.log('times are CPU time of this process, best batch; node updates = steps (steps + 1) / 2\n');
-  console.log(`${padEnd('exercise', 9)} ${pad('steps', 6)}  ${padEnd('loop', 22)} ${pad('time/price ms', 14)} ` +
-    `${pad('node updates', 12)} ${pad('node updates/s', 15)} ${pad('ns/node', 8)} ${pad('vs usual', 9)} ` +
-    `${pad('vs JS peer', 11)}`);
+  console.log(
+    `${padEnd('exercise', 9)} ${pad('steps', 6)}  ${padEnd('loop', 22)} ${pad('time/price ms', 14)} ` +
+      `${pad('node updates', 12)} ${pad('node updates/s', 15)} ${pad('ns/node', 8)} ${pad('vs usual', 9)} ` +
+      `${pad('vs JS peer', 11)}`,
+  );
   const summary = [];
   for (const american of [false, true]) {
     for (const steps of [1000, 10000, 50000]) {
@@ -131,42 +137,63 @@ async function main() {
         const kernel = timeCalls(() => m.module.benchKernel('kernel', steps, american), budget);
         const band = timeCalls(() => m.module.benchKernel('band', steps, american), budget);
         const bandNodes = m.module.benchBandUpdates(steps, american);
-        rows.push({ name: `${m.label} usual loop`, t: usual, usual, nodes: nodeUpdates(steps) },
+        rows.push(
+          { name: `${m.label} usual loop`, t: usual, usual, nodes: nodeUpdates(steps) },
           { name: `${m.label} kernel`, t: kernel, usual, nodes: nodeUpdates(steps) },
-          { name: `${m.label} band`, t: band, usual, nodes: bandNodes });
+          { name: `${m.label} band`, t: band, usual, nodes: bandNodes },
+        );
         const agree = Math.abs(kernel.value - peer.value) / Math.abs(peer.value);
         if (agree > 1e-9) console.log(`  WARNING: ${m.label} kernel and JS peer differ by ${agree.toExponential(2)}`);
-        summary.push({ american, steps, label: m.label, usual: usual.seconds, kernel: kernel.seconds, band: band.seconds,
-          peer: peer.seconds });
+        summary.push({
+          american,
+          steps,
+          label: m.label,
+          usual: usual.seconds,
+          kernel: kernel.seconds,
+          band: band.seconds,
+          peer: peer.seconds,
+        });
       }
       rows.push({ name: 'JS peer (Float64Array)', t: peer, usual: null, nodes: nodeUpdates(steps) });
       for (const r of rows) {
         const ns = (r.t.seconds / r.nodes) * 1e9;
-        console.log(`${padEnd(american ? 'american' : 'european', 9)} ${pad(steps, 6)}  ${padEnd(r.name, 22)} ` +
-          `${pad((r.t.seconds * 1e3).toFixed(3), 14)} ${pad(r.nodes.toPrecision(4), 12)} ` +
-          `${pad((r.nodes / r.t.seconds).toExponential(3), 15)} ` +
-          `${pad(ns.toFixed(3), 8)} ${pad(r.usual ? (r.usual.seconds / r.t.seconds).toFixed(2) : '-', 9)} ` +
-          `${pad((peer.seconds / r.t.seconds).toFixed(2), 11)}`);
+        console.log(
+          `${padEnd(american ? 'american' : 'european', 9)} ${pad(steps, 6)}  ${padEnd(r.name, 22)} ` +
+            `${pad((r.t.seconds * 1e3).toFixed(3), 14)} ${pad(r.nodes.toPrecision(4), 12)} ` +
+            `${pad((r.nodes / r.t.seconds).toExponential(3), 15)} ` +
+            `${pad(ns.toFixed(3), 8)} ${pad(r.usual ? (r.usual.seconds / r.t.seconds).toFixed(2) : '-', 9)} ` +
+            `${pad((peer.seconds / r.t.seconds).toFixed(2), 11)}`,
+        );
       }
     }
   }
-  console.log('(CRR lattice, put, spot 100, strike 100, vol 25 %, rate 5 %, carry 1 %, 1 year; kernel = the core\'s ' +
-    'sweep over every node; band = the same sweep over the probable band only, as the pricer runs it, same value)\n');
+  console.log(
+    "(CRR lattice, put, spot 100, strike 100, vol 25 %, rate 5 %, carry 1 %, 1 year; kernel = the core's " +
+      'sweep over every node; band = the same sweep over the probable band only, as the pricer runs it, same value)\n',
+  );
   for (const m of loaded) {
     const am = summary.filter((s) => s.american && s.label === m.label);
     const fmt = (f) => am.map((s) => `${f(s).toFixed(1)}x at ${s.steps}`).join(', ');
-    console.log(`${m.label}, American: kernel vs usual loop ${fmt((s) => s.usual / s.kernel)}; ` +
-      `kernel vs JS peer ${fmt((s) => s.peer / s.kernel)}; band vs JS peer ${fmt((s) => s.peer / s.band)}`);
+    console.log(
+      `${m.label}, American: kernel vs usual loop ${fmt((s) => s.usual / s.kernel)}; ` +
+        `kernel vs JS peer ${fmt((s) => s.peer / s.kernel)}; band vs JS peer ${fmt((s) => s.peer / s.band)}`,
+    );
   }
 
   // Accuracy per time in the module: the fixed random set against its reference.
   const set = readReference(reference);
   console.log(`\n# Module accuracy per time: ${set.length} American options (${reference})`);
-  console.log(`${padEnd('module', 12)} ${padEnd('method', 16)} ${padEnd('extrap', 6)} ${pad('steps', 6)} ` +
-    `${pad('time/price us', 14)} ${pad('RMS rel err', 12)}`);
+  console.log(
+    `${padEnd('module', 12)} ${padEnd('method', 16)} ${padEnd('extrap', 6)} ${pad('steps', 6)} ` +
+      `${pad('time/price us', 14)} ${pad('RMS rel err', 12)}`,
+  );
   const settings = [
-    ['leisen-reimer', true, 0], ['leisen-reimer', true, 501], ['leisen-reimer', true, 1001], ['leisen-reimer', true, 2001],
-    ['leisen-reimer', false, 0], ['crr', false, 0],
+    ['leisen-reimer', true, 0],
+    ['leisen-reimer', true, 501],
+    ['leisen-reimer', true, 1001],
+    ['leisen-reimer', true, 2001],
+    ['leisen-reimer', false, 0],
+    ['crr', false, 0],
   ];
   for (const m of loaded) {
     for (const [method, extrapolate, steps] of settings) {
@@ -175,8 +202,18 @@ async function main() {
       for (let pass = 0; pass < 3; pass++) {
         const start = cpuSeconds();
         set.forEach((o, i) => {
-          prices[i] = m.module.benchPrice(o.type === 'put', o.spot, o.strike, o.volatility, o.rate, o.carry_yield,
-            o.expiry_years, method, steps, extrapolate);
+          prices[i] = m.module.benchPrice(
+            o.type === 'put',
+            o.spot,
+            o.strike,
+            o.volatility,
+            o.rate,
+            o.carry_yield,
+            o.expiry_years,
+            method,
+            steps,
+            extrapolate,
+          );
         });
         best = Math.min(best, cpuSeconds() - start);
       }
@@ -185,9 +222,11 @@ async function main() {
         const e = (prices[i] - o.reference) / Math.max(o.reference, 0.5);
         sum += e * e;
       });
-      console.log(`${padEnd(m.label, 12)} ${padEnd(method, 16)} ${padEnd(extrapolate ? 'yes' : 'no', 6)} ` +
-        `${pad(steps === 0 ? 'default' : steps, 7)} ${pad(((best / set.length) * 1e6).toFixed(1), 13)} ` +
-        `${pad(Math.sqrt(sum / set.length).toExponential(2), 12)}`);
+      console.log(
+        `${padEnd(m.label, 12)} ${padEnd(method, 16)} ${padEnd(extrapolate ? 'yes' : 'no', 6)} ` +
+          `${pad(steps === 0 ? 'default' : steps, 7)} ${pad(((best / set.length) * 1e6).toFixed(1), 13)} ` +
+          `${pad(Math.sqrt(sum / set.length).toExponential(2), 12)}`,
+      );
     }
   }
 
@@ -198,8 +237,10 @@ async function main() {
       option: { type: 'put', strike: 100, expiry_years: 1, exercise: 'american' },
     });
     const t = timeCalls(() => m.module.run('price', trade), 0.4);
-    console.log(`${m.label}: price command (JSON, default settings, with vega and rho by re-pricing): ` +
-      `${(t.seconds * 1e3).toFixed(3)} ms`);
+    console.log(
+      `${m.label}: price command (JSON, default settings, with vega and rho by re-pricing): ` +
+        `${(t.seconds * 1e3).toFixed(3)} ms`,
+    );
   }
 }
 

@@ -8,18 +8,17 @@
 // debounce to the last change the recompute makes to the page (premium,
 // sensitivities, profit chart, hedge schedule, spot ladder (opened first), print
 // sheet). Uses Debian's
-// Chromium through playwright-core from web/node_modules.
+// Chromium through playwright-core from web/node_modules (tests/browser/harness.mjs).
 import { statSync } from 'node:fs';
-import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
+import { launchChromium } from '../tests/browser/harness.mjs';
+
 const root = dirname(dirname(fileURLToPath(import.meta.url)));
 const pagePath = resolve(process.argv[2] ?? join(root, 'dist/hedgeleaf.html'));
-const require = createRequire(join(root, 'web/package.json'));
-const { chromium } = require('playwright-core');
 const debounceMs = 250;
-const editsPerContext = 4;  // web/src/app.js: changed(delay = 250)
+const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
 
 // Injected before the page's own scripts (by the browser, so the page's CSP does
 // not apply): timestamps of the first premium and of every later change.
@@ -58,11 +57,7 @@ const median = (xs) => quantile(xs, 0.5);
 async function main() {
   const size = statSync(pagePath).size;
   const url = pathToFileURL(pagePath).href;
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run'],
-  });
+  const browser = await launchChromium();
   try {
     const opens = [];
     const recomputes = [];
@@ -93,39 +88,55 @@ async function main() {
       // Edit spot as a user would (an input event), then time the recompute it starts;
       // four edits per context (up, down, up, down), the first right after the open.
       for (let edit = 0; edit < editsPerContext; edit++) {
-        const premiumBefore = await page.evaluate(() => document.querySelector('[data-result="premium"]').dataset.value);
-        const edited = await page.evaluate((factor) => {
-          const input = document.querySelector('[data-path="market.spot"]');
-          if (!input) return null;
-          const value = Number(String(input.value).replace(/,/g, ''));
-          input.value = String(Math.round(value * factor * 100) / 100);
-          const t = performance.now();
-          input.dispatchEvent(new Event('input', { bubbles: true }));
-          return t;
-        }, edit % 2 ? 1 / 1.01 : 1.01);
+        const premiumBefore = await page.evaluate(
+          () => document.querySelector('[data-result="premium"]').dataset.value,
+        );
+        const edited = await page.evaluate(
+          (factor) => {
+            const input = document.querySelector('[data-path="market.spot"]');
+            if (!input) return null;
+            const value = Number(String(input.value).replace(/,/g, ''));
+            input.value = String(Math.round(value * factor * 100) / 100);
+            const t = performance.now();
+            input.dispatchEvent(new Event('input', { bubbles: true }));
+            return t;
+          },
+          edit % 2 ? 1 / 1.01 : 1.01,
+        );
         if (edited === null) throw new Error('no input for market.spot on the page');
         await sleep(debounceMs + 100);
         await settle(page, 600);
-        const timing = await page.evaluate(({ edited, debounce, before }) => {
-          const after = window.__bench.changes.filter((t) => t > edited + debounce);
-          const premium = document.querySelector('[data-result="premium"]').dataset.value;
-          return { last: after.at(-1) - edited - debounce, first: after[0] - edited - debounce, changed: premium !== before };
-        }, { edited, debounce: debounceMs, before: premiumBefore });
+        const timing = await page.evaluate(
+          ({ edited, debounce, before }) => {
+            const after = window.__bench.changes.filter((t) => t > edited + debounce);
+            const premium = document.querySelector('[data-result="premium"]').dataset.value;
+            return {
+              last: after.at(-1) - edited - debounce,
+              first: after[0] - edited - debounce,
+              changed: premium !== before,
+            };
+          },
+          { edited, debounce: debounceMs, before: premiumBefore },
+        );
         if (!timing.changed) throw new Error('the premium did not change after the spot edit');
         recomputes.push(timing.last);
         firstUpdates.push(timing.first);
       }
       await context.close();
     }
-    if (process.env.PAGE_BENCH_ALL) console.log(recomputes.map((x) => x.toFixed(1)).join(" "));
+    if (process.env.PAGE_BENCH_ALL) console.log(recomputes.map((x) => x.toFixed(1)).join(' '));
     console.log(`# Page (bench/page_bench.mjs): ${pagePath}`);
     console.log(`file size: ${size} bytes (${(size / 1024 / 1024).toFixed(2)} MiB; budget 1.5 MiB)`);
-    console.log(`cold open from file:// to the first premium shown: median ${median(opens).toFixed(0)} ms, ` +
-      `best ${Math.min(...opens).toFixed(0)} ms (${opens.length} fresh contexts; budget 500 ms)`);
-    console.log(`full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
-      `${median(firstUpdates).toFixed(1)} ms, last change median ${median(recomputes).toFixed(1)} ms, ` +
-      `90th percentile ${quantile(recomputes, 0.9).toFixed(1)} ms, best ${Math.min(...recomputes).toFixed(1)} ms ` +
-      `(${recomputes.length} edits in ${opens.length} contexts; budget 16 ms)`);
+    console.log(
+      `cold open from file:// to the first premium shown: median ${median(opens).toFixed(0)} ms, ` +
+        `best ${Math.min(...opens).toFixed(0)} ms (${opens.length} fresh contexts; budget 500 ms)`,
+    );
+    console.log(
+      `full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
+        `${median(firstUpdates).toFixed(1)} ms, last change median ${median(recomputes).toFixed(1)} ms, ` +
+        `90th percentile ${quantile(recomputes, 0.9).toFixed(1)} ms, best ${Math.min(...recomputes).toFixed(1)} ms ` +
+        `(${recomputes.length} edits in ${opens.length} contexts; budget 16 ms)`,
+    );
   } finally {
     await browser.close();
   }

@@ -26,10 +26,30 @@ install_packages() {
         $sudo apt-get update -qq
         DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq "${missing[@]}"
     fi
-    if [ -f web/package.json ] && [ ! -d web/node_modules/playwright-core ]; then
-        say "installing npm packages for the browser tests"
+    if [ -f web/package.json ] && ! npm_packages_current; then
+        say "installing npm packages (browser tests, JavaScript formatter and linter)"
         (cd web && npm ci --no-audit --no-fund --loglevel=error)
     fi
+}
+
+# True when web/node_modules holds every package of web/package-lock.json at its locked
+# version (a package added or moved to another version since the last `npm ci` => false).
+npm_packages_current() {
+    (cd web && node -e '
+        const fs = require("fs");
+        const locked = require("./package-lock.json").packages;
+        const installed = (dir) => fs.existsSync(`${dir}/package.json`) && JSON.parse(fs.readFileSync(`${dir}/package.json`, "utf8")).version;
+        const current = Object.entries(locked).every(([dir, entry]) => !dir || entry.optional || entry.link || installed(dir) === entry.version);
+        process.exit(current ? 0 : 1);
+    ')
+}
+
+# Prettier and ESLint over the page, its build, the tests and the benchmarks (the file
+# list and both configurations are in web/: package.json "config.js", prettier.config.mjs,
+# eslint.config.mjs). Fails on any file Prettier would change and on any ESLint finding.
+check_javascript() {
+    say "JavaScript format (Prettier) and lint (ESLint)"
+    (cd web && npm run --silent format:check && npm run --silent lint)
 }
 
 build_native() {
@@ -78,6 +98,7 @@ case "$mode" in
         say "page written to dist/hedgeleaf.html (open it in a browser; it needs no network)"
         ;;
     test)
+        check_javascript
         build_native
         say "native tests"
         (cd build/native && ctest --output-on-failure -j"$jobs")

@@ -36,7 +36,10 @@ export function bundle(entry) {
     if (state.get(file) === 'open') throw new Error(`import cycle through ${relative(root, file)}`);
     state.set(file, 'open');
     const source = readFileSync(file, 'utf8');
-    const imports = [...source.matchAll(importPattern)].map((m) => ({ names: m[1], file: resolve(dirname(file), m[2]) }));
+    const imports = [...source.matchAll(importPattern)].map((m) => ({
+      names: m[1],
+      file: resolve(dirname(file), m[2]),
+    }));
     for (const dep of imports) visit(dep.file);
     state.set(file, 'done');
     modules.push({ file, source, imports });
@@ -46,19 +49,34 @@ export function bundle(entry) {
   const parts = modules.map(({ file, source, imports }) => {
     const exported = [];
     let body = source.replace(importPattern, '');
-    body = body.replace(/^export\s+((?:async\s+)?(?:function\*?|class|const|let)\s+([A-Za-z_$][\w$]*))/gm, (_, decl, name) => {
-      exported.push(name);
-      return decl;
-    });
+    body = body.replace(
+      /^export\s+((?:async\s+)?(?:function\*?|class|const|let)\s+([A-Za-z_$][\w$]*))/gm,
+      (_, decl, name) => {
+        exported.push(name);
+        return decl;
+      },
+    );
     body = body.replace(/^export\s*\{([^}]*)\};?[ \t]*$/gm, (_, names) => {
-      exported.push(...names.split(',').map((n) => n.trim()).filter(Boolean));
+      exported.push(
+        ...names
+          .split(',')
+          .map((n) => n.trim())
+          .filter(Boolean),
+      );
       return '';
     });
-    if (/^\s*(import|export)\b/m.test(body)) throw new Error(`${relative(root, file)}: only named imports and exports are bundled`);
-    const bindings = imports.map(({ names, file: dep }) => {
-      const list = names.split(',').map((n) => n.trim()).filter(Boolean).map((n) => n.replace(/\s+as\s+/, ': '));
-      return `const { ${list.join(', ')} } = ${ids.get(dep)};\n`;
-    }).join('');
+    if (/^\s*(import|export)\b/m.test(body))
+      throw new Error(`${relative(root, file)}: only named imports and exports are bundled`);
+    const bindings = imports
+      .map(({ names, file: dep }) => {
+        const list = names
+          .split(',')
+          .map((n) => n.trim())
+          .filter(Boolean)
+          .map((n) => n.replace(/\s+as\s+/, ': '));
+        return `const { ${list.join(', ')} } = ${ids.get(dep)};\n`;
+      })
+      .join('');
     return `// ${relative(root, file)}\nconst ${ids.get(file)} = (() => {\n${bindings}${body}\nreturn { ${exported.join(', ')} };\n})();\n`;
   });
   return `(() => {\n'use strict';\n${parts.join('\n')}})();\n`;
@@ -67,7 +85,8 @@ export function bundle(entry) {
 const sha256 = (text) => `'sha256-${createHash('sha256').update(text, 'utf8').digest('base64')}'`;
 
 function inlineSafe(text, tag, what) {
-  if (new RegExp(`</${tag}`, 'i').test(text)) throw new Error(`${what} contains </${tag}, which would end its inline element`);
+  if (new RegExp(`</${tag}`, 'i').test(text))
+    throw new Error(`${what} contains </${tag}, which would end its inline element`);
   return text;
 }
 
@@ -80,7 +99,7 @@ async function engineFacts() {
 async function main() {
   const engineJs = inlineSafe(readFileSync(modulePath, 'utf8'), 'script', 'the engine module');
   const { version, commands } = await engineFacts();
-  const appJs = inlineSafe(bundle(join(web, 'src/app.js')), 'script', 'the page script');
+  const appJs = inlineSafe(bundle(join(web, 'src/main.js')), 'script', 'the page script');
   const workerJs = inlineSafe(bundle(join(web, 'src/worker.js')), 'script', 'the worker script');
   const css = inlineSafe(readFileSync(join(web, 'style.css'), 'utf8'), 'style', 'the style sheet');
   const icon = `data:image/svg+xml;base64,${readFileSync(join(web, 'icons/leaf.svg')).toString('base64')}`;
@@ -104,9 +123,12 @@ async function main() {
   fill('<!--CSP-->', `<meta http-equiv="Content-Security-Policy" content="${csp}">`);
   fill('<!--ICON-->', icon);
   fill('/*STYLE*/', css);
-  fill('<!--TRADE-->', `<script type="application/json" id="example-trade">${example}</script>\n` +
-    '<script type="application/json" id="embedded-trade"></script>\n' +
-    `<script type="text/plain" id="engine-commands">${commands}</script>`);
+  fill(
+    '<!--TRADE-->',
+    `<script type="application/json" id="example-trade">${example}</script>\n` +
+      '<script type="application/json" id="embedded-trade"></script>\n' +
+      `<script type="text/plain" id="engine-commands">${commands}</script>`,
+  );
   fill('<!--ENGINE-->', `<script id="engine-js">${engineJs}</script>`);
   fill('<!--WORKER-->', `<script type="text/plain" id="worker-js">${workerJs}</script>`);
   fill('<!--APP-->', `<script id="app-js">${appJs}</script>`);
@@ -114,7 +136,9 @@ async function main() {
   mkdirSync(dirname(outPath), { recursive: true });
   writeFileSync(outPath, html);
   const size = statSync(outPath).size;
-  console.log(`${relative(process.cwd(), outPath)}: ${(size / 1024).toFixed(0)} KiB, engine ${version}, commands ${commands}`);
+  console.log(
+    `${relative(process.cwd(), outPath)}: ${(size / 1024).toFixed(0)} KiB, engine ${version}, commands ${commands}`,
+  );
   if (size >= maxBytes) throw new Error(`the page is ${size} bytes, over the ${maxBytes}-byte budget`);
 }
 

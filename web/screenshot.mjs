@@ -14,16 +14,27 @@ const root = dirname(web);
 const { chromium } = createRequire(join(web, 'package.json'))('playwright-core');
 
 const trade = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
-trade.quote = { client: 'Orchard Lane Growers (treasury)', currency: 'EUR', margin_type: 'fraction_of_premium', margin: 0.02, tick: 0.01 };
+trade.quote = {
+  client: 'Orchard Lane Growers (treasury)',
+  currency: 'EUR',
+  margin_type: 'fraction_of_premium',
+  margin: 0.02,
+  tick: 0.01,
+};
 const url = `${pathToFileURL(join(root, 'dist/hedgeleaf.html')).href}#trade=${Buffer.from(JSON.stringify(trade)).toString('base64url')}`;
 
-const browser = await chromium.launch({ executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu'] });
+const browser = await chromium.launch({
+  executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
+  args: ['--no-sandbox', '--disable-gpu'],
+});
 const context = await browser.newContext({ viewport: { width: 1360, height: 1150 }, deviceScaleFactor: 1 });
 await context.setOffline(true);
 const page = await context.newPage();
 await page.goto(url);
 await page.locator('#profile-chart svg path').first().waitFor({ timeout: 20000 });
-await page.evaluate(() => { document.getElementById('notice').hidden = true; });  // the 'opened from the link' line
+await page.evaluate(() => {
+  document.getElementById('notice').hidden = true;
+}); // the 'opened from the link' line
 await page.waitForTimeout(500);
 mkdirSync(join(root, 'docs'), { recursive: true });
 await page.screenshot({ path: join(root, 'docs/page.png') });

@@ -12,27 +12,23 @@ import { dirname, join } from 'node:path';
 import { after, before, test } from 'node:test';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
+import { launchChromium, until } from './harness.mjs';
+
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const pagePath = join(root, 'dist/hedgeleaf.html');
 const pageUrl = pathToFileURL(pagePath).href;
-const require = createRequire(join(root, 'web/package.json'));
-const { chromium } = require('playwright-core');
 const cli = process.env.HEDGELEAF_CLI ?? join(root, 'build/native/hedgeleaf');
 const exampleText = readFileSync(join(root, 'examples/american-put.json'), 'utf8');
 const linkTo = (text) => `${pageUrl}#trade=${Buffer.from(text).toString('base64url')}`;
 
 let browser;
 let context;
-const problems = [];  // console errors and requests that are not the page itself
+const problems = []; // console errors and requests that are not the page itself
 const requests = [];
 
 before(async () => {
   assert.ok(existsSync(pagePath), 'build the page first: node web/build.mjs');
-  browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run'],
-  });
+  browser = await launchChromium();
   context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
   await context.setOffline(true);
   context.on('request', (request) => {
@@ -50,26 +46,13 @@ after(async () => {
 async function open(url = linkTo(exampleText)) {
   const page = await context.newPage();
   page.on('console', (message) => {
-    if (message.type() === 'error' || message.type() === 'warning') problems.push(`console ${message.type()}: ${message.text()}`);
+    if (message.type() === 'error' || message.type() === 'warning')
+      problems.push(`console ${message.type()}: ${message.text()}`);
   });
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
   await page.goto(url);
   await premiumShown(page);
   return page;
-}
-
-/**
- * Poll `fn` in the page until it returns something truthy. (page.waitForFunction
- * compiles its predicate with eval, which the page's CSP rightly refuses.)
- */
-async function until(page, fn, arg, timeout = 20000) {
-  const end = Date.now() + timeout;
-  for (;;) {
-    const value = await page.evaluate(fn, arg);
-    if (value) return value;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${fn}`);
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
 }
 
 async function premiumShown(page) {
@@ -89,10 +72,19 @@ test('opens from file:// offline and prices the example as the CLI does', async 
   const page = await open();
   const premium = await premiumShown(page);
   const expected = await cliPremium(exampleText);
-  assert.ok(Math.abs(premium - expected) <= 1e-9 * expected, `page ${premium}, CLI ${expected}`);  // same tolerance as the module tests
+  assert.ok(Math.abs(premium - expected) <= 1e-9 * expected, `page ${premium}, CLI ${expected}`); // same tolerance as the module tests
   assert.equal(await page.textContent('[data-result="premium"]'), premium.toFixed(4));
   assert.match(await page.textContent('[data-result="premium-total"]'), /^\d{1,3}(,\d{3})+\.\d\d$/);
-  for (const name of ['delta', 'gamma', 'theta', 'vega', 'rho', 'closed-form-premium', 'error-estimate', 'premium-total']) {
+  for (const name of [
+    'delta',
+    'gamma',
+    'theta',
+    'vega',
+    'rho',
+    'closed-form-premium',
+    'error-estimate',
+    'premium-total',
+  ]) {
     assert.ok(await page.getAttribute(`[data-result="${name}"]`, 'data-value'), `${name} has no value`);
   }
   await page.close();
@@ -126,12 +118,20 @@ test('export then import gives back the same trade; a bad file is refused', asyn
 
   await page.fill('[data-path="option.strike"]', '50');
   await until(page, (p) => Number(document.querySelector('[data-result="premium"]').dataset.value) !== p, premium);
-  await page.setInputFiles('#import-file', { name: 'bad.json', mimeType: 'application/json', buffer: Buffer.from('{"market": {"spot": -1}}') });
+  await page.setInputFiles('#import-file', {
+    name: 'bad.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from('{"market": {"spot": -1}}'),
+  });
   await page.locator('#notice').filter({ hasText: 'was not opened' }).waitFor();
   assert.match(await page.textContent('#notice'), /market\.spot: must be > 0, got -1/);
   assert.equal(await page.inputValue('[data-path="option.strike"]'), '50');
 
-  await page.setInputFiles('#import-file', { name: 'back.json', mimeType: 'application/json', buffer: Buffer.from(saved) });
+  await page.setInputFiles('#import-file', {
+    name: 'back.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from(saved),
+  });
   await until(page, (p) => Number(document.querySelector('[data-result="premium"]').dataset.value) === p, premium);
   assert.equal(await page.inputValue('[data-path="option.strike"]'), '46');
   await page.close();
@@ -139,25 +139,49 @@ test('export then import gives back the same trade; a bad file is refused', asyn
 
 test('the print view is the quote sheet, with the cautions; client text stays text', async () => {
   const trade = JSON.parse(exampleText);
-  trade.quote = { client: '<b>Orchard</b> & Lane', notes: '<img src=x>', currency: 'EUR', margin_type: 'fraction_of_premium', margin: 0.02, tick: 0.01 };
+  trade.quote = {
+    client: '<b>Orchard</b> & Lane',
+    notes: '<img src=x>',
+    currency: 'EUR',
+    margin_type: 'fraction_of_premium',
+    margin: 0.02,
+    tick: 0.01,
+  };
   const page = await open(linkTo(JSON.stringify(trade)));
   await page.emulateMedia({ media: 'print' });
   const sheet = page.locator('#quote-sheet');
   assert.ok(await sheet.isVisible());
   assert.ok(!(await page.locator('#terms').isVisible()));
   const text = await sheet.innerText();
-  for (const phrase of ['Indicative only', 'not an offer', 'not investment advice', 'constant volatility', 'without frictions',
-    'sales rules', 'Input fingerprint', 'Valued at', 'Engine']) {
+  for (const phrase of [
+    'Indicative only',
+    'not an offer',
+    'not investment advice',
+    'constant volatility',
+    'without frictions',
+    'sales rules',
+    'Input fingerprint',
+    'Valued at',
+    'Engine',
+  ]) {
     assert.ok(text.includes(phrase), `the sheet lacks "${phrase}"`);
   }
   assert.match(text, /Premium per unit\s+3\.\d{4}/);
   assert.match(text, /Input fingerprint\s+[0-9a-f]{12}/);
   // the client price is the engine's (3.0822 + 2 %, up to the 0.01 tick); an engine without quotes shows none
   const clientPrice = (await cliResult(JSON.stringify(trade))).client_price;
-  if (clientPrice) assert.match(text, new RegExp(`Client price per unit \\(buys at the offer\\)\\s+${clientPrice.per_unit.toFixed(4)} EUR`));
+  if (clientPrice)
+    assert.match(
+      text,
+      new RegExp(`Client price per unit \\(buys at the offer\\)\\s+${clientPrice.per_unit.toFixed(4)} EUR`),
+    );
   else assert.ok(!text.includes('Client price'));
   assert.ok(text.includes('<b>Orchard</b> & Lane') && text.includes('<img src=x>'), 'client text shown as typed');
-  assert.equal(await page.locator('#quote-sheet b, #quote-sheet img, .workbench b').count(), 0, 'client text never becomes HTML');
+  assert.equal(
+    await page.locator('#quote-sheet b, #quote-sheet img, .workbench b').count(),
+    0,
+    'client text never becomes HTML',
+  );
   // one A4 page, the caution at its head and the full notes at its foot (printed scrolled down,
   // as from the button at the foot of a long page)
   await page.evaluate(() => window.scrollTo(0, 400));
@@ -173,11 +197,20 @@ test('a hedge along a path picked on the tree; a long simulation cancels, a shor
   const page = await open();
   await page.check('input[name="hedge-kind"][value="lattice"]');
   await page.locator('#hedge-tree .node').first().waitFor();
-  const spotAfterStep1 = () => page.evaluate(() => document.querySelector('[data-result="hedge-schedule"] tbody tr:nth-child(2) td:nth-child(3)')?.textContent);
+  const spotAfterStep1 = () =>
+    page.evaluate(
+      () => document.querySelector('[data-result="hedge-schedule"] tbody tr:nth-child(2) td:nth-child(3)')?.textContent,
+    );
   await until(page, () => document.querySelectorAll('#hedge-tree .node.on-path').length === 7);
   const up = await spotAfterStep1();
-  await page.click('.path-buttons .move >> nth=0');  // the first step turns from up to down
-  await until(page, (before) => document.querySelector('[data-result="hedge-schedule"] tbody tr:nth-child(2) td:nth-child(3)')?.textContent !== before, up);
+  await page.click('.path-buttons .move >> nth=0'); // the first step turns from up to down
+  await until(
+    page,
+    (before) =>
+      document.querySelector('[data-result="hedge-schedule"] tbody tr:nth-child(2) td:nth-child(3)')?.textContent !==
+      before,
+    up,
+  );
   assert.ok(Number((await spotAfterStep1()).replace(/,/g, '')) < 48.2, 'after a down move spot is below 48.20');
   assert.equal(await page.getAttribute('.path-buttons .move >> nth=0', 'aria-pressed'), 'false');
 
@@ -197,25 +230,42 @@ test('scenario ladder and solver: cards open, recompute with the trade, and the 
   const page = await open();
   const rows = () => document.querySelectorAll('table[data-result="ladder"] tbody tr').length;
   await page.click('#ladder-card summary');
-  assert.equal(await until(page, rows), 21);  // spot -20 % .. +20 % in steps of 2 %
-  const today = await page.evaluate(() => [...document.querySelectorAll('table[data-result="ladder"] tbody tr')]
-    .map((tr) => [...tr.cells].map((c) => c.textContent)).find((cells) => cells[1] === '+0.0 %'));
+  assert.equal(await until(page, rows), 21); // spot -20 % .. +20 % in steps of 2 %
+  const today = await page.evaluate(() =>
+    [...document.querySelectorAll('table[data-result="ladder"] tbody tr')]
+      .map((tr) => [...tr.cells].map((c) => c.textContent))
+      .find((cells) => cells[1] === '+0.0 %'),
+  );
   assert.equal(today[0], '48.20');
-  assert.equal(today[3], '0.0000');  // P&L against today's value on the same lattice
+  assert.equal(today[3], '0.0000'); // P&L against today's value on the same lattice
   // an edit refreshes the open ladder in place
   await page.fill('[data-path="market.spot"]', '50');
-  await until(page, () => document.querySelector('table[data-result="ladder"] tbody tr:nth-child(11) th')?.textContent === '50.00');
+  await until(
+    page,
+    () => document.querySelector('table[data-result="ladder"] tbody tr:nth-child(11) th')?.textContent === '50.00',
+  );
   await page.selectOption('[data-path="ladder.kind"]', 'volatility');
   await until(page, () => document.querySelector('table[data-result="ladder"] thead th')?.textContent === 'Volatility');
 
   await page.click('#solve-card summary');
   await page.selectOption('#solve-for', 'volatility');
   await page.fill('[data-path="solve.target_premium"]', '3.5');
-  const vol = Number(await until(page, () => !('computing' in document.body.dataset) &&
-    document.querySelector('[data-result="solve-solution"]')?.dataset.value));
-  assert.ok(vol > 0.31 && vol < 0.6, `solved volatility ${vol}`);  // a dearer put needs a higher volatility
+  const vol = Number(
+    await until(
+      page,
+      () =>
+        !('computing' in document.body.dataset) &&
+        document.querySelector('[data-result="solve-solution"]')?.dataset.value,
+    ),
+  );
+  assert.ok(vol > 0.31 && vol < 0.6, `solved volatility ${vol}`); // a dearer put needs a higher volatility
   await page.click('#solve-output button');
-  await until(page, () => !('computing' in document.body.dataset) && document.querySelector('[data-path="market.volatility"]').value !== '31');
+  await until(
+    page,
+    () =>
+      !('computing' in document.body.dataset) &&
+      document.querySelector('[data-path="market.volatility"]').value !== '31',
+  );
   const premium = await premiumShown(page);
   assert.ok(Math.abs(premium - 3.5) < 1e-4, `premium after using the solved volatility: ${premium}`);
   await page.close();
@@ -223,27 +273,40 @@ test('scenario ladder and solver: cards open, recompute with the trade, and the 
 
 test('on a phone and a tablet no card cuts off its figures (wide tables scroll inside the card)', async () => {
   const page = await open();
-  await page.evaluate(() => { for (const d of document.querySelectorAll('details.card')) d.open = true; });
+  await page.evaluate(() => {
+    for (const d of document.querySelectorAll('details.card')) d.open = true;
+  });
   for (const width of [360, 768]) {
     await page.setViewportSize({ width, height: 800 });
-    await until(page, () => document.querySelector('table[data-result="ladder"] tbody tr') && !('computing' in document.body.dataset));
+    await until(
+      page,
+      () => document.querySelector('table[data-result="ladder"] tbody tr') && !('computing' in document.body.dataset),
+    );
     const cut = await page.evaluate(() => {
       const out = [];
       for (const card of document.querySelectorAll('.card:not([hidden])')) {
-        card.scrollIntoView();  // cards off screen may skip layout (content-visibility)
+        card.scrollIntoView(); // cards off screen may skip layout (content-visibility)
         const edge = card.getBoundingClientRect().right;
         for (const el of card.querySelectorAll('*')) {
           const box = el.getBoundingClientRect();
           if (box.width === 0 || box.right <= edge + 1) continue;
           let scrolls = false;
-          for (let p = el.parentElement; p && p !== card && !scrolls; p = p.parentElement) scrolls = ['auto', 'scroll'].includes(getComputedStyle(p).overflowX);
-          if (!scrolls) out.push(`${card.dataset.panel}: <${el.tagName.toLowerCase()}> ends at ${Math.round(box.right)}, card at ${Math.round(edge)}`);
+          for (let p = el.parentElement; p && p !== card && !scrolls; p = p.parentElement)
+            scrolls = ['auto', 'scroll'].includes(getComputedStyle(p).overflowX);
+          if (!scrolls)
+            out.push(
+              `${card.dataset.panel}: <${el.tagName.toLowerCase()}> ends at ${Math.round(box.right)}, card at ${Math.round(edge)}`,
+            );
         }
       }
       return out.slice(0, 5);
     });
     assert.deepEqual(cut, [], `at ${width} px wide`);
-    assert.equal(await page.evaluate(() => document.documentElement.scrollWidth), width, `the page scrolls sideways at ${width} px`);
+    assert.equal(
+      await page.evaluate(() => document.documentElement.scrollWidth),
+      width,
+      `the page scrolls sideways at ${width} px`,
+    );
   }
   await page.close();
 });

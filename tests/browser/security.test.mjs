@@ -10,18 +10,16 @@
 //     last good result.
 import assert from 'node:assert/strict';
 import { existsSync, readFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { after, before, test } from 'node:test';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 import { badInputs, caseText } from '../bad_inputs.mjs';
+import { launchChromium, until } from './harness.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const pagePath = resolve(process.env.HEDGELEAF_PAGE ?? join(root, 'dist/hedgeleaf.html'));
 const pageUrl = pathToFileURL(pagePath).href;
-const require = createRequire(join(root, 'web/package.json'));
-const { chromium } = require('playwright-core');
 const exampleText = readFileSync(join(root, 'examples/american-put.json'), 'utf8');
 const linkTo = (text) => `${pageUrl}#trade=${Buffer.from(text).toString('base64url')}`;
 
@@ -34,16 +32,12 @@ const payloads = [
 
 let browser;
 let context;
-const requests = [];  // every request any page or worker of the context made
-const foreign = [];   // requests other than the page file and the engine worker's blob:
+const requests = []; // every request any page or worker of the context made
+const foreign = []; // requests other than the page file and the engine worker's blob:
 
 before(async () => {
   assert.ok(existsSync(pagePath), `build the page first: node web/build.mjs (${pagePath})`);
-  browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update',
-      '--disable-sync', '--no-first-run'],
-  });
+  browser = await launchChromium();
   context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1280, height: 900 } });
   await context.grantPermissions(['clipboard-read', 'clipboard-write']);
   await context.setOffline(true);
@@ -65,27 +59,20 @@ after(async () => {
   await browser?.close();
 });
 
-/** Poll `fn` in the page (page.waitForFunction needs eval, which the CSP refuses). */
-async function until(page, fn, arg, timeout = 20000) {
-  const end = Date.now() + timeout;
-  for (;;) {
-    const value = await page.evaluate(fn, arg);
-    if (value) return value;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${fn}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
-
 const premiumOf = (page) => until(page, () => document.querySelector('[data-result="premium"]')?.dataset.value);
 
 async function open(url = linkTo(exampleText)) {
   const page = await context.newPage();
   page.on('websocket', (ws) => foreign.push(`websocket: ${ws.url()}`));
   page.on('worker', (worker) => {
-    worker.evaluate(() => {
-      globalThis.__violations = [];
-      globalThis.addEventListener('securitypolicyviolation', (e) => globalThis.__violations.push(e.violatedDirective));
-    }).catch(() => {});
+    worker
+      .evaluate(() => {
+        globalThis.__violations = [];
+        globalThis.addEventListener('securitypolicyviolation', (e) =>
+          globalThis.__violations.push(e.violatedDirective),
+        );
+      })
+      .catch(() => {});
   });
   await page.goto(url);
   await premiumOf(page);
@@ -96,7 +83,9 @@ async function open(url = linkTo(exampleText)) {
 async function assertInert(page, where) {
   const state = await page.evaluate(() => ({
     pwned: window.__pwned ?? null,
-    injected: document.querySelectorAll('img[src="x"], svg[onload], [onerror], [onload], body script:not([id]):not([type])').length,
+    injected: document.querySelectorAll(
+      'img[src="x"], svg[onload], [onerror], [onload], body script:not([id]):not([type])',
+    ).length,
     violations: window.__violations,
   }));
   assert.equal(state.pwned, null, `${where}: user text ran as script`);
@@ -115,19 +104,27 @@ test('the CSP allows no eval or inline script; both are refused and reported', a
   await assertInert(page, 'after opening');
   // A string timer is eval by another name; an injected inline script is what an HTML
   // injection would bring. Neither runs, and each is reported as a violation.
-  const probe = await page.evaluate(() => new Promise((done) => {
-    const before = window.__violations.length;
-    setTimeout('window.__pwned = "string timer"', 0);
-    const script = document.createElement('script');
-    script.textContent = 'window.__pwned = "inline script"';
-    document.body.append(script);
-    script.remove();
-    setTimeout(() => done({ pwned: window.__pwned ?? null, reported: window.__violations.slice(before) }), 300);
-  }));
+  const probe = await page.evaluate(
+    () =>
+      new Promise((done) => {
+        const before = window.__violations.length;
+        setTimeout('window.__pwned = "string timer"', 0);
+        const script = document.createElement('script');
+        script.textContent = 'window.__pwned = "inline script"';
+        document.body.append(script);
+        script.remove();
+        setTimeout(() => done({ pwned: window.__pwned ?? null, reported: window.__violations.slice(before) }), 300);
+      }),
+  );
   assert.equal(probe.pwned, null);
   assert.deepEqual(probe.reported.map((v) => v.split(':')[0]).sort(), ['script-src', 'script-src-elem']);
-  assert.ok(probe.reported.some((v) => v.endsWith(': eval')), probe.reported.join(', '));
-  await page.evaluate(() => { window.__violations.length = 0; });
+  assert.ok(
+    probe.reported.some((v) => v.endsWith(': eval')),
+    probe.reported.join(', '),
+  );
+  await page.evaluate(() => {
+    window.__violations.length = 0;
+  });
   await page.close();
 });
 
@@ -136,21 +133,34 @@ test('no request leaves the page, also after import, export, print, link and pag
   const premium = await premiumOf(page);
   const [saved] = await Promise.all([page.waitForEvent('download'), page.click('#action-export')]);
   const text = readFileSync(await saved.path(), 'utf8');
-  await page.setInputFiles('#import-file', { name: 'back.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+  await page.setInputFiles('#import-file', {
+    name: 'back.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from(text),
+  });
   await page.locator('#notice').filter({ hasText: 'back.json' }).waitFor();
   await page.click('#action-link');
-  await page.locator('#notice').filter({ hasText: /clipboard|address bar/ }).waitFor();
+  await page
+    .locator('#notice')
+    .filter({ hasText: /clipboard|address bar/ })
+    .waitFor();
   const [copy] = await Promise.all([page.waitForEvent('download'), page.click('#action-copy-page')]);
   assert.ok(readFileSync(await copy.path(), 'utf8').includes('id="embedded-trade">{'));
   await page.emulateMedia({ media: 'print' });
   assert.ok((await page.pdf({ format: 'A4' })).length > 10000);
   await page.emulateMedia({ media: 'screen' });
   // Every card that computes something, once.
-  for (const details of await page.locator('details').all()) await details.evaluate((d) => { d.open = true; });
+  for (const details of await page.locator('details').all())
+    await details.evaluate((d) => {
+      d.open = true;
+    });
   await new Promise((r) => setTimeout(r, 1500));
   assert.equal(await premiumOf(page), premium);
   await assertInert(page, 'after import, export, print, link and copy');
-  assert.ok(requests.some((url) => url.startsWith(pageUrl)), 'the page itself was seen');
+  assert.ok(
+    requests.some((url) => url.startsWith(pageUrl)),
+    'the page itself was seen',
+  );
   assert.deepEqual(foreign, [], 'requests beyond the page file');
   await page.close();
 });
@@ -176,7 +186,7 @@ test('text typed into client, notes and currency stays text', async () => {
   await page.close();
 });
 
-test('strings of an imported file, its name and a link\'s trade stay text', async () => {
+test("strings of an imported file, its name and a link's trade stay text", async () => {
   for (const payload of payloads) {
     const trade = JSON.parse(exampleText);
     trade.quote = { client: payload, notes: payload, currency: 'EUR' };
@@ -185,14 +195,25 @@ test('strings of an imported file, its name and a link\'s trade stay text', asyn
     assert.equal(await page.inputValue('[data-path="quote.client"]'), payload);
     await assertInert(page, `link with ${payload}`);
     // Imported, under a file name that is markup itself:
-    await page.setInputFiles('#import-file', { name: `${payload}.json`, mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(trade)) });
+    await page.setInputFiles('#import-file', {
+      name: `${payload}.json`,
+      mimeType: 'application/json',
+      buffer: Buffer.from(JSON.stringify(trade)),
+    });
     // (wait for this file's notice, not the link's "Opened the trade from the link")
-    await page.locator('#notice').filter({ hasText: `${payload}.json` }).waitFor();
+    await page
+      .locator('#notice')
+      .filter({ hasText: `${payload}.json` })
+      .waitFor();
     assert.match(await page.textContent('#notice'), /^Opened “/);
     // Refused, with the markup quoted inside the engine's message:
     const bad = JSON.parse(exampleText);
     bad.option.type = payload;
-    await page.setInputFiles('#import-file', { name: 'bad.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) });
+    await page.setInputFiles('#import-file', {
+      name: 'bad.json',
+      mimeType: 'application/json',
+      buffer: Buffer.from(JSON.stringify(bad)),
+    });
     await page.locator('#notice').filter({ hasText: 'was not opened' }).waitFor();
     assert.ok((await page.textContent('#notice')).includes('option.type: must be one of'));
     await assertInert(page, `imported ${payload}`);
@@ -204,7 +225,10 @@ test('strings of an imported file, its name and a link\'s trade stay text', asyn
 test('a link whose trade is nested thousands deep is refused with a notice; the page keeps working', async () => {
   const deep = `{"market": ${'{"a": '.repeat(5000)}1${'}'.repeat(5000)}}`;
   const page = await open(linkTo(deep));
-  await page.locator('#notice').filter({ hasText: 'could not be read (it is nested more than 64 levels deep' }).waitFor();
+  await page
+    .locator('#notice')
+    .filter({ hasText: 'could not be read (it is nested more than 64 levels deep' })
+    .waitFor();
   assert.ok(Number(await premiumOf(page)) > 0, 'the last trade is priced instead');
   await page.close();
 });
@@ -216,7 +240,7 @@ test('an edited trade is back after a reload', async () => {
   await page.fill('[data-path="quote.currency"]', 'EUR');
   await page.fill('[data-path="quote.client"]', 'Kestrel Mill Holdings');
   await until(page, (p) => document.querySelector('[data-result="premium"]').dataset.value !== p, first);
-  await new Promise((r) => setTimeout(r, 800));  // past the recompute debounce
+  await new Promise((r) => setTimeout(r, 800)); // past the recompute debounce
   await until(page, () => !('computing' in document.body.dataset));
   const premium = await premiumOf(page);
   await page.reload();
@@ -229,7 +253,11 @@ test('an edited trade is back after a reload', async () => {
 test('a corrupt import leaves the current trade as it was', async () => {
   const page = await open();
   await page.fill('[data-path="option.strike"]', '44');
-  await until(page, () => !('computing' in document.body.dataset) && document.querySelector('[data-path="option.strike"]').value === '44');
+  await until(
+    page,
+    () =>
+      !('computing' in document.body.dataset) && document.querySelector('[data-path="option.strike"]').value === '44',
+  );
   await new Promise((r) => setTimeout(r, 600));
   const premium = await premiumOf(page);
   const saved = await page.evaluate(() => localStorage.getItem('hedgeleaf.autosave.v1'));
@@ -244,14 +272,20 @@ test('a corrupt import leaves the current trade as it was', async () => {
     ['deep.json', `{"market": ${'{"a": '.repeat(5000)}1${'}'.repeat(5000)}}`, 'nested more than 64 levels deep'],
   ];
   for (const [name, content, why] of corrupt) {
-    await page.evaluate(() => { document.getElementById('notice').textContent = ''; });
+    await page.evaluate(() => {
+      document.getElementById('notice').textContent = '';
+    });
     await page.setInputFiles('#import-file', { name, mimeType: 'application/json', buffer: Buffer.from(content) });
     await page.locator('#notice').filter({ hasText: why }).waitFor();
     assert.match(await page.textContent('#notice'), /The current trade is unchanged/);
     assert.equal(await page.inputValue('[data-path="option.strike"]'), '44', name);
     assert.equal(await premiumOf(page), premium, name);
   }
-  assert.equal(await page.evaluate(() => localStorage.getItem('hedgeleaf.autosave.v1')), saved, 'the autosave is untouched');
+  assert.equal(
+    await page.evaluate(() => localStorage.getItem('hedgeleaf.autosave.v1')),
+    saved,
+    'the autosave is untouched',
+  );
   await page.close();
 });
 
@@ -287,7 +321,11 @@ test('local storage full: a clear warning, and the trade on screen keeps working
 test('bad inputs from the shared table: the message inline, the last good result kept', async () => {
   const page = await open();
   // Form fields that take the table's bad value as typed (volatility in percent).
-  const typed = { 'spot 0': ['market.spot', '0'], 'strike -1': ['option.strike', '-1'], 'volatility 0': ['market.volatility', '0'] };
+  const typed = {
+    'spot 0': ['market.spot', '0'],
+    'strike -1': ['option.strike', '-1'],
+    'volatility 0': ['market.volatility', '0'],
+  };
   for (const c of badInputs.cases.filter((x) => x.name in typed)) {
     const [path, value] = typed[c.name];
     const before = await page.textContent('[data-result="premium"]');
@@ -302,8 +340,14 @@ test('bad inputs from the shared table: the message inline, the last good result
   }
   // Whole documents from the table, imported: refused with the engine's message, nothing changes.
   const premium = await premiumOf(page);
-  for (const c of badInputs.cases.filter((x) => ['volatilty', 'expiry before valuation', 'strikes out of order'].includes(x.name))) {
-    await page.setInputFiles('#import-file', { name: 'case.json', mimeType: 'application/json', buffer: Buffer.from(caseText(c)) });
+  for (const c of badInputs.cases.filter((x) =>
+    ['volatilty', 'expiry before valuation', 'strikes out of order'].includes(x.name),
+  )) {
+    await page.setInputFiles('#import-file', {
+      name: 'case.json',
+      mimeType: 'application/json',
+      buffer: Buffer.from(caseText(c)),
+    });
     await page.locator('#notice').filter({ hasText: c.message }).waitFor();
     assert.ok((await page.textContent('#notice')).includes(`${c.field}: `));
     assert.equal(await premiumOf(page), premium);

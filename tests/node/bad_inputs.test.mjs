@@ -49,8 +49,14 @@ test('after every refusal the module still prices', () => {
   assert.ok(ok.premium > 0);
 });
 
-test('a request above the page\'s work budget is refused up front, naming the field', () => {
-  const legs = Array.from({ length: 12 }, (_, i) => ({ type: 'put', strike: 80 + 5 * i, expiry_years: 2, exercise: 'american', quantity: 1 }));
+test("a request above the page's work budget is refused up front, naming the field", () => {
+  const legs = Array.from({ length: 12 }, (_, i) => ({
+    type: 'put',
+    strike: 80 + 5 * i,
+    expiry_years: 2,
+    exercise: 'american',
+    quantity: 1,
+  }));
   const doc = { market: { spot: 100, volatility: 0.3, rate: 0.05 }, legs, lattice: { steps: 50000 } };
   const start = performance.now();
   let caught;
@@ -62,7 +68,10 @@ test('a request above the page\'s work budget is refused up front, naming the fi
   const seconds = (performance.now() - start) / 1000;
   assert.ok(caught instanceof EngineError, `not refused: ${caught}`);
   assert.equal(caught.field, 'lattice.steps');
-  assert.match(caught.message, /^lattice\.steps: 12 option legs at 50001 steps, .* the page runs at once .*command-line tool/);
+  assert.match(
+    caught.message,
+    /^lattice\.steps: 12 option legs at 50001 steps, .* the page runs at once .*command-line tool/,
+  );
   assert.ok(seconds < 1, `refused after ${seconds} s: it was attempted`);
   // One leg at the same steps is within the budget and prices.
   assert.ok(engine.run('price', { ...doc, legs: legs.slice(0, 1) }).premium > 0);

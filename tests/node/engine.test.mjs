@@ -22,12 +22,20 @@ const cli = process.env.HEDGELEAF_CLI ?? join(root, 'build/native/hedgeleaf');
 const haveCli = existsSync(cli);
 const engine = await loadEngine(createRequire(import.meta.url)(modulePath));
 
-const examples = readdirSync(join(root, 'examples')).filter((f) => f.endsWith('.json')).sort();
+const examples = readdirSync(join(root, 'examples'))
+  .filter((f) => f.endsWith('.json'))
+  .sort();
 const readExample = (name) => readFileSync(join(root, 'examples', name), 'utf8');
 
 /** Commands that apply to an example: price always, a section's own command when it has one. */
 function commandsFor(doc) {
-  const own = { hedge: ['hedge', 'tree'], simulate: ['simulate'], solve: ['solve'], ladder: ['ladder'], profile: ['profile'] };
+  const own = {
+    hedge: ['hedge', 'tree'],
+    simulate: ['simulate'],
+    solve: ['solve'],
+    ladder: ['ladder'],
+    profile: ['profile'],
+  };
   const list = ['price'];
   for (const [section, commands] of Object.entries(own)) if (doc[section]) list.push(...commands);
   return list.filter((c) => engine.commands.includes(c));
@@ -67,13 +75,20 @@ const bad = (patch) => {
   return JSON.stringify(doc);
 };
 
-test('the page inlines exactly this module file', { skip: !existsSync(pagePath) && 'dist/hedgeleaf.html not built' }, () => {
-  const page = readFileSync(pagePath, 'utf8');
-  const inlined = /<script id="engine-js">([\s\S]*?)<\/script>/.exec(page);
-  assert.ok(inlined, 'no engine-js script in the page');
-  assert.equal(inlined[1], readFileSync(modulePath, 'utf8'));
-  assert.match(page, new RegExp(`<script type="text/plain" id="engine-commands">${engine.commands.join(',')}</script>`));
-});
+test(
+  'the page inlines exactly this module file',
+  { skip: !existsSync(pagePath) && 'dist/hedgeleaf.html not built' },
+  () => {
+    const page = readFileSync(pagePath, 'utf8');
+    const inlined = /<script id="engine-js">([\s\S]*?)<\/script>/.exec(page);
+    assert.ok(inlined, 'no engine-js script in the page');
+    assert.equal(inlined[1], readFileSync(modulePath, 'utf8'));
+    assert.match(
+      page,
+      new RegExp(`<script type="text/plain" id="engine-commands">${engine.commands.join(',')}</script>`),
+    );
+  },
+);
 
 test('version and commands match the native CLI', { skip: !haveCli && 'no native CLI' }, () => {
   assert.equal(execFileSync(cli, ['--version'], { encoding: 'utf8' }).trim(), `hedgeleaf ${engine.version}`);
@@ -109,12 +124,48 @@ test('american-put.json: fixed checks that need no native build', () => {
 
 test('bad input gives the field and the same message as the CLI', () => {
   const cases = [
-    [bad((d) => { d.market.volatility = -0.2; }), 'market.volatility', 'market.volatility: must be > 0, got -0.2'],
-    [bad((d) => { d.market.spot = 'abc'; }), 'market.spot', null],
-    [bad((d) => { d.market.volatilty = 0.3; }), 'market.volatilty', null],
-    [bad((d) => { d.option.expiry_date = '2026-11-30'; }), 'option.expiry_date', null],
-    [bad((d) => { d.lattice = { steps: 0 }; }), 'lattice.steps', null],
-    [bad((d) => { d.market.dividends[0].amount = 60; }), 'market.dividends[0].amount', null],
+    [
+      bad((d) => {
+        d.market.volatility = -0.2;
+      }),
+      'market.volatility',
+      'market.volatility: must be > 0, got -0.2',
+    ],
+    [
+      bad((d) => {
+        d.market.spot = 'abc';
+      }),
+      'market.spot',
+      null,
+    ],
+    [
+      bad((d) => {
+        d.market.volatilty = 0.3;
+      }),
+      'market.volatilty',
+      null,
+    ],
+    [
+      bad((d) => {
+        d.option.expiry_date = '2026-11-30';
+      }),
+      'option.expiry_date',
+      null,
+    ],
+    [
+      bad((d) => {
+        d.lattice = { steps: 0 };
+      }),
+      'lattice.steps',
+      null,
+    ],
+    [
+      bad((d) => {
+        d.market.dividends[0].amount = 60;
+      }),
+      'market.dividends[0].amount',
+      null,
+    ],
     ['{"market": ', '', null],
   ];
   for (const [text, field, message] of cases) {
@@ -164,7 +215,7 @@ test('no input aborts the module (random damage to every example)', () => {
   for (let i = 0; i < 400; i += 1) {
     const name = examples[i % examples.length];
     const doc = mutate(JSON.parse(readExample(name)));
-    if (doc.lattice && typeof doc.lattice === 'object') doc.lattice.steps = 101;  // keep the run short
+    if (doc.lattice && typeof doc.lattice === 'object') doc.lattice.steps = 101; // keep the run short
     for (const command of engine.commands.filter((c) => c !== 'simulate')) {
       try {
         const result = engine.run(command, doc);

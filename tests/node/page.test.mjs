@@ -8,12 +8,20 @@ import { dirname, join } from 'node:path';
 import { test } from 'node:test';
 import { fileURLToPath } from 'node:url';
 
-import { formatNumber, formatSmart, inputText, parseNumber, parsePercent, parseTenor, percentText } from '../../web/src/format.js';
+import {
+  formatNumber,
+  formatSmart,
+  inputText,
+  parseNumber,
+  parsePercent,
+  parseTenor,
+  percentText,
+} from '../../web/src/format.js';
 import { fromBase64Url, toBase64Url, tradeFromHash, autosave, parseTradeText } from '../../web/src/share.js';
 import { getPath, pathAncestors, setPath } from '../../web/src/paths.js';
 import { changeShape, defaultExerciseSchedule, readDateList, readWhen } from '../../web/src/form.js';
 import { addMonths, addYears, yearsBetween } from '../../web/src/dates.js';
-import { routeThrough } from '../../web/src/hedge.js';
+import { routeThrough } from '../../web/src/tree.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 
@@ -22,8 +30,8 @@ test('numbers typed with separators and percentages read as the file stores them
   assert.equal(parseNumber(' 1 234.5 '), 1234.5);
   assert.equal(parseNumber('−3.5'), -3.5);
   assert.equal(parseNumber(''), null);
-  assert.equal(parseNumber('12abc'), '12abc');  // handed to the engine, which names the field
-  assert.equal(parseNumber('1e400'), '1e400');  // too large for a double: sent as typed, not as null
+  assert.equal(parseNumber('12abc'), '12abc'); // handed to the engine, which names the field
+  assert.equal(parseNumber('1e400'), '1e400'); // too large for a double: sent as typed, not as null
   assert.equal(parsePercent('31'), 0.31);
   assert.equal(parsePercent('3.5'), 0.035);
   assert.equal(parsePercent('0.1'), 0.001);
@@ -57,16 +65,26 @@ test('a trade survives the #trade= link, unicode and all', () => {
 });
 
 test('trade text from outside is refused when nested deeper than any trade (the engine limit, 64)', () => {
-  assert.deepEqual(parseTradeText('{"a": [1, {"b": "[[[{{{"}]}'), { a: [1, { b: '[[[{{{' }] });  // brackets in text do not count
+  assert.deepEqual(parseTradeText('{"a": [1, {"b": "[[[{{{"}]}'), { a: [1, { b: '[[[{{{' }] }); // brackets in text do not count
   assert.deepEqual(parseTradeText(`${'['.repeat(64)}${']'.repeat(64)}`).length, 1);
   assert.throws(() => parseTradeText(`${'['.repeat(65)}${']'.repeat(65)}`), /nested more than 64 levels deep/);
-  assert.throws(() => parseTradeText('{"a": "\\"'), SyntaxError);  // an escaped backslash then an unclosed object
+  assert.throws(() => parseTradeText('{"a": "\\"'), SyntaxError); // an escaped backslash then an unclosed object
 });
 
 test('autosave reports a full store instead of failing silently', () => {
-  const full = { setItem() { const e = new Error('full'); e.name = 'QuotaExceededError'; throw e; } };
+  const full = {
+    setItem() {
+      const e = new Error('full');
+      e.name = 'QuotaExceededError';
+      throw e;
+    },
+  };
   assert.match(autosave(full, { trade: {} }), /storage is full/);
-  const fine = { setItem(k, v) { this.saved = v; } };
+  const fine = {
+    setItem(k, v) {
+      this.saved = v;
+    },
+  };
   assert.equal(autosave(fine, { trade: { a: 1 } }), null);
 });
 
@@ -86,7 +104,10 @@ test('date-or-years fields and exercise date lists pick the right key', () => {
   assert.deepEqual(readWhen('0.25', 'date', 'time_years'), { key: 'time_years', value: 0.25 });
   assert.deepEqual(readWhen('3m', 'date', 'time_years'), { key: 'time_years', value: 0.25 });
   assert.deepEqual(readWhen('next week', 'date', 'time_years'), { key: 'date', value: 'next week' });
-  assert.deepEqual(readDateList('2027-01-15, 2027-03-15'), { key: 'exercise_dates', value: ['2027-01-15', '2027-03-15'] });
+  assert.deepEqual(readDateList('2027-01-15, 2027-03-15'), {
+    key: 'exercise_dates',
+    value: ['2027-01-15', '2027-03-15'],
+  });
   assert.deepEqual(readDateList('0.25 0.5'), { key: 'exercise_years', value: [0.25, 0.5] });
   // ACT/365F as the engine counts (2026-12-02 to 2027-06-18 is 198 days)
   assert.equal(yearsBetween('2026-12-02', '2027-06-18'), 198 / 365);
@@ -99,15 +120,17 @@ test('a contract turning Bermudan gets monthly exercise dates before expiry (qua
   assert.equal(addMonths('2028-01-31', 1), '2028-02-29');
   assert.equal(addMonths('2026-12-02', 13), '2028-01-02');
   const dated = { valuation_date: '2026-12-02', option: { expiry_date: '2027-06-18' } };
-  assert.deepEqual(defaultExerciseSchedule(dated, 'option'),
-    { key: 'exercise_dates', value: ['2027-01-02', '2027-02-02', '2027-03-02', '2027-04-02', '2027-05-02', '2027-06-02'] });
+  assert.deepEqual(defaultExerciseSchedule(dated, 'option'), {
+    key: 'exercise_dates',
+    value: ['2027-01-02', '2027-02-02', '2027-03-02', '2027-04-02', '2027-05-02', '2027-06-02'],
+  });
   const tenor = { structure: { expiry_years: 3 } };
   const quarterly = defaultExerciseSchedule(tenor, 'structure');
   assert.equal(quarterly.key, 'exercise_years');
   assert.deepEqual(quarterly.value.slice(0, 3), [0.25, 0.5, 0.75]);
-  assert.equal(quarterly.value.at(-1), 2.75);  // the expiry itself is always an exercise date
-  assert.equal(defaultExerciseSchedule({ option: { expiry_years: 0.05 } }, 'option'), null);  // under a month: expiry only
-  assert.equal(defaultExerciseSchedule({ option: { expiry_date: '2027-06-18' } }, 'option'), null);  // no valuation date
+  assert.equal(quarterly.value.at(-1), 2.75); // the expiry itself is always an exercise date
+  assert.equal(defaultExerciseSchedule({ option: { expiry_years: 0.05 } }, 'option'), null); // under a month: expiry only
+  assert.equal(defaultExerciseSchedule({ option: { expiry_date: '2027-06-18' } }, 'option'), null); // no valuation date
 });
 
 test('changing the shape keeps expiry and exercise and keeps the file order', () => {
@@ -137,20 +160,24 @@ test('picking a node on the tree routes the path through it, changing as little 
   }
 });
 
-test('the built page allows exactly its own scripts and style by hash', { skip: !existsSync(join(root, 'dist/hedgeleaf.html')) && 'page not built' }, () => {
-  const html = readFileSync(join(root, 'dist/hedgeleaf.html'), 'utf8');
-  const csp = /<meta http-equiv="Content-Security-Policy" content="([^"]+)">/.exec(html)[1];
-  const hash = (text) => `'sha256-${createHash('sha256').update(text).digest('base64')}'`;
-  const executable = [...html.matchAll(/<script id="[a-z-]+">([\s\S]*?)<\/script>/g)].map((m) => m[1]);
-  assert.equal(executable.length, 2, 'the engine module and the page script');
-  for (const text of executable) assert.ok(csp.includes(hash(text)), 'a script is not allowed by hash');
-  const style = /<style>([\s\S]*?)<\/style>/.exec(html)[1];
-  assert.ok(csp.includes(`style-src ${hash(style)}`));
-  assert.match(csp, /^default-src 'none'; /);
-  assert.ok(!csp.includes("'unsafe-eval'") && !csp.includes("'unsafe-inline'") && !csp.includes('connect-src'));
-  assert.ok(csp.includes("'wasm-unsafe-eval'") && csp.includes('worker-src blob:'));
-  assert.ok(!/\sstyle="/.test(html), 'no inline style attributes (CSP would block them)');
-  assert.ok(!/\son[a-z]+="/.test(html), 'no inline event handlers');
-  assert.ok(!/(src|href)="(https?:)?\/\//.test(html), 'nothing loads from the network');
-  assert.ok(Buffer.byteLength(html) < 1.5 * 1024 * 1024, 'under 1.5 MB');
-});
+test(
+  'the built page allows exactly its own scripts and style by hash',
+  { skip: !existsSync(join(root, 'dist/hedgeleaf.html')) && 'page not built' },
+  () => {
+    const html = readFileSync(join(root, 'dist/hedgeleaf.html'), 'utf8');
+    const csp = /<meta http-equiv="Content-Security-Policy" content="([^"]+)">/.exec(html)[1];
+    const hash = (text) => `'sha256-${createHash('sha256').update(text).digest('base64')}'`;
+    const executable = [...html.matchAll(/<script id="[a-z-]+">([\s\S]*?)<\/script>/g)].map((m) => m[1]);
+    assert.equal(executable.length, 2, 'the engine module and the page script');
+    for (const text of executable) assert.ok(csp.includes(hash(text)), 'a script is not allowed by hash');
+    const style = /<style>([\s\S]*?)<\/style>/.exec(html)[1];
+    assert.ok(csp.includes(`style-src ${hash(style)}`));
+    assert.match(csp, /^default-src 'none'; /);
+    assert.ok(!csp.includes("'unsafe-eval'") && !csp.includes("'unsafe-inline'") && !csp.includes('connect-src'));
+    assert.ok(csp.includes("'wasm-unsafe-eval'") && csp.includes('worker-src blob:'));
+    assert.ok(!/\sstyle="/.test(html), 'no inline style attributes (CSP would block them)');
+    assert.ok(!/\son[a-z]+="/.test(html), 'no inline event handlers');
+    assert.ok(!/(src|href)="(https?:)?\/\//.test(html), 'nothing loads from the network');
+    assert.ok(Buffer.byteLength(html) < 1.5 * 1024 * 1024, 'under 1.5 MB');
+  },
+);

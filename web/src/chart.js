@@ -2,16 +2,8 @@
 //
 // Colours come from classes in style.css (CSP allows no inline styles); text
 // is set with textContent only.
+import { make, makeSvg } from './dom.js';
 import { formatNumber } from './format.js';
-
-const svgNs = 'http://www.w3.org/2000/svg';
-
-function el(name, attrs = {}, text) {
-  const node = document.createElementNS(svgNs, name);
-  for (const [key, value] of Object.entries(attrs)) node.setAttribute(key, String(value));
-  if (text !== undefined) node.textContent = text;
-  return node;
-}
 
 /** About `count` round tick values covering [lo, hi]. */
 export function ticks(lo, hi, count = 5) {
@@ -41,7 +33,12 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
   const pad = { left: 64, right: 16, top: 14, bottom: 44 };
   const xs = series.flatMap((s) => s.points.map((p) => p[0])).concat(marks.map((m) => m.x));
   const ys = series.flatMap((s) => s.points.map((p) => p[1]));
-  const svg = el('svg', { viewBox: `0 0 ${width} ${height}`, class: 'chart-svg', focusable: 'false', 'aria-hidden': 'true' });
+  const svg = makeSvg('svg', {
+    viewBox: `0 0 ${width} ${height}`,
+    class: 'chart-svg',
+    focusable: 'false',
+    'aria-hidden': 'true',
+  });
   host.replaceChildren(svg);
   if (xs.length === 0 || ys.length === 0) return;
   let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
@@ -54,55 +51,70 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
   const sx = (x) => pad.left + ((x - x0) / (x1 - x0)) * (width - pad.left - pad.right);
   const sy = (y) => height - pad.bottom - ((y - y0) / (y1 - y0)) * (height - pad.top - pad.bottom);
 
-  const grid = el('g', { class: 'chart-grid' });
+  const grid = makeSvg('g', { class: 'chart-grid' });
   const yTicks = ticks(y0, y1, 5);
   const yDigits = digitsFor(yTicks);
   for (const t of yTicks) {
-    grid.append(el('line', { x1: pad.left, x2: width - pad.right, y1: sy(t), y2: sy(t), class: t === 0 ? 'zero' : '' }));
-    grid.append(el('text', { x: pad.left - 6, y: sy(t) + 4, 'text-anchor': 'end' }, formatNumber(t, yDigits)));
+    grid.append(
+      makeSvg('line', { x1: pad.left, x2: width - pad.right, y1: sy(t), y2: sy(t), class: t === 0 ? 'zero' : '' }),
+    );
+    grid.append(makeSvg('text', { x: pad.left - 6, y: sy(t) + 4, 'text-anchor': 'end' }, formatNumber(t, yDigits)));
   }
   const xTicks = ticks(x0, x1, 6);
   const xDigits = digitsFor(xTicks);
   for (const t of xTicks) {
-    grid.append(el('line', { x1: sx(t), x2: sx(t), y1: pad.top, y2: height - pad.bottom, class: 'vertical' }));
-    grid.append(el('text', { x: sx(t), y: height - pad.bottom + 16, 'text-anchor': 'middle' }, formatNumber(t, xDigits)));
+    grid.append(makeSvg('line', { x1: sx(t), x2: sx(t), y1: pad.top, y2: height - pad.bottom, class: 'vertical' }));
+    grid.append(
+      makeSvg('text', { x: sx(t), y: height - pad.bottom + 16, 'text-anchor': 'middle' }, formatNumber(t, xDigits)),
+    );
   }
-  grid.append(el('text', { x: (pad.left + width - pad.right) / 2, y: height - 6, 'text-anchor': 'middle', class: 'axis-label' }, xLabel));
-  grid.append(el('text', { x: 12, y: (pad.top + height - pad.bottom) / 2, 'text-anchor': 'middle', class: 'axis-label',
-    transform: `rotate(-90 12 ${(pad.top + height - pad.bottom) / 2})` }, yLabel));
+  grid.append(
+    makeSvg(
+      'text',
+      { x: (pad.left + width - pad.right) / 2, y: height - 6, 'text-anchor': 'middle', class: 'axis-label' },
+      xLabel,
+    ),
+  );
+  grid.append(
+    makeSvg(
+      'text',
+      {
+        x: 12,
+        y: (pad.top + height - pad.bottom) / 2,
+        'text-anchor': 'middle',
+        class: 'axis-label',
+        transform: `rotate(-90 12 ${(pad.top + height - pad.bottom) / 2})`,
+      },
+      yLabel,
+    ),
+  );
   svg.append(grid);
 
   for (const mark of marks) {
-    const g = el('g', { class: `chart-mark ${mark.kind || ''}` });
-    g.append(el('line', { x1: sx(mark.x), x2: sx(mark.x), y1: pad.top, y2: height - pad.bottom }));
-    g.append(el('text', { x: sx(mark.x) + 4, y: pad.top + 10 + (mark.row || 0) * 13 }, mark.label));
+    const g = makeSvg('g', { class: `chart-mark ${mark.kind || ''}` });
+    g.append(makeSvg('line', { x1: sx(mark.x), x2: sx(mark.x), y1: pad.top, y2: height - pad.bottom }));
+    g.append(makeSvg('text', { x: sx(mark.x) + 4, y: pad.top + 10 + (mark.row || 0) * 13 }, mark.label));
     svg.append(g);
   }
   for (const s of series) {
     if (s.points.length === 0) continue;
     const d = s.points.map((p, i) => `${i ? 'L' : 'M'}${sx(p[0]).toFixed(1)},${sy(p[1]).toFixed(1)}`).join('');
-    const g = el('g', { class: `chart-series ${s.kind}` });
-    g.append(el('path', { d }));
+    const g = makeSvg('g', { class: `chart-series ${s.kind}` });
+    g.append(makeSvg('path', { d }));
     if (s.dots) {
       // every dot in one path (a circle of radius 3 is two arcs): one node, not one per point
-      const dots = s.points.map((p) => `M${(sx(p[0]) - 3).toFixed(1)},${sy(p[1]).toFixed(1)}a3,3 0 1,0 6,0a3,3 0 1,0 -6,0`).join('');
-      g.append(el('path', { d: dots, class: 'dots' }));
+      const dots = s.points
+        .map((p) => `M${(sx(p[0]) - 3).toFixed(1)},${sy(p[1]).toFixed(1)}a3,3 0 1,0 6,0a3,3 0 1,0 -6,0`)
+        .join('');
+      g.append(makeSvg('path', { d: dots, class: 'dots' }));
     }
     svg.append(g);
   }
-  const legend = document.createElement('p');
-  legend.className = 'chart-legend';
-  for (const s of series.filter((x) => x.label)) {
-    const item = document.createElement('span');
-    item.className = `legend-item ${s.kind}`;
-    item.textContent = s.label;
-    legend.append(item);
-  }
-  for (const mark of marks.filter((m) => m.legend)) {
-    const item = document.createElement('span');
-    item.className = `legend-item mark ${mark.kind}`;
-    item.textContent = mark.legend;
-    legend.append(item);
-  }
-  host.append(legend);
+  const items = [
+    ...series.filter((x) => x.label).map((s) => make('span', { className: `legend-item ${s.kind}`, text: s.label })),
+    ...marks
+      .filter((m) => m.legend)
+      .map((m) => make('span', { className: `legend-item mark ${m.kind}`, text: m.legend })),
+  ];
+  host.append(make('p', { className: 'chart-legend' }, items));
 }

@@ -24,6 +24,15 @@ export function started(promise) {
   return promise;
 }
 
+/**
+ * Workers built from the page's inlined engine module followed by the worker code
+ * (one Blob, made once: no network, no eval). Returns a function that starts one.
+ */
+export function workerMaker(engineText, workerText) {
+  const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
+  return () => new Worker(url, { name: 'hedgeleaf-engine' });
+}
+
 export class EngineChannel {
   /** @param {() => Worker} makeWorker  @param {() => Function} mainThreadFactory */
   constructor(makeWorker, mainThreadFactory) {
@@ -42,7 +51,8 @@ export class EngineChannel {
     if (!this.worker) {
       try {
         this.worker = this.makeWorker();
-      } catch (err) {
+      } catch {
+        // no worker here (a browser that refuses them from this page): run on the main thread
         this.inline = true;
         return this.callInline(command, trade);
       }
@@ -89,7 +99,7 @@ export class EngineChannel {
     if (message.error) entry.reject(new EngineError(message.error.field, message.error.message));
     else if (message.fatal) {
       entry.reject(new Error(message.fatal));
-      this.fail(new Error(message.fatal));  // an aborted runtime is dead: start afresh next time
+      this.fail(new Error(message.fatal)); // an aborted runtime is dead: start afresh next time
     } else entry.resolve(message.result);
   }
 
@@ -103,7 +113,7 @@ export class EngineChannel {
 
   async callInline(command, trade) {
     const engine = await loadEngine(this.mainThreadFactory());
-    await new Promise((resolve) => setTimeout(resolve, 0));  // let the page paint first
+    await new Promise((resolve) => setTimeout(resolve, 0)); // let the page paint first
     return engine.run(command, trade);
   }
 }

@@ -3,26 +3,46 @@
 // Both read their settings from the trade's own sections (`ladder`, `solve`;
 // core/ladder.hpp, core/solver.hpp), so the exported file gives the CLI the
 // same table. They run only while their card is open.
+import { cardBasics, cardParts, showControls } from './card.js';
 import { Cancelled, started } from './compute.js';
+import {
+  boundFields,
+  button,
+  errorLine,
+  field,
+  fieldRow,
+  fillTable,
+  make,
+  optionList,
+  select,
+  setText,
+} from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText } from './format.js';
-import { contractKey, fillInput } from './form.js';
+import { contractKey } from './form.js';
 import { setPath } from './paths.js';
-import { bound, field, fillTable, make, select, setText } from './dom.js';
 
 /**
- * What the folded cards (Scenarios, Solve) share: opening one asks for a recompute;
+ * What the folded cards (Scenarios, Solve) share: opening one asks for a recompute (`changed`);
  * request(doc) starts the card's engine call when the card is open and `wanted(doc)`;
  * update(generation, pending, price) shows what it brings unless a newer edit came first.
  */
-function foldedCard({ card, has, live, state, command, wanted = () => true, render, draw, setStale, showError }) {
-  card.addEventListener('toggle', () => card.open && card.dispatchEvent(new CustomEvent('refresh', { bubbles: true })));
+function foldedCard({
+  elements,
+  live,
+  state,
+  command,
+  wanted = () => true,
+  render,
+  draw,
+  setStale,
+  showError,
+  changed,
+}) {
+  const { card, has } = elements;
+  card.addEventListener('toggle', () => card.open && changed(0));
   return {
-    setup() {
-      card.hidden = !has();
-      render();
-    },
-    render,
+    ...cardBasics(elements, render),
     request(doc) {
       return has() && card.open && wanted(doc) ? started(live.call(command, doc)) : null;
     },
@@ -42,40 +62,58 @@ function foldedCard({ card, has, live, state, command, wanted = () => true, rend
   };
 }
 
+// What a ladder moves, by kind: [label, path, kind, input properties] of each field.
+const spotRange = [
+  ['Spot from %', 'ladder.spot_from', 'percent', { placeholder: '−20' }],
+  ['to %', 'ladder.spot_to', 'percent', { placeholder: '20' }],
+  ['step %', 'ladder.spot_step', 'percent', { placeholder: '2' }],
+];
+const volRange = [
+  ['Vol from (points)', 'ladder.vol_from', 'percent', { placeholder: '−5' }],
+  ['to', 'ladder.vol_to', 'percent', { placeholder: '5' }],
+  ['step', 'ladder.vol_step', 'percent', { placeholder: '1' }],
+];
+const timeRange = [
+  ['Every … days', 'ladder.time_step_days', 'number', { placeholder: 'a tenth of the life' }],
+  ['Up to day', 'ladder.time_to_days', 'number', { placeholder: 'expiry' }],
+];
+
 /** The Scenarios card (`ladder` command). */
-export function ladderPanel({ live, state, showError, setStale, bindControls }) {
-  const card = document.getElementById('ladder-card');
-  const controls = document.getElementById('ladder-controls');
-  const output = document.getElementById('ladder-output');
-  const has = () => state.commands.includes('ladder');
+export function ladderPanel({ live, state, showError, setStale, changed, bindControls }) {
+  const elements = cardParts('ladder', state);
+  const { controls, output, has } = elements;
 
   function render() {
     if (!has()) return;
     const kind = state.doc.ladder?.kind ?? 'spot';
-    const parts = [make('div', { className: 'row' }, [field('Move', select('ladder.kind', [
-      ['', 'Spot (default)'], ['spot', 'Spot'], ['volatility', 'Volatility'], ['time', 'Time passing'], ['grid', 'Spot × volatility'],
-    ]))])];
-    if (kind === 'spot' || kind === 'grid') {
-      parts.push(make('div', { className: 'row' }, [field('Spot from %', bound('ladder.spot_from', 'percent', { placeholder: '−20' })),
-        field('to %', bound('ladder.spot_to', 'percent', { placeholder: '20' })), field('step %', bound('ladder.spot_step', 'percent', { placeholder: '2' }))]));
-    }
-    if (kind === 'volatility' || kind === 'grid') {
-      parts.push(make('div', { className: 'row' }, [field('Vol from (points)', bound('ladder.vol_from', 'percent', { placeholder: '−5' })),
-        field('to', bound('ladder.vol_to', 'percent', { placeholder: '5' })), field('step', bound('ladder.vol_step', 'percent', { placeholder: '1' }))]));
-    }
-    if (kind === 'time') {
-      parts.push(make('div', { className: 'row' }, [field('Every … days', bound('ladder.time_step_days', 'number', { placeholder: 'a tenth of the life' })),
-        field('Up to day', bound('ladder.time_to_days', 'number', { placeholder: 'expiry' }))]));
-    }
-    parts.push(make('span', { className: 'field-error', dataset: { error: 'ladder' }, role: 'alert' }));
-    controls.replaceChildren(...parts);
-    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
-    bindControls(controls);
+    const parts = [
+      fieldRow([
+        field(
+          'Move',
+          select('ladder.kind', [
+            ['', 'Spot (default)'],
+            ['spot', 'Spot'],
+            ['volatility', 'Volatility'],
+            ['time', 'Time passing'],
+            ['grid', 'Spot × volatility'],
+          ]),
+        ),
+      ]),
+    ];
+    if (kind === 'spot' || kind === 'grid') parts.push(fieldRow(boundFields(spotRange)));
+    if (kind === 'volatility' || kind === 'grid') parts.push(fieldRow(boundFields(volRange)));
+    if (kind === 'time') parts.push(fieldRow(boundFields(timeRange)));
+    parts.push(errorLine('ladder'));
+    showControls(controls, parts, state.doc, bindControls);
   }
 
   function draw(r) {
     const ccy = typeof state.doc.quote?.currency === 'string' ? ` ${state.doc.quote.currency}` : '';
-    const per = (row) => [formatNumber(row.value, 4), formatNumber(row.pnl, 4), `${formatNumber(row.position_pnl, 0)}${ccy}`];
+    const per = (row) => [
+      formatNumber(row.value, 4),
+      formatNumber(row.pnl, 4),
+      `${formatNumber(row.position_pnl, 0)}${ccy}`,
+    ];
     const greeks = (row) => [formatNumber(row.delta, 4), formatNumber(row.position_delta, 0)];
     const tail = ['Value', 'P&L per unit', 'Position P&L'];
     let lead = '';
@@ -84,24 +122,40 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
     if (r.kind === 'grid') {
       const g = r.grid;
       head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
-      rows = g.spot_shifts.map((s, i) => [`${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
-        ...g.position_pnl[i].map((x) => formatNumber(x, 0))]);
+      rows = g.spot_shifts.map((s, i) => [
+        `${formatNumber(r.today.spot * (1 + s), 2)} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
+        ...g.position_pnl[i].map((x) => formatNumber(x, 0)),
+      ]);
       lead = `Position P&L${ccy} against today, spot down the side, volatility across.`;
     } else if (r.kind === 'time') {
       head = ['Day', 'Date', ...tail, 'Delta', 'Position delta'];
-      rows = r.rows.map((row) => [inputText(row.days), row.date ?? `${formatNumber(row.years, 3)} y`, ...per(row), ...greeks(row)]);
+      rows = r.rows.map((row) => [
+        inputText(row.days),
+        row.date ?? `${formatNumber(row.years, 3)} y`,
+        ...per(row),
+        ...greeks(row),
+      ]);
     } else if (r.kind === 'volatility') {
       head = ['Volatility', ...tail, 'Delta', 'Position delta'];
       rows = r.rows.map((row) => [formatPercent(row.volatility, 1), ...per(row), ...greeks(row)]);
     } else {
       head = ['Spot', 'Move', ...tail, 'Delta', 'Position delta'];
-      rows = r.rows.map((row) => [formatNumber(row.spot, 2), `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`, ...per(row), ...greeks(row)]);
+      rows = r.rows.map((row) => [
+        formatNumber(row.spot, 2),
+        `${row.spot_shift >= 0 ? '+' : '−'}${formatNumber(Math.abs(row.spot_shift) * 100, 1)} %`,
+        ...per(row),
+        ...greeks(row),
+      ]);
     }
     // one layout for every kind (lead line, table, notes), filled in place on each recompute
     let table = output.querySelector('table[data-result="ladder"]');
     if (!table) {
       table = make('table', { className: 'figures', dataset: { result: 'ladder' } });
-      output.replaceChildren(make('p', { className: 'hint' }), make('div', { className: 'table-scroll' }, [table]), make('p', { className: 'hint' }));
+      output.replaceChildren(
+        make('p', { className: 'hint' }),
+        make('div', { className: 'table-scroll' }, [table]),
+        make('p', { className: 'hint' }),
+      );
     }
     const [leadLine, , notesLine] = output.children;
     leadLine.hidden = !lead;
@@ -110,7 +164,7 @@ export function ladderPanel({ live, state, showError, setStale, bindControls }) 
     setText(notesLine, `${r.notes.join('; ')}. Lattice: ${r.lattice.method}, ${r.lattice.steps} steps.`);
   }
 
-  return foldedCard({ card, has, live, state, command: 'ladder', render, draw, setStale, showError });
+  return foldedCard({ elements, live, state, command: 'ladder', render, draw, setStale, showError, changed });
 }
 
 /** Where the strike of result leg `leg` lives in the document, or null. */
@@ -123,40 +177,60 @@ export function strikePath(doc, leg, oldStrike) {
 }
 
 /** The Solve card (`solve` command). */
-export function solvePanel({ live, state, showError, setStale, changed, bindControls, notice }) {
-  const card = document.getElementById('solve-card');
-  const controls = document.getElementById('solve-controls');
-  const output = document.getElementById('solve-output');
-  const has = () => state.commands.includes('solve');
+export function solvePanel({ live, state, showError, setStale, changed, bindControls, notice, refill }) {
+  const elements = cardParts('solve', state);
+  const { controls, output, has } = elements;
 
   function render() {
     if (!has()) return;
     const unknown = state.doc.solve?.for;
-    const what = make('select', { id: 'solve-for' });
-    for (const [value, text] of [['', 'nothing'], ['volatility', 'the volatility that gives a premium'], ['strike', 'the strike that gives a premium'], ['quantity', 'the quantity a budget buys']]) {
-      what.append(new Option(text, value));
-    }
+    const what = make(
+      'select',
+      { id: 'solve-for' },
+      optionList([
+        ['', 'nothing'],
+        ['volatility', 'the volatility that gives a premium'],
+        ['strike', 'the strike that gives a premium'],
+        ['quantity', 'the quantity a budget buys'],
+      ]),
+    );
     what.value = unknown ?? '';
     what.addEventListener('change', () => {
       if (!what.value) delete state.doc.solve;
-      else state.doc.solve = what.value === 'quantity' ? { for: 'quantity', budget: 100000 }
-        : what.value === 'strike' ? { for: 'strike', leg: contractKey(state.doc) === 'option' ? 0 : 1, target_premium: 0 }
-          : { for: 'volatility', target_premium: Number((state.price?.premium ?? 1).toPrecision(3)) };
+      else
+        state.doc.solve =
+          what.value === 'quantity'
+            ? { for: 'quantity', budget: 100000 }
+            : what.value === 'strike'
+              ? { for: 'strike', leg: contractKey(state.doc) === 'option' ? 0 : 1, target_premium: 0 }
+              : { for: 'volatility', target_premium: Number((state.price?.premium ?? 1).toPrecision(3)) };
       render();
       changed(0);
     });
-    const parts = [make('div', { className: 'row' }, [field('Find', what)])];
+    const parts = [fieldRow([field('Find', what)])];
     if (unknown === 'volatility' || unknown === 'strike') {
-      const row = [field('Target premium per unit', bound('solve.target_premium', 'number', { placeholder: unknown === 'strike' ? '0 = zero cost' : '' }))];
-      if (unknown === 'strike' && contractKey(state.doc) !== 'option') row.push(field('Leg (0 = first)', bound('solve.leg', 'number', { placeholder: '0' })));
-      parts.push(make('div', { className: 'row' }, row));
+      const target = [
+        'Target premium per unit',
+        'solve.target_premium',
+        'number',
+        { placeholder: unknown === 'strike' ? '0 = zero cost' : '' },
+      ];
+      const leg = ['Leg (0 = first)', 'solve.leg', 'number', { placeholder: '0' }];
+      parts.push(
+        fieldRow(boundFields(unknown === 'strike' && contractKey(state.doc) !== 'option' ? [target, leg] : [target])),
+      );
     } else if (unknown === 'quantity') {
-      parts.push(make('div', { className: 'row' }, [field('Budget', bound('solve.budget', 'number', { placeholder: '' })), field('Lot size', bound('solve.lot_size', 'number', { placeholder: 'none' }))]));
+      parts.push(
+        fieldRow(
+          boundFields([
+            ['Budget', 'solve.budget', 'number', { placeholder: '' }],
+            ['Lot size', 'solve.lot_size', 'number', { placeholder: 'none' }],
+          ]),
+        ),
+      );
     }
-    parts.push(make('span', { className: 'field-error', dataset: { error: 'solve' }, role: 'alert' }));
-    controls.replaceChildren(...parts);
-    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
-    bindControls(controls);
+    parts.push(errorLine('solve'));
+    showControls(controls, parts, state.doc, bindControls);
     if (!unknown) output.replaceChildren();
   }
 
@@ -178,20 +252,42 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
     }
     delete state.doc.solve;
     notice(`Applied the solution to the trade: ${done}.`);
-    document.dispatchEvent(new CustomEvent('hedgeleaf:refill'));
+    refill();
     changed(0);
   }
 
   function draw(r, price) {
     const unknown = state.doc.solve?.for;
-    const text = unknown === 'volatility' ? `Volatility ${formatPercent(r.solution, 3)}`
-      : unknown === 'quantity' ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
-        : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
-    const use = make('button', { type: 'button', className: 'small', text: 'Use it in the trade' });
-    use.addEventListener('click', () => apply(r, price));
-    const solution = make('p', { className: 'equation' }, [make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text })]);
-    output.replaceChildren(solution, use, make('p', { className: 'hint', text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; ') }));
+    const text =
+      unknown === 'volatility'
+        ? `Volatility ${formatPercent(r.solution, 3)}`
+        : unknown === 'quantity'
+          ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
+          : `Strike of leg ${r.leg} ${formatNumber(r.solution, 4)}`;
+    const use = button('Use it in the trade', () => apply(r, price), { className: 'small' });
+    const solution = make('p', { className: 'equation' }, [
+      make('span', { dataset: { result: 'solve-solution', value: String(r.solution) }, text }),
+    ]);
+    output.replaceChildren(
+      solution,
+      use,
+      make('p', {
+        className: 'hint',
+        text: [`${r.iterations ?? 0} iterations, ${r.pricing ?? ''} pricing`, ...r.notes].join('; '),
+      }),
+    );
   }
 
-  return foldedCard({ card, has, live, state, command: 'solve', wanted: (doc) => Boolean(doc.solve), render, draw, setStale, showError });
+  return foldedCard({
+    elements,
+    live,
+    state,
+    command: 'solve',
+    wanted: (doc) => Boolean(doc.solve),
+    render,
+    draw,
+    setStale,
+    showError,
+    changed,
+  });
 }

@@ -1,9 +1,16 @@
-// Hedgeleaf page: the small DOM builders the cards share.
+// Hedgeleaf page: the one set of DOM and SVG builders every part of the page uses.
 //
 // Text is always set with textContent (never HTML), so what a client types
 // stays text. Tables that a recompute refreshes are filled in place: rows and
 // cells are reused and only changed text is written, which keeps a recompute
 // inside one frame and the focus and scroll position where they were.
+
+const svgNs = 'http://www.w3.org/2000/svg';
+
+/** The element with id `id` (null if the page has none). */
+export function byId(id) {
+  return document.getElementById(id);
+}
 
 /** An element with properties (`text`, `dataset`, DOM properties, else attributes) and children. */
 export function make(tag, props = {}, children = []) {
@@ -18,6 +25,36 @@ export function make(tag, props = {}, children = []) {
   return node;
 }
 
+/** An SVG element with attributes and, when given, text. */
+export function makeSvg(tag, attrs = {}, text) {
+  const node = document.createElementNS(svgNs, tag);
+  for (const [key, value] of Object.entries(attrs)) node.setAttribute(key, String(value));
+  if (text !== undefined) node.textContent = text;
+  return node;
+}
+
+/** A push button (never a form submit) that runs `onClick`. */
+export function button(text, onClick, props = {}) {
+  const node = make('button', { type: 'button', text, ...props });
+  if (onClick) node.addEventListener('click', onClick);
+  return node;
+}
+
+/** The small ✕ that removes a row of a list; `label` says which row for screen readers. */
+export function removeButton(label, onClick) {
+  return button('✕', onClick, { className: 'small remove', title: label, 'aria-label': label });
+}
+
+/** A row of fields side by side. */
+export function fieldRow(fields) {
+  return make('div', { className: 'row' }, fields);
+}
+
+/** Labelled inputs bound to the trade document, from [label, path, kind, input properties?] entries. */
+export function boundFields(entries) {
+  return entries.map(([label, path, kind, props]) => field(label, bound(path, kind, props)));
+}
+
 /** A labelled field around an input. */
 export function field(label, input, className = 'field') {
   return make('label', { className }, [make('span', { text: label }), input]);
@@ -28,11 +65,31 @@ export function bound(path, kind, props = {}) {
   return make('input', { dataset: { path, kind }, autocomplete: 'off', inputMode: 'decimal', ...props });
 }
 
-/** A choice bound to a trade-document path; `options` = [[value, text], ...]. */
-export function select(path, options) {
-  const node = make('select', { dataset: { path, kind: 'choice' } });
-  for (const [value, text] of options) node.append(new Option(text, value));
-  return node;
+/**
+ * An input for a field that takes a date or years: it writes `<base>.<dateKey>` or
+ * `<base>.<yearsKey>` (`keys` = "dateKey,yearsKey") by what is typed.
+ */
+export function whenInput(base, keys, props = {}) {
+  return make('input', { dataset: { role: 'when', base, keys }, autocomplete: 'off', ...props });
+}
+
+/** `options` = [[value, text], ...] as <option> elements. */
+export function optionList(options) {
+  return options.map(([value, text]) => new Option(text, value));
+}
+
+/**
+ * A choice bound to the trade document; `options` = [[value, text], ...]. `binding` is a
+ * path, or the data attributes of a choice that writes by role (e.g. {role: 'exercise', base}).
+ */
+export function select(binding, options) {
+  const dataset = typeof binding === 'string' ? { path: binding } : binding;
+  return make('select', { dataset: { ...dataset, kind: 'choice' } }, optionList(options));
+}
+
+/** The line where the engine's message about `path` (or a field below it) is shown. */
+export function errorLine(path) {
+  return make('span', { className: 'field-error', dataset: { error: path }, role: 'alert' });
 }
 
 /** Set a node's text only if it differs (a lone text child is edited in place). */
@@ -45,8 +102,13 @@ export function setText(node, text) {
   }
 }
 
-function row(cells) {
-  return make('tr', {}, cells.map((text, i) => make(i ? 'td' : 'th', i ? { text } : { scope: 'row', text })));
+/** A table row: the first cell heads it (`th`), the rest are data cells. */
+export function tableRow(cells) {
+  return make(
+    'tr',
+    {},
+    cells.map((text, i) => make(i ? 'td' : 'th', i ? { text } : { scope: 'row', text })),
+  );
 }
 
 /** Make `body` (a tbody) hold `rows` (arrays of cell texts; the first cell heads its row), reusing what is there. */
@@ -54,10 +116,21 @@ export function fillRows(body, rows) {
   while (body.rows.length > rows.length) body.lastElementChild.remove();
   rows.forEach((cells, r) => {
     const tr = body.rows[r];
-    if (!tr) body.append(row(cells));
-    else if (tr.cells.length !== cells.length) tr.replaceWith(row(cells));
+    if (!tr) body.append(tableRow(cells));
+    else if (tr.cells.length !== cells.length) tr.replaceWith(tableRow(cells));
     else cells.forEach((text, i) => setText(tr.cells[i], text));
   });
+}
+
+/** A table head row of column titles. */
+export function headRow(titles) {
+  return make('thead', {}, [
+    make(
+      'tr',
+      {},
+      titles.map((h) => make('th', { scope: 'col', text: h })),
+    ),
+  ]);
 }
 
 /**
@@ -69,7 +142,7 @@ export function fillTable(table, head, rows, caption = '') {
   const titles = table.tHead ? [...table.tHead.rows[0].cells].map((c) => c.textContent) : null;
   if (!body || !titles || titles.join('\u0000') !== head.join('\u0000')) {
     body = make('tbody');
-    const parts = [make('thead', {}, [make('tr', {}, head.map((h) => make('th', { scope: 'col', text: h })))]), body];
+    const parts = [headRow(head), body];
     if (caption) parts.unshift(make('caption', { className: 'visually-hidden', text: caption }));
     table.replaceChildren(...parts);
   }

@@ -1,4 +1,5 @@
-// Hedgeleaf page: the trade-terms form, bound field by field to the document.
+// Hedgeleaf page: bound inputs, read and written field by field in the trade document
+// (terms.js decides which inputs the terms form shows; the cards draw their own).
 //
 // The trade document is the page's one source of truth. Every input names the
 // path it writes (data-path) and how to read it (data-kind); typing writes that
@@ -52,7 +53,8 @@ export function showInput(input, value) {
   else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
   else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
   else if (kind === 'tenor') input.value = value === undefined ? '' : String(value);
-  else if (kind === 'choice') input.value = value === undefined ? (input.querySelector('option[value=""]') ? '' : input.options[0].value) : value;
+  else if (kind === 'choice')
+    input.value = value === undefined ? (input.querySelector('option[value=""]') ? '' : input.options[0].value) : value;
   else input.value = value ?? '';
 }
 
@@ -91,12 +93,12 @@ export function defaultExerciseSchedule(doc, base) {
   const byDate = typeof holder.expiry_date === 'string';
   const years = byDate ? yearsBetween(doc.valuation_date, holder.expiry_date) : holder.expiry_years;
   if (!(typeof years === 'number' && years > 0)) return null;
-  const months = years > 2 ? 3 : 1;  // monthly, quarterly past two years
+  const months = years > 2 ? 3 : 1; // monthly, quarterly past two years
   const out = [];
   for (let k = 1; out.length < 24; k++) {
     const when = byDate ? addMonths(doc.valuation_date, k * months) : Number(((k * months) / 12).toFixed(6));
     const t = byDate ? yearsBetween(doc.valuation_date, when) : when;
-    if (t === null || t >= years - 1 / 365) break;  // the expiry itself is always an exercise date
+    if (t === null || t >= years - 1 / 365) break; // the expiry itself is always an exercise date
     out.push(when);
   }
   return out.length ? { key: byDate ? 'exercise_dates' : 'exercise_years', value: out } : null;
@@ -123,7 +125,10 @@ export function writeInput(doc, input) {
     if (value !== 'bermudan') {
       setPath(doc, `${base}.exercise_dates`, undefined);
       setPath(doc, `${base}.exercise_years`, undefined);
-    } else if (getPath(doc, `${base}.exercise_dates`) === undefined && getPath(doc, `${base}.exercise_years`) === undefined) {
+    } else if (
+      getPath(doc, `${base}.exercise_dates`) === undefined &&
+      getPath(doc, `${base}.exercise_years`) === undefined
+    ) {
       const schedule = defaultExerciseSchedule(doc, base);
       if (schedule) setPath(doc, `${base}.${schedule.key}`, schedule.value);
     }
@@ -156,7 +161,8 @@ export function errorPathOf(doc, input) {
   if (role === 'expiry-date') return `${base}.expiry_date`;
   if (role === 'expiry-tenor') return `${base}.expiry_years`;
   if (role === 'exercise') return `${base}.exercise`;
-  if (role === 'exercise-dates') return `${base}.${getPath(doc, `${base}.exercise_years`) !== undefined ? 'exercise_years' : 'exercise_dates'}`;
+  if (role === 'exercise-dates')
+    return `${base}.${getPath(doc, `${base}.exercise_years`) !== undefined ? 'exercise_years' : 'exercise_dates'}`;
   if (role === 'when') {
     const [dateKey, yearsKey] = input.dataset.keys.split(',');
     return `${base}.${getPath(doc, `${base}.${yearsKey}`) !== undefined ? yearsKey : dateKey}`;
@@ -201,7 +207,7 @@ export function switchExpiryMode(doc, mode) {
   if (mode === 'tenor' && holder.expiry_date !== undefined) {
     const years = yearsBetween(doc.valuation_date, holder.expiry_date);
     delete holder.expiry_date;
-    if (years !== null) holder.expiry_years = Number(years.toFixed(6));  // within seconds of the date
+    if (years !== null) holder.expiry_years = Number(years.toFixed(6)); // within seconds of the date
   } else if (mode === 'date' && holder.expiry_years !== undefined) {
     const day = addYears(doc.valuation_date, holder.expiry_years);
     delete holder.expiry_years;
@@ -226,12 +232,17 @@ export function changeShape(doc, shape, lastLegs) {
   const current = from === 'legs' ? null : doc[from];
   const expiry = contractExpiry(doc);
   const spot = typeof doc.market?.spot === 'number' ? doc.market.spot : 100;
-  const strikes = from === 'structure' ? [...(current.strikes || [])]
-    : from === 'option' ? [current?.strike] : (doc.legs || []).filter((l) => l.strike !== undefined).map((l) => l.strike);
+  const strikes =
+    from === 'structure'
+      ? [...(current.strikes || [])]
+      : from === 'option'
+        ? [current?.strike]
+        : (doc.legs || []).filter((l) => l.strike !== undefined).map((l) => l.strike);
   let exercise = from === 'legs' ? (doc.legs || []).find((l) => l.exercise)?.exercise : current?.exercise;
   let next;
   if (shape === 'option') {
-    const type = from === 'option' ? current.type : (doc.legs || []).find((l) => l.type && l.type !== 'stock')?.type ?? 'call';
+    const type =
+      from === 'option' ? current.type : ((doc.legs || []).find((l) => l.type && l.type !== 'stock')?.type ?? 'call');
     next = { type, strike: strikes.find((k) => typeof k === 'number') ?? tidy(spot), ...expiry };
     if (exercise && exercise !== 'european') next.exercise = exercise;
     if (from === 'option') next = { ...current };
@@ -239,8 +250,17 @@ export function changeShape(doc, shape, lastLegs) {
     let legs;
     if (from === 'option') legs = [{ ...current, quantity: 1 }];
     else if (Array.isArray(lastLegs) && lastLegs.length) {
-      legs = lastLegs.map((l) => (l.type === 'stock' ? { type: 'stock', quantity: l.quantity }
-        : { type: l.type, strike: l.strike, ...expiry, ...(l.exercise !== 'european' ? { exercise: l.exercise } : {}), quantity: l.quantity }));
+      legs = lastLegs.map((l) =>
+        l.type === 'stock'
+          ? { type: 'stock', quantity: l.quantity }
+          : {
+              type: l.type,
+              strike: l.strike,
+              ...expiry,
+              ...(l.exercise !== 'european' ? { exercise: l.exercise } : {}),
+              quantity: l.quantity,
+            },
+      );
     } else legs = [{ type: 'call', strike: tidy(spot), ...expiry, quantity: 1 }];
     next = legs;
   } else {
@@ -248,7 +268,12 @@ export function changeShape(doc, shape, lastLegs) {
     let list = strikes.filter((k) => typeof k === 'number').sort((a, b) => a - b);
     if (list.length !== count) {
       const centre = list.length ? list[Math.floor(list.length / 2)] : spot;
-      list = count === 1 ? [tidy(centre)] : count === 2 ? [tidy(centre * 0.95), tidy(centre * 1.05)] : [tidy(centre * 0.9), tidy(centre), tidy(centre * 1.1)];
+      list =
+        count === 1
+          ? [tidy(centre)]
+          : count === 2
+            ? [tidy(centre * 0.95), tidy(centre * 1.05)]
+            : [tidy(centre * 0.9), tidy(centre), tidy(centre * 1.1)];
     }
     if (exercise === 'bermudan') exercise = 'american';
     next = { shape, strikes: list, ...expiry };

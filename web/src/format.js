@@ -7,7 +7,10 @@
 const groups = new Map();
 function formatter(digits) {
   if (!groups.has(digits)) {
-    groups.set(digits, new Intl.NumberFormat('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits }));
+    groups.set(
+      digits,
+      new Intl.NumberFormat('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits }),
+    );
   }
   return groups.get(digits);
 }
@@ -28,7 +31,7 @@ export function smartDigits(value, significant = 4, min = 2) {
 
 /** Format keeping significant figures for small numbers (gamma, error estimates). */
 export function formatSmart(value, significant = 4, min = 2) {
-  if (Number.isFinite(value) && Math.abs(value) < 5e-9) return formatNumber(0, min);  // rounding noise, not a figure
+  if (Number.isFinite(value) && Math.abs(value) < 5e-9) return formatNumber(0, min); // rounding noise, not a figure
   return formatNumber(value, smartDigits(value, significant, min));
 }
 
@@ -45,10 +48,13 @@ export function formatPercent(decimal, digits = 2) {
 export function parseNumber(text) {
   const trimmed = String(text ?? '').trim();
   if (trimmed === '') return null;
-  const cleaned = trimmed.replace(/[\s,_'\u00a0\u202f]/g, '').replace(/^[−–]/, '-').replace(/%$/, '');
+  const cleaned = trimmed
+    .replace(/[\s,_'\u00a0\u202f]/g, '')
+    .replace(/^[−–]/, '-')
+    .replace(/%$/, '');
   if (!/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(cleaned)) return trimmed;
   const value = Number(cleaned);
-  return Number.isFinite(value) ? value : cleaned;  // 1e400: the engine names the field ("too large to hold")
+  return Number.isFinite(value) ? value : cleaned; // 1e400: the engine names the field ("too large to hold")
 }
 
 /** A percent field: "31" -> 0.31 (exact to the digits typed, no 0.31000000000000005). */

@@ -4,13 +4,26 @@
 // the page exports gives the CLI the same schedule. Four kinds of path: steps
 // clicked on a small tree (kind "lattice", moves "UDDU..."), spots typed per
 // date ("spots"), a random path ("scenario", the engine's default) and a
-// stress shape ("stress"). The tree view comes from the `tree` command.
-import { Cancelled, started } from './compute.js';
+// stress shape ("stress"). The tree view (tree.js) comes from the `tree` command.
+import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
+import { Cancelled, started } from './compute.js';
+import {
+  bound,
+  boundFields,
+  button,
+  byId,
+  errorLine,
+  field,
+  fieldRow,
+  fillTable,
+  make,
+  select,
+  whenInput,
+} from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart } from './format.js';
-import { fillInput } from './form.js';
-import { bound, field, fillTable, make } from './dom.js';
+import { drawTree } from './tree.js';
 
 const kinds = [
   ['lattice', 'Steps on a tree'],
@@ -18,15 +31,7 @@ const kinds = [
   ['scenario', 'Random path'],
   ['stress', 'Stress'],
 ];
-const maxTreeSteps = 12;  // what fits on screen; the CLI takes longer paths
-const svgNs = 'http://www.w3.org/2000/svg';
-
-function svg(tag, attrs = {}, text) {
-  const node = document.createElementNS(svgNs, tag);
-  for (const [key, value] of Object.entries(attrs)) node.setAttribute(key, String(value));
-  if (text !== undefined) node.textContent = text;
-  return node;
-}
+const maxTreeSteps = 12; // what fits on screen; the CLI takes longer paths
 
 /** The kind of path the trade asks for (the engine's default is a random path). */
 export function pathKind(doc) {
@@ -34,27 +39,15 @@ export function pathKind(doc) {
   return kinds.some(([k]) => k === kind) ? kind : 'scenario';
 }
 
-/** Moves that reach node (step, index) keeping as much of `moves` as possible. */
-export function routeThrough(moves, step, index) {
-  const list = [...moves];
-  let ups = list.slice(0, step).filter((m) => m === 'U').length;
-  for (let i = step - 1; i >= 0 && ups !== index; i -= 1) {
-    if (ups > index && list[i] === 'U') { list[i] = 'D'; ups -= 1; }
-    else if (ups < index && list[i] === 'D') { list[i] = 'U'; ups += 1; }
-  }
-  return list.join('');
-}
-
 /** The hedge card: path controls, tree, chart and schedule table. */
 export function hedgePanel({ live, state, showError, setStale, changed, bindControls }) {
-  const card = document.getElementById('hedge-card');
-  const controls = document.getElementById('hedge-controls');
-  const treeHost = document.getElementById('hedge-tree');
+  const elements = cardParts('hedge', state);
+  const { card, controls, has } = elements;
+  const treeHost = byId('hedge-tree');
   const table = card.querySelector('[data-result="hedge-schedule"]');
+  const hasTree = () => state.commands.includes('tree');
   let lastRows = [];
   let lastTree = null;
-
-  const has = (command) => state.commands.includes(command);
 
   function hedgeSection() {
     if (!state.doc.hedge || typeof state.doc.hedge !== 'object' || Array.isArray(state.doc.hedge)) state.doc.hedge = {};
@@ -93,28 +86,132 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     hedge.path = { kind: 'scenario' };
     const doc = structuredClone(state.doc);
     hedge.path = saved;
-    live.call('hedge', doc).then((result) => {
-      const dates = result.rows.slice(1);
-      hedge.path = { kind: 'spots', spots: dates.map((row, i) => (typeof typed[i] === 'number' ? typed[i] : Number(row.spot.toPrecision(6)))) };
-      render();
-      changed(0);
-    }, (err) => {
-      if (err instanceof EngineError) showError(err.field, err.message);
-    });
+    live.call('hedge', doc).then(
+      (result) => {
+        const dates = result.rows.slice(1);
+        hedge.path = {
+          kind: 'spots',
+          spots: dates.map((row, i) => (typeof typed[i] === 'number' ? typed[i] : Number(row.spot.toPrecision(6)))),
+        };
+        render();
+        changed(0);
+      },
+      (err) => {
+        if (err instanceof EngineError) showError(err.field, err.message);
+      },
+    );
   }
 
   function rebalanceFields() {
-    const unit = make('select', { dataset: { path: 'hedge.rebalance.unit', kind: 'choice' } });
-    for (const [value, text] of [['', 'weeks (default)'], ['days', 'business days'], ['weeks', 'weeks'], ['months', 'months']]) unit.append(new Option(text, value));
-    return make('div', { className: 'row' }, [
-      field('Rebalance every', bound('hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' })),
+    const unit = select('hedge.rebalance.unit', [
+      ['', 'weeks (default)'],
+      ['days', 'business days'],
+      ['weeks', 'weeks'],
+      ['months', 'months'],
+    ]);
+    return fieldRow([
+      ...boundFields([
+        ['Rebalance every', 'hedge.rebalance.every', 'number', { placeholder: '1', inputMode: 'numeric' }],
+      ]),
       field('Unit', unit),
     ]);
   }
 
+  /** Steps on a tree: how many, and each step up or down. */
+  function latticeControls(doc) {
+    const moves = movesOf(doc);
+    const steps = make('input', { type: 'number', min: 1, max: maxTreeSteps, value: moves.length, id: 'hedge-steps' });
+    steps.addEventListener('change', () => {
+      const n = Math.max(1, Math.min(maxTreeSteps, Math.round(Number(steps.value)) || 1));
+      setMoves(moves.length >= n ? moves.slice(0, n) : moves + 'UD'.repeat(n).slice(0, n - moves.length));
+    });
+    const buttons = make('div', {
+      className: 'path-buttons',
+      role: 'group',
+      'aria-label': 'Moves of spot, step by step',
+    });
+    [...moves].forEach((m, i) => {
+      const up = m === 'U';
+      const flip = () => {
+        setMoves(moves.slice(0, i) + (up ? 'D' : 'U') + moves.slice(i + 1));
+        controls.querySelectorAll('.move')[i]?.focus();
+      };
+      buttons.append(
+        button(up ? '▲' : '▼', flip, {
+          className: `move ${up ? 'up' : 'down'}`,
+          title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})`,
+          'aria-label': `Step ${i + 1}: ${up ? 'up' : 'down'}`,
+          'aria-pressed': up ? 'true' : 'false',
+        }),
+      );
+    });
+    return [
+      fieldRow([field(`Tree steps (1–${maxTreeSteps})`, steps)]),
+      make('p', {
+        className: 'hint',
+        text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.',
+      }),
+      buttons,
+      errorLine('hedge.path.moves'),
+    ];
+  }
+
+  /** Spots typed per rebalancing date, each labelled with its date from the last schedule. */
+  function spotsControls(doc) {
+    const spots = Array.isArray(doc.hedge?.path?.spots) ? doc.hedge.path.spots : [];
+    const list = make('div', { className: 'spot-list' });
+    spots.forEach((_, i) => {
+      const date =
+        lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
+      list.append(field(String(date), bound(`hedge.path.spots[${i}]`, 'number'), 'field cell'));
+    });
+    const fit = button('One spot per date', fitSpots, { className: 'small' });
+    return [
+      rebalanceFields(),
+      make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
+      list,
+      errorLine('hedge.path.spots'),
+    ];
+  }
+
+  /** A random path: its drift, realised volatility and seed. */
+  function scenarioControls() {
+    return [
+      rebalanceFields(),
+      fieldRow(
+        boundFields([
+          ['Drift % p.a.', 'hedge.path.drift', 'percent', { placeholder: 'the rate' }],
+          ['Realised vol % p.a.', 'hedge.path.volatility', 'percent', { placeholder: 'as priced' }],
+          ['Seed', 'hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
+        ]),
+      ),
+    ];
+  }
+
+  /** A stress: its shape, size and, for a gap, the date. */
+  function stressControls(doc) {
+    const shape = select('hedge.path.shape', [
+      ['fall', 'steady fall'],
+      ['rise', 'steady rise'],
+      ['gap-down', 'gap down on a date'],
+    ]);
+    const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
+    if (doc.hedge?.path?.shape === 'gap-down') {
+      row.push(field('Gap date or years', whenInput('hedge.path', 'date,years')));
+    }
+    return [rebalanceFields(), fieldRow(row)];
+  }
+
+  const pathControls = {
+    lattice: latticeControls,
+    spots: spotsControls,
+    scenario: scenarioControls,
+    stress: stressControls,
+  };
+
   /** Build the controls for the current kind of path. */
   function render() {
-    if (!has('hedge')) return;
+    if (!has()) return;
     const doc = state.doc;
     const kind = pathKind(doc);
     const choice = make('fieldset', { className: 'field choice-field' }, [make('legend', { text: 'Path of spot' })]);
@@ -123,150 +220,72 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       radio.addEventListener('change', () => setKind(value));
       choice.append(make('label', {}, [radio, ` ${text}`]));
     }
-    const parts = [choice];
-    if (kind === 'lattice') {
-      const moves = movesOf(doc);
-      const steps = make('input', { type: 'number', min: 1, max: maxTreeSteps, value: moves.length, id: 'hedge-steps' });
-      steps.addEventListener('change', () => {
-        const n = Math.max(1, Math.min(maxTreeSteps, Math.round(Number(steps.value)) || 1));
-        setMoves(moves.length >= n ? moves.slice(0, n) : moves + 'UD'.repeat(n).slice(0, n - moves.length));
-      });
-      const buttons = make('div', { className: 'path-buttons', role: 'group', 'aria-label': 'Moves of spot, step by step' });
-      [...moves].forEach((m, i) => {
-        const up = m === 'U';
-        const button = make('button', { type: 'button', className: `move ${up ? 'up' : 'down'}`, text: up ? '▲' : '▼',
-          title: `Step ${i + 1}: ${up ? 'up' : 'down'} (click to turn ${up ? 'down' : 'up'})` });
-        button.setAttribute('aria-label', `Step ${i + 1}: ${up ? 'up' : 'down'}`);
-        button.setAttribute('aria-pressed', up ? 'true' : 'false');
-        button.addEventListener('click', () => {
-          setMoves(moves.slice(0, i) + (up ? 'D' : 'U') + moves.slice(i + 1));
-          controls.querySelectorAll('.move')[i]?.focus();
-        });
-        buttons.append(button);
-      });
-      parts.push(make('div', { className: 'row' }, [field(`Tree steps (1–${maxTreeSteps})`, steps)]),
-        make('p', { className: 'hint', text: 'Each step is one lattice period. Press a step to flip it up or down, or pick a node on the tree.' }),
-        buttons, make('span', { className: 'field-error', dataset: { error: 'hedge.path.moves' }, role: 'alert' }));
-    } else if (kind === 'spots') {
-      const spots = Array.isArray(doc.hedge?.path?.spots) ? doc.hedge.path.spots : [];
-      const list = make('div', { className: 'spot-list' });
-      spots.forEach((_, i) => {
-        const date = lastRows[i + 1]?.date ?? (lastRows[i + 1] ? `${formatNumber(lastRows[i + 1].years, 3)} y` : `date ${i + 1}`);
-        list.append(field(String(date), bound(`hedge.path.spots[${i}]`, 'number'), 'field cell'));
-      });
-      const fit = make('button', { type: 'button', className: 'small', text: 'One spot per date' });
-      fit.addEventListener('click', fitSpots);
-      parts.push(rebalanceFields(), make('div', { className: 'list-head' }, [make('span', { text: 'Spot on each rebalancing date' }), fit]),
-        list, make('span', { className: 'field-error', dataset: { error: 'hedge.path.spots' }, role: 'alert' }));
-    } else if (kind === 'scenario') {
-      parts.push(rebalanceFields(), make('div', { className: 'row' }, [
-        field('Drift % p.a.', bound('hedge.path.drift', 'percent', { placeholder: 'the rate' })),
-        field('Realised vol % p.a.', bound('hedge.path.volatility', 'percent', { placeholder: 'as priced' })),
-        field('Seed', bound('hedge.path.seed', 'number', { placeholder: '1', inputMode: 'numeric' })),
-      ]));
-    } else {
-      const shape = make('select', { dataset: { path: 'hedge.path.shape', kind: 'choice' } });
-      for (const [value, text] of [['fall', 'steady fall'], ['rise', 'steady rise'], ['gap-down', 'gap down on a date']]) shape.append(new Option(text, value));
-      const row = [field('Shape', shape), field('Size %', bound('hedge.path.change', 'percent'))];
-      if (doc.hedge?.path?.shape === 'gap-down') {
-        row.push(field('Gap date or years', make('input', { dataset: { role: 'when', base: 'hedge.path', keys: 'date,years' }, autocomplete: 'off' })));
-      }
-      parts.push(rebalanceFields(), make('div', { className: 'row' }, row));
-    }
-    parts.push(make('div', { className: 'row' }, [field('Trading cost, bp of traded value', bound('hedge.cost_bp', 'number', { placeholder: '0' }))]),
-      make('span', { className: 'field-error', dataset: { error: 'hedge' }, role: 'alert' }));
-    controls.replaceChildren(...parts);
-    for (const input of controls.querySelectorAll('[data-path], [data-role]')) fillInput(doc, input);
-    bindControls(controls);
+    const parts = [
+      choice,
+      ...pathControls[kind](doc),
+      fieldRow(boundFields([['Trading cost, bp of traded value', 'hedge.cost_bp', 'number', { placeholder: '0' }]])),
+      errorLine('hedge'),
+    ];
+    showControls(controls, parts, doc, bindControls);
     treeHost.hidden = kind !== 'lattice';
   }
 
-  function drawTree(tree, moves) {
-    const nodes = tree.nodes;
-    const steps = tree.to_step;
-    const onPath = new Set();
-    let j = 0;
-    onPath.add('0:0');
-    [...moves].forEach((m, n) => {
-      if (m === 'U') j += 1;
-      onPath.add(`${n + 1}:${j}`);
-    });
-    const dx = 92;
-    const dy = 24;
-    const width = 60 + steps * dx + 50;
-    const height = 40 + steps * 2 * dy;
-    const x = (n) => 40 + n * dx;
-    const y = (n, i) => height / 2 - (2 * i - n) * dy;
-    const root = svg('svg', { viewBox: `0 0 ${width} ${height}`, class: 'tree-svg', role: 'group', 'aria-label': 'Lattice of spot; pick a node to route the path through it' });
-    for (const node of nodes) {
-      if (node.step >= steps) continue;
-      for (const k of [0, 1]) {
-        const on = onPath.has(`${node.step}:${node.index}`) && onPath.has(`${node.step + 1}:${node.index + k}`);
-        root.append(svg('line', { x1: x(node.step), y1: y(node.step, node.index), x2: x(node.step + 1), y2: y(node.step + 1, node.index + k), class: `edge${on ? ' on-path' : ''}` }));
-      }
-    }
-    for (const node of nodes) {
-      const on = onPath.has(`${node.step}:${node.index}`);
-      const g = svg('g', { class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`, tabindex: -1, role: 'button',
-        'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, 2)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}` });
-      g.append(svg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
-      g.append(svg('text', { x: x(node.step), y: y(node.step, node.index) - 9, 'text-anchor': 'middle' }, formatNumber(node.spot, 2)));
-      if (on) g.append(svg('text', { x: x(node.step), y: y(node.step, node.index) + 17, 'text-anchor': 'middle', class: 'value' }, `V ${formatNumber(node.value, 2)}`));
-      if (node.step > 0) {
-        const pick = () => setMoves(routeThrough(moves, node.step, node.index));
-        g.addEventListener('click', pick);
-        g.addEventListener('keydown', (event) => {
-          if (event.key === 'Enter' || event.key === ' ') {
-            event.preventDefault();
-            pick();
-          }
-        });
-      }
-      root.append(g);
-    }
-    // the forward growth of one step under the pricing probabilities: p u + (1 - p) d
-    const growth = tree.p_up * tree.up + (1 - tree.p_up) * tree.down;
-    const legend = make('p', { className: 'hint', text: `Spot above each node, the trade's value (V) on the path. ` +
-      `Per ${formatNumber(tree.dt_years * 365, 1)} days: up ×${formatNumber(tree.up, 4)}, down ×${formatNumber(tree.down, 4)}, ` +
-      `forward growth ×${formatNumber(growth, 4)} (down < growth < up: no arbitrage), up-probability ${formatNumber(tree.p_up, 4)}. ` +
-      'At each node the hedge holds Δ = (V up − V down) / (S up − S down) shares and B = V − Δ·S in cash. ' +
-      'Ringed nodes: the holder exercises early.' });
-    treeHost.replaceChildren(root, legend);
-  }
-
   function drawSchedule(result) {
-    const head = ['Date', 'Event', 'Spot', 'Option value', 'Target delta', 'Shares held', 'Shares traded', 'Cash', 'Portfolio', 'Portfolio − option'];
-    const rows = result.rows.map((row) => [row.date ?? `${formatNumber(row.years, 3)} y`, row.event, formatNumber(row.spot, 2), formatNumber(row.option_value, 4),
-      row.delta === null ? '–' : formatNumber(row.delta, 4), formatNumber(row.shares_held, 4), formatNumber(row.shares_traded, 4),
-      formatNumber(row.cash, 4), formatNumber(row.portfolio_value, 4), formatSmart(row.tracking_error, 2, 4)]);
+    const head = [
+      'Date',
+      'Event',
+      'Spot',
+      'Option value',
+      'Target delta',
+      'Shares held',
+      'Shares traded',
+      'Cash',
+      'Portfolio',
+      'Portfolio − option',
+    ];
+    const rows = result.rows.map((row) => [
+      row.date ?? `${formatNumber(row.years, 3)} y`,
+      row.event,
+      formatNumber(row.spot, 2),
+      formatNumber(row.option_value, 4),
+      row.delta === null ? '–' : formatNumber(row.delta, 4),
+      formatNumber(row.shares_held, 4),
+      formatNumber(row.shares_traded, 4),
+      formatNumber(row.cash, 4),
+      formatNumber(row.portfolio_value, 4),
+      formatSmart(row.tracking_error, 2, 4),
+    ]);
     fillTable(table, head, rows, 'Hedge schedule per unit of the trade');
     table.dataset.rows = String(result.rows.length);
     const t = result.totals;
     const desk = result.desk;
-    document.getElementById('hedge-totals').textContent =
+    byId('hedge-totals').textContent =
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
       `replication error ${formatSmart(t.replication_error, 2, 4)}, shares traded ${formatNumber(t.total_shares_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
       `The desk holds ${formatNumber(desk.shares_at_start, 0)} shares at the start and ${formatNumber(desk.shares_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
       (result.notes?.length ? ` Note: ${result.notes.join('; ')}.` : '');
     const xs = (row) => row.years;
-    drawChart(document.getElementById('hedge-chart'), {
+    drawChart(byId('hedge-chart'), {
       series: [
-        { kind: 'portfolio', label: 'Hedge portfolio (shares + cash)', dots: true, points: result.rows.map((r) => [xs(r), r.portfolio_value]) },
+        {
+          kind: 'portfolio',
+          label: 'Hedge portfolio (shares + cash)',
+          dots: true,
+          points: result.rows.map((r) => [xs(r), r.portfolio_value]),
+        },
         { kind: 'option', label: 'Option value', dots: true, points: result.rows.map((r) => [xs(r), r.option_value]) },
       ],
-      xLabel: 'Years from valuation', yLabel: 'Value per unit', height: 240,
+      xLabel: 'Years from valuation',
+      yLabel: 'Value per unit',
+      height: 240,
     });
   }
 
   return {
-    setup() {
-      card.hidden = !has('hedge');
-      render();
-    },
-    render,
+    ...cardBasics(elements, render),
     /** Start the `hedge` call for `doc` now (it queues behind the price on the engine); null if the page has no hedge card. */
     request(doc) {
-      return has('hedge') ? started(live.call('hedge', doc)) : null;
+      return has() ? started(live.call('hedge', doc)) : null;
     },
     /** Show the schedule `pending` (from request) brings, unless a newer edit came first. */
     async update(doc, price, generation, pending) {
@@ -284,10 +303,10 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
             if (row) span.textContent = row.date ?? `${formatNumber(row.years, 3)} y`;
           });
         }
-        if (kind === 'lattice' && has('tree')) {
+        if (kind === 'lattice' && hasTree()) {
           lastTree = await live.call('tree', doc);
           if (generation !== state.generation) return;
-          drawTree(lastTree, movesOf(doc));
+          drawTree(treeHost, lastTree, movesOf(doc), setMoves);
         }
         setStale(['hedge'], false);
       } catch (err) {

@@ -45,13 +45,14 @@ export function setPath(doc, path, value) {
     node[last] = value;
     return;
   }
-  if (Array.isArray(node)) return;  // list entries are removed by their own button, never by emptying a field
+  if (Array.isArray(node)) return; // list entries are removed by their own button, never by emptying a field
   delete node[last];
   // drop objects the deletion left empty (an empty "lattice": {} helps nobody), but keep lists
   for (let i = parts.length - 2; i >= 0; i -= 1) {
     const holder = trail[i];
     const child = holder[parts[i]];
-    if (child && !Array.isArray(child) && typeof child === 'object' && Object.keys(child).length === 0) delete holder[parts[i]];
+    if (child && !Array.isArray(child) && typeof child === 'object' && Object.keys(child).length === 0)
+      delete holder[parts[i]];
     else break;
   }
 }

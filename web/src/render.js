@@ -3,6 +3,7 @@
 // Every figure is written into elements marked data-result="<name>" (text for
 // people, data-value with the engine's number in file units for automation;
 // see docs/page contract). Text only ever goes in through textContent.
+import { byId, tableRow } from './dom.js';
 import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
 
@@ -20,10 +21,22 @@ export function setResult(name, text, value) {
   writeFigure(document.querySelectorAll(`[data-result="${name}"]`), text, value);
 }
 
-const typeNames = { call: 'call', put: 'put', 'digital-call': 'digital call', 'digital-put': 'digital put', stock: 'share' };
+const typeNames = {
+  call: 'call',
+  put: 'put',
+  'digital-call': 'digital call',
+  'digital-put': 'digital put',
+  stock: 'share',
+};
 const shapeNames = {
-  'call-spread': 'call spread', 'put-spread': 'put spread', collar: 'collar', 'risk-reversal': 'risk reversal',
-  straddle: 'straddle', strangle: 'strangle', seagull: 'seagull', 'covered-call': 'covered call',
+  'call-spread': 'call spread',
+  'put-spread': 'put spread',
+  collar: 'collar',
+  'risk-reversal': 'risk reversal',
+  straddle: 'straddle',
+  strangle: 'strangle',
+  seagull: 'seagull',
+  'covered-call': 'covered call',
 };
 
 /** "American put, strike 46" and the like, in plain words. */
@@ -31,7 +44,8 @@ export function describeContract(doc) {
   const key = contractKey(doc);
   if (key === 'option') {
     const o = doc.option || {};
-    const style = o.exercise && o.exercise !== 'european' ? `${o.exercise[0].toUpperCase()}${o.exercise.slice(1)} ` : 'European ';
+    const style =
+      o.exercise && o.exercise !== 'european' ? `${o.exercise[0].toUpperCase()}${o.exercise.slice(1)} ` : 'European ';
     return `${style}${typeNames[o.type] ?? 'option'}, strike ${inputText(o.strike)}`;
   }
   if (key === 'structure') {
@@ -79,10 +93,14 @@ function writeFigures(doc, r, set) {
   const cp = r.client_price;
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
   if (cp) {
-    set('client-price', `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`, cp.per_unit);
+    set(
+      'client-price',
+      `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`,
+      cp.per_unit,
+    );
     set('client-price-total', formatNumber(cp.total, 2), cp.total);
     set('desk-margin-total', formatNumber(cp.desk_margin_total, 2), cp.desk_margin_total);
-    document.getElementById('client-side').textContent = `per unit, ${cp.client_side}`;
+    byId('client-side').textContent = `per unit, ${cp.client_side}`;
   }
 
   const g = r.greeks;
@@ -101,8 +119,14 @@ function writeFigures(doc, r, set) {
   set('rho-position', formatNumber(p.rho / 100, 2), p.rho);
 
   const lattice = r.lattice;
-  const method = { 'leisen-reimer': 'Leisen-Reimer', crr: 'Cox-Ross-Rubinstein', 'jarrow-rudd': 'Jarrow-Rudd', tian: 'Tian' }[lattice.method] ?? lattice.method;
-  set('lattice', `${method}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`);
+  const method =
+    { 'leisen-reimer': 'Leisen-Reimer', crr: 'Cox-Ross-Rubinstein', 'jarrow-rudd': 'Jarrow-Rudd', tian: 'Tian' }[
+      lattice.method
+    ] ?? lattice.method;
+  set(
+    'lattice',
+    `${method}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`,
+  );
   set('closed-form-premium', formatNumber(r.closed_form.premium, perUnitDigits), r.closed_form.premium);
   set('error-estimate', `± ${formatSmart(lattice.error_estimate, 2, 4)}`, lattice.error_estimate);
   if (r.early_exercise_premium === null) set('early-exercise-premium', 'none (exercise only at expiry)');
@@ -113,29 +137,28 @@ function writeFigures(doc, r, set) {
   set('replication-cash', formatNumber(rep.cash, 4), rep.cash);
   set('replication-shares-position', formatNumber(sign * q * rep.shares, 2), sign * q * rep.shares);
   set('replication-cash-position', formatNumber(sign * q * rep.cash, 2), sign * q * rep.cash);
-  set('replication-check',
+  set(
+    'replication-check',
     `Δ·S + B = ${formatNumber(rep.shares, 4)} × ${formatNumber(rep.spot, 2)} + ${formatNumber(rep.cash, 4)} = ${formatNumber(rep.shares * rep.spot + rep.cash, 4)} = premium ${formatNumber(r.premium, 4)}`,
-    rep.shares * rep.spot + rep.cash);
+    rep.shares * rep.spot + rep.cash,
+  );
   set('engine-version', r.engine_version);
 
   const side = r.position.side === 'sell' ? 'Client sells' : 'Client buys';
   set('trade-summary', '');
-  document.getElementById('trade-summary').textContent =
+  byId('trade-summary').textContent =
     `${side} ${inputText(q)} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${inputText(r.spot)}`;
 }
 
+/** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
 function rows(table, entries) {
-  table.replaceChildren(...entries.map(([label, value, name]) => {
-    const tr = document.createElement('tr');
-    const th = document.createElement('th');
-    th.scope = 'row';
-    th.textContent = label;
-    const td = document.createElement('td');
-    td.textContent = value;
-    if (name) td.dataset.sheet = name;
-    tr.append(th, td);
-    return tr;
-  }));
+  table.replaceChildren(
+    ...entries.map(([label, value, name]) => {
+      const tr = tableRow([label, value]);
+      if (name) tr.cells[1].dataset.sheet = name;
+      return tr;
+    }),
+  );
 }
 
 /** Fill the print-only quote sheet. */
@@ -150,14 +173,20 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   terms.push(['Client side', r.position.side === 'sell' ? 'sells' : 'buys']);
   terms.push(['Quantity', inputText(q)]);
   terms.push(['Expiry', expiryText(doc, r)]);
-  terms.push(['Spot', `${typeof m.spot === 'number' ? formatNumber(m.spot, Math.max(2, (String(m.spot).split('.')[1] ?? '').length)) : '–'}${ccy}`]);
+  terms.push([
+    'Spot',
+    `${typeof m.spot === 'number' ? formatNumber(m.spot, Math.max(2, (String(m.spot).split('.')[1] ?? '').length)) : '–'}${ccy}`,
+  ]);
   terms.push(['Volatility', formatPercent(m.volatility, 2)]);
   terms.push(['Interest rate', formatPercent(m.rate, 2)]);
   terms.push(['Dividend yield', formatPercent(m.carry_yield ?? 0, 2)]);
   if (Array.isArray(m.dividends) && m.dividends.length) {
-    terms.push(['Cash dividends', m.dividends.map((d) => `${d.date ?? `${d.time_years} y`}: ${inputText(d.amount)}`).join('; ')]);
+    terms.push([
+      'Cash dividends',
+      m.dividends.map((d) => `${d.date ?? `${d.time_years} y`}: ${inputText(d.amount)}`).join('; '),
+    ]);
   }
-  rows(document.getElementById('sheet-terms'), terms);
+  rows(byId('sheet-terms'), terms);
 
   const figures = [
     ['Premium per unit', `${formatNumber(r.premium, 4)}${ccy}`],
@@ -175,15 +204,20 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
   figures.push(['Vega per vol point, position', `${formatNumber(r.position.greeks.vega / 100, 2)}${ccy}`]);
   figures.push(['Theta per day, position', `${formatNumber(r.position.greeks.theta / 365, 2)}${ccy}`]);
   figures.push(['European closed-form value', formatNumber(r.closed_form.premium, 4)]);
-  if (r.early_exercise_premium !== null) figures.push(['Early-exercise premium', formatNumber(r.early_exercise_premium, 4)]);
+  if (r.early_exercise_premium !== null)
+    figures.push(['Early-exercise premium', formatNumber(r.early_exercise_premium, 4)]);
   figures.push(['Lattice error estimate', `± ${formatSmart(r.lattice.error_estimate, 2, 4)}`]);
-  rows(document.getElementById('sheet-figures'), figures);
+  rows(byId('sheet-figures'), figures);
 
-  document.getElementById('sheet-notes').textContent = typeof quote.notes === 'string' ? quote.notes : '';
-  rows(document.getElementById('sheet-meta'), [
+  byId('sheet-notes').textContent = typeof quote.notes === 'string' ? quote.notes : '';
+  rows(byId('sheet-meta'), [
     ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
     ['Engine', `Hedgeleaf ${r.engine_version}, ${r.lattice.method} lattice, ${inputText(r.lattice.steps)} steps`],
-    ['Input fingerprint', fingerprint ? `${fingerprint} (first 12 hex digits of the SHA-256 of the saved trade file)` : '–', 'fingerprint'],
+    [
+      'Input fingerprint',
+      fingerprint ? `${fingerprint} (first 12 hex digits of the SHA-256 of the saved trade file)` : '–',
+      'fingerprint',
+    ],
   ]);
 }

@@ -1,6 +1,7 @@
 // Hedgeleaf page: the trade outside the page (fragment links, autosave, files).
 //
 // The trade always travels as the same JSON document the CLI reads.
+import { make } from './dom.js';
 
 /** UTF-8 JSON text -> base64url (no padding), for #trade=... */
 export function toBase64Url(text) {
@@ -44,7 +45,8 @@ export function parseTradeText(text) {
       else if (c === '"') inString = false;
     } else if (c === '"') inString = true;
     else if (c === '{' || c === '[') {
-      if (++depth > maxDocumentDepth) throw new Error(`it is nested more than ${maxDocumentDepth} levels deep, which no trade is`);
+      if (++depth > maxDocumentDepth)
+        throw new Error(`it is nested more than ${maxDocumentDepth} levels deep, which no trade is`);
     } else if (c === '}' || c === ']') depth -= 1;
   }
   return JSON.parse(text);
@@ -95,9 +97,7 @@ export function loadAutosave(storage) {
 /** Offer `text` as a download named `name`. */
 export function download(name, text, type) {
   const url = URL.createObjectURL(new Blob([text], { type }));
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = name;
+  const link = make('a', { href: url, download: name });
   document.body.append(link);
   link.click();
   link.remove();
@@ -106,6 +106,11 @@ export function download(name, text, type) {
 
 /** A file name from free text: "Aldane Foods put" -> "aldane-foods-put". */
 export function slug(text, fallback) {
-  const s = String(text || '').toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40);
+  const s = String(text || '')
+    .toLowerCase()
+    .normalize('NFKD')
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 40);
   return s || fallback;
 }

@@ -5,18 +5,26 @@
 // Cancel terminates its worker. The engine reports no progress from inside the
 // call, so the bar shows elapsed time against an estimate from the last run
 // (indeterminate on the first).
-import { Cancelled, EngineChannel } from './compute.js';
+import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
+import { Cancelled, EngineChannel } from './compute.js';
+import { boundFields, button, errorLine, fieldRow, fillTable, make } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart, inputText } from './format.js';
-import { fillInput } from './form.js';
-import { bound, field, make } from './dom.js';
 
-const units = [['days', 'Every business day'], ['weeks', 'Every week'], ['months', 'Every month']];
+const units = [
+  ['days', 'Every business day'],
+  ['weeks', 'Every week'],
+  ['months', 'Every month'],
+];
 
 /** "every 1 weeks" -> "Every week"; other wording as the engine gives it. */
 function frequencyName(text) {
-  const plain = { 'every 1 business days': 'Every business day', 'every 1 weeks': 'Every week', 'every 1 months': 'Every month' };
+  const plain = {
+    'every 1 business days': 'Every business day',
+    'every 1 weeks': 'Every week',
+    'every 1 months': 'Every month',
+  };
   return plain[text] ?? text;
 }
 
@@ -28,19 +36,26 @@ function chosenUnits(doc) {
 }
 
 /** The simulation card. */
-export function simulatePanel({ makeWorker, mainThreadFactory, state, showError, clearErrors, setStale, changed, bindControls }) {
-  const card = document.getElementById('simulate-card');
-  const controls = document.getElementById('simulate-controls');
-  const output = document.getElementById('simulate-output');
+export function simulatePanel({
+  makeWorker,
+  mainThreadFactory,
+  state,
+  showError,
+  clearErrors,
+  setStale,
+  changed,
+  bindControls,
+}) {
+  const elements = cardParts('simulate', state);
+  const { card, controls, output, has } = elements;
   const channel = new EngineChannel(makeWorker, mainThreadFactory);
-  let msPerPath = null;   // from the last finished run
-  let ranOn = null;       // the document text of the run on screen
+  let msPerPath = null; // from the last finished run
+  let ranOn = null; // the document text of the run on screen
   let timer = null;
 
-  const has = () => state.commands.includes('simulate');
-
   function section() {
-    if (!state.doc.simulate || typeof state.doc.simulate !== 'object' || Array.isArray(state.doc.simulate)) state.doc.simulate = {};
+    if (!state.doc.simulate || typeof state.doc.simulate !== 'object' || Array.isArray(state.doc.simulate))
+      state.doc.simulate = {};
     return state.doc.simulate;
   }
 
@@ -52,8 +67,8 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
     changed();
   }
 
-  const run = make('button', { type: 'button', className: 'primary', text: 'Run simulation', id: 'simulate-run' });
-  const cancel = make('button', { type: 'button', text: 'Cancel', id: 'simulate-cancel', disabled: true });
+  const run = button('Run simulation', start, { className: 'primary', id: 'simulate-run' });
+  const cancel = button('Cancel', () => channel.cancel(), { id: 'simulate-cancel', disabled: true });
   const progress = make('progress', { max: 1, id: 'simulate-progress' });
   const status = make('p', { className: 'hint', id: 'simulate-status', role: 'status' });
   progress.hidden = true;
@@ -76,24 +91,35 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
       });
       boxes.append(make('label', {}, [box, ` ${text}`]));
     }
-    controls.replaceChildren(
-      make('p', { className: 'hint', text: 'Many random spot paths, each hedged in shares on the chosen dates: how far the hedge ends from what the trade pays (per unit; the desk that sold the trade keeps this).' }),
-      make('div', { className: 'row' }, [
-        field('Paths', bound('simulate.paths', 'number', { placeholder: '10,000', inputMode: 'numeric' })),
-        field('Realised vol % p.a.', bound('simulate.volatility', 'percent', { placeholder: 'as priced' })),
-        field('Drift % p.a.', bound('simulate.drift', 'percent', { placeholder: 'the rate' })),
-      ]),
-      make('div', { className: 'row' }, [
-        field('Trading cost, bp', bound('simulate.cost_bp', 'number', { placeholder: '0' })),
-        field('Seed', bound('simulate.seed', 'number', { placeholder: '1', inputMode: 'numeric' })),
-        boxes,
-      ]),
-      make('span', { className: 'field-error', dataset: { error: 'simulate' }, role: 'alert' }),
-      make('div', { className: 'path-buttons' }, [run, cancel]),
-      progress, status,
+    showControls(
+      controls,
+      [
+        make('p', {
+          className: 'hint',
+          text: 'Many random spot paths, each hedged in shares on the chosen dates: how far the hedge ends from what the trade pays (per unit; the desk that sold the trade keeps this).',
+        }),
+        fieldRow(
+          boundFields([
+            ['Paths', 'simulate.paths', 'number', { placeholder: '10,000', inputMode: 'numeric' }],
+            ['Realised vol % p.a.', 'simulate.volatility', 'percent', { placeholder: 'as priced' }],
+            ['Drift % p.a.', 'simulate.drift', 'percent', { placeholder: 'the rate' }],
+          ]),
+        ),
+        fieldRow([
+          ...boundFields([
+            ['Trading cost, bp', 'simulate.cost_bp', 'number', { placeholder: '0' }],
+            ['Seed', 'simulate.seed', 'number', { placeholder: '1', inputMode: 'numeric' }],
+          ]),
+          boxes,
+        ]),
+        errorLine('simulate'),
+        make('div', { className: 'path-buttons' }, [run, cancel]),
+        progress,
+        status,
+      ],
+      state.doc,
+      bindControls,
     );
-    for (const input of controls.querySelectorAll('[data-path]')) fillInput(state.doc, input);
-    bindControls(controls);
   }
 
   function finish() {
@@ -114,7 +140,7 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
     progress.hidden = false;
     card.classList.add('running');
     if (estimate) progress.value = 0;
-    else progress.removeAttribute('value');  // indeterminate until one run has been timed
+    else progress.removeAttribute('value'); // indeterminate until one run has been timed
     const tick = () => {
       const elapsed = (performance.now() - began) / 1000;
       if (estimate) progress.value = Math.min(0.97, (elapsed * 1000) / estimate);
@@ -142,42 +168,60 @@ export function simulatePanel({ makeWorker, mainThreadFactory, state, showError,
   }
 
   function draw(result) {
-    const head = ['Rebalancing', 'Trades', 'Mean P&L', 'Spread (sd)', '5 % worst', 'Median', '5 % best', 'Mean costs', 'Desk sd (position)'];
-    const table = make('table', { className: 'figures', dataset: { result: 'simulation' } }, [
-      make('thead', {}, [make('tr', {}, head.map((h) => make('th', { scope: 'col', text: h })))]),
-      make('tbody', {}, result.rows.map((row) => make('tr', {}, [
-        make('th', { scope: 'row', text: frequencyName(row.frequency) }),
-        ...[inputText(row.rebalancings), formatSmart(row.mean, 3, 4), `${formatNumber(row.sd, 4)} ± ${formatSmart(2 * row.sd_standard_error, 1, 4)}`,
-          formatNumber(row.p05, 4), formatNumber(row.p50, 4), formatNumber(row.p95, 4), formatNumber(row.mean_costs, 4),
-          formatNumber(row.desk_sd, 2)].map((text) => make('td', { text })),
-      ]))),
+    const head = [
+      'Rebalancing',
+      'Trades',
+      'Mean P&L',
+      'Spread (sd)',
+      '5 % worst',
+      'Median',
+      '5 % best',
+      'Mean costs',
+      'Desk sd (position)',
+    ];
+    const rows = result.rows.map((row) => [
+      frequencyName(row.frequency),
+      inputText(row.rebalancings),
+      formatSmart(row.mean, 3, 4),
+      `${formatNumber(row.sd, 4)} ± ${formatSmart(2 * row.sd_standard_error, 1, 4)}`,
+      formatNumber(row.p05, 4),
+      formatNumber(row.p50, 4),
+      formatNumber(row.p95, 4),
+      formatNumber(row.mean_costs, 4),
+      formatNumber(row.desk_sd, 2),
     ]);
+    const table = fillTable(make('table', { className: 'figures', dataset: { result: 'simulation' } }), head, rows);
     const edges = result.histogram.edges;
     const width = edges[1] - edges[0];
     const series = result.histogram.series.map((s, i) => ({
-      kind: `freq${i}`, label: frequencyName(s.frequency),
+      kind: `freq${i}`,
+      label: frequencyName(s.frequency),
       points: s.counts.map((c, k) => [(edges[k] + edges[k + 1]) / 2, c / result.paths / width]),
     }));
-    const chart = make('div', { className: 'chart', role: 'img', 'aria-label': 'Distribution of the hedging P&L per unit' });
-    output.replaceChildren(make('div', { className: 'table-scroll' }, [table]), chart,
-      make('p', { className: 'hint', text: `P&L per unit = hedge portfolio − payoff; ${result.monte_carlo_error}. Premium ${formatNumber(result.premium, 4)}, pricing volatility ${formatNumber(100 * result.pricing_volatility, 2)} %, realised ${formatNumber(100 * result.volatility, 2)} %.` }));
+    const chart = make('div', {
+      className: 'chart',
+      role: 'img',
+      'aria-label': 'Distribution of the hedging P&L per unit',
+    });
+    output.replaceChildren(
+      make('div', { className: 'table-scroll' }, [table]),
+      chart,
+      make('p', {
+        className: 'hint',
+        text: `P&L per unit = hedge portfolio − payoff; ${result.monte_carlo_error}. Premium ${formatNumber(result.premium, 4)}, pricing volatility ${formatNumber(100 * result.pricing_volatility, 2)} %, realised ${formatNumber(100 * result.volatility, 2)} %.`,
+      }),
+    );
     drawChart(chart, { series, xLabel: 'P&L per unit at the end', yLabel: 'Density', height: 220 });
   }
 
-  run.addEventListener('click', start);
-  cancel.addEventListener('click', () => channel.cancel());
-
   return {
-    setup() {
-      card.hidden = !has();
-      render();
-    },
-    render,
+    ...cardBasics(elements, render),
     update(doc) {
       if (ranOn === null) return;
       const stale = JSON.stringify(doc) !== ranOn;
       setStale(['simulate'], stale);
-      if (stale && !card.classList.contains('running')) status.textContent = 'The trade or settings changed since this run: run again to update.';
+      if (stale && !card.classList.contains('running'))
+        status.textContent = 'The trade or settings changed since this run: run again to update.';
     },
   };
 }

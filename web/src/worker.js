@@ -13,10 +13,16 @@ import { EngineError, loadEngine } from './engine.js';
 // user's first edit. All four commands share the kernel, so a worker asked for
 // any of them warms them all; a worker that only simulates (its own card) does not.
 const warmUpTrades = [
-  { market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
-    option: { type: 'put', strike: 100, expiry_years: 0.5, exercise: 'american' }, lattice: { steps: 301 } },
-  { market: { spot: 100, volatility: 0.3, rate: 0.03, carry_yield: 0.01 }, option: { type: 'call', strike: 105, expiry_years: 1 },
-    lattice: { steps: 301 } },
+  {
+    market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
+    option: { type: 'put', strike: 100, expiry_years: 0.5, exercise: 'american' },
+    lattice: { steps: 301 },
+  },
+  {
+    market: { spot: 100, volatility: 0.3, rate: 0.03, carry_yield: 0.01 },
+    option: { type: 'call', strike: 105, expiry_years: 1 },
+    lattice: { steps: 301 },
+  },
 ];
 const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
 let warmUp = null;

@@ -1,0 +1,95 @@
+// Hedgeleaf page: start-up and wiring; each part's work is in its own file.
+//
+// Flow: an input writes one field of state.doc (edits.js) -> a debounced
+// recompute sends the document to the engine workers (recompute.js) -> results
+// are drawn (render.js, chart.js and each card), or the engine's message is put
+// beside the field it names while the last good figures stay on screen, greyed
+// (messages.js). terms.js draws the terms form; saving.js moves the trade in
+// and out of the page; the cards (hedge.js, simulate.js, desk.js) get what they
+// use passed in here.
+import { EngineChannel, workerMaker } from './compute.js';
+import { ladderPanel, solvePanel } from './desk.js';
+import { byId } from './dom.js';
+import { listenForEdits } from './edits.js';
+import { hedgePanel } from './hedge.js';
+import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
+import { recomputeCycle } from './recompute.js';
+import { fileActions, initialTrade, saveLocally } from './saving.js';
+import { simulatePanel } from './simulate.js';
+import { commandsFrom, localStore, pageState } from './state.js';
+import { termsForm } from './terms.js';
+
+const scope = document.querySelector('main'); // the terms form and every card
+const state = pageState(commandsFrom(byId('engine-commands').textContent));
+const storage = localStore();
+
+// Two engines on two workers: `live` prices, `desk` runs the profile, hedge schedule,
+// ladder and solve for the same edit at the same time, so the slowest of them, not
+// their sum, sets how long a recompute takes. The simulation has a worker of its own.
+const makeWorker = workerMaker(byId('engine-js').textContent, byId('worker-js').textContent);
+const mainThreadFactory = () => globalThis.createHedgeleaf;
+const live = new EngineChannel(makeWorker, mainThreadFactory);
+const desk = new EngineChannel(makeWorker, mainThreadFactory);
+
+/** Error lines for every bound input, pointed at the fields they write now. */
+const bindControls = () => syncErrorPaths(scope, state.doc);
+// The cards ask for a recompute and the recompute asks the cards for their figures:
+// the cards are made first, with this forward call into the cycle made after them.
+const changed = (delay) => cycle.changed(delay);
+const shared = { state, showError, setStale, changed, bindControls };
+const hedge = hedgePanel({ ...shared, live: desk });
+const simulate = simulatePanel({ ...shared, makeWorker, mainThreadFactory, clearErrors });
+const ladder = ladderPanel({ ...shared, live: desk });
+const solve = solvePanel({ ...shared, live: desk, notice, refill: fillForm });
+const cards = [hedge, simulate, ladder, solve];
+const cycle = recomputeCycle({
+  state,
+  live,
+  desk,
+  cards: { hedge, ladder, solve, simulate },
+  save: () => saveLocally(state, storage),
+});
+const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
+const files = fileActions({ state, live, refill: fillForm, changed });
+
+/** Show the whole trade document: the terms form, every card's controls and their error lines. */
+function fillForm() {
+  terms.fill();
+  for (const card of cards) card.render();
+  bindControls();
+}
+
+function start() {
+  state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
+  const first = initialTrade(state, storage);
+  state.doc = first.doc;
+  if (first.message) notice(first.message);
+  document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
+  for (const card of cards) card.setup();
+  fillForm();
+  listenForEdits({
+    scope,
+    state,
+    terms,
+    redraws: new Map([
+      ['ladder.kind', ladder.render],
+      ['hedge.path.shape', hedge.render],
+      ['quote.margin_type', terms.updateMarginField],
+    ]),
+    refill: fillForm,
+    syncErrors: bindControls,
+    changed,
+  });
+  byId('terms').addEventListener('submit', (event) => event.preventDefault());
+  terms.wire();
+  files.wire();
+  byId('action-print').addEventListener('click', () => window.print());
+  window.addEventListener(
+    'beforeprint',
+    () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price),
+  );
+  document.body.classList.add('ready');
+  cycle.recompute();
+}
+
+start();
