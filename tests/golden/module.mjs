@@ -23,7 +23,9 @@ const expand = (text) => (typeof text === 'string' ? text : text.$repeat[0].repe
 export function goldenRuns() {
   const spec = JSON.parse(readFileSync(join(here, 'cases.json'), 'utf8'));
   const out = [];
-  for (const file of readdirSync(join(root, 'examples')).filter((f) => f.endsWith('.json')).sort()) {
+  for (const file of readdirSync(join(root, 'examples'))
+    .filter((f) => f.endsWith('.json'))
+    .sort()) {
     const text = readFileSync(join(root, 'examples', file), 'utf8');
     for (const command of spec.example_commands) out.push({ key: `${file.slice(0, -5)}.${command}`, command, text });
   }

@@ -27,7 +27,10 @@ const expectedDir = join(root, 'tests/golden/expected');
 function assertClose(actual, expected, path) {
   if (typeof expected === 'number') {
     assert.equal(typeof actual, 'number', `${path} is not a number`);
-    assert.ok(Math.abs(actual - expected) <= 1e-9 * Math.max(1, Math.abs(expected)), `${path}: module ${actual}, CLI ${expected}`);
+    assert.ok(
+      Math.abs(actual - expected) <= 1e-9 * Math.max(1, Math.abs(expected)),
+      `${path}: module ${actual}, CLI ${expected}`,
+    );
   } else if (Array.isArray(expected)) {
     assert.ok(Array.isArray(actual) && actual.length === expected.length, `${path}: not a list of ${expected.length}`);
     expected.forEach((e, i) => assertClose(actual[i], e, `${path}[${i}]`));
