@@ -7,6 +7,7 @@
 // frequency; then the summaries and a histogram on shared edges.
 #include "analytics/simulate.hpp"
 
+#include "analytics/pnl_statistics.hpp"
 #include "analytics/replication.hpp"
 #include "contract/errors.hpp"
 #include "numerics/closed_form.hpp"
@@ -15,7 +16,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numeric>
 #include <optional>
 
 namespace hedgeleaf {
@@ -67,13 +67,6 @@ struct date_grid {
         return static_cast<int>(it - grid.begin());
     }
 };
-
-double quantile(const std::vector<double>& sorted, double p) {
-    const double h = p * static_cast<double>(sorted.size() - 1);
-    const std::size_t i = static_cast<std::size_t>(std::floor(h));
-    if (i + 1 >= sorted.size()) return sorted.back();
-    return sorted[i] + (h - static_cast<double>(i)) * (sorted[i + 1] - sorted[i]);
-}
 
 date_grid simulation_dates(const trade& t, const simulate_settings& st) {
     date_grid out;
@@ -340,79 +333,6 @@ void simulate_paths(const trade& t, const simulate_settings& st, const date_grid
     }
 }
 
-// The histogram's range: edges from `lo` to `hi`.
-struct histogram_range {
-    double lo = 0, hi = 0;
-};
-
-// Mean, sd, quantiles and costs of each frequency; the histogram edges span every
-// frequency's 0.1 % to 99.9 % quantiles.
-histogram_range summarise(const simulate_settings& st, const std::vector<double>& cost_sum, simulation& out) {
-    std::vector<std::vector<double>> sorted(out.frequencies.size());
-    double lo = INFINITY, hi = -INFINITY;
-    for (std::size_t f = 0; f < out.frequencies.size(); ++f) {
-        pnl_summary& s = out.frequencies[f];
-        sorted[f] = s.pnl;
-        std::sort(sorted[f].begin(), sorted[f].end());
-        const double n = static_cast<double>(st.paths);
-        s.mean = std::accumulate(s.pnl.begin(), s.pnl.end(), 0.0) / n;
-        double m2 = 0, m4 = 0;
-        for (double x : s.pnl) {
-            const double d2 = (x - s.mean) * (x - s.mean);
-            m2 += d2;
-            m4 += d2 * d2;
-        }
-        s.sd = st.paths > 1 ? std::sqrt(m2 / (n - 1)) : 0.0;
-        s.mean_standard_error = s.sd / std::sqrt(n);
-        const double var = m2 / n;
-        const double kurtosis = var > 0 ? (m4 / n) / (var * var) : 3.0;
-        s.sd_standard_error = 0.5 * s.sd * std::sqrt(std::max(0.0, kurtosis - 1) / n);
-        s.p01 = quantile(sorted[f], 0.01);
-        s.p05 = quantile(sorted[f], 0.05);
-        s.p50 = quantile(sorted[f], 0.50);
-        s.p95 = quantile(sorted[f], 0.95);
-        s.p99 = quantile(sorted[f], 0.99);
-        s.min = sorted[f].front();
-        s.max = sorted[f].back();
-        s.mean_costs = cost_sum[f] / n;
-        lo = std::min(lo, quantile(sorted[f], 0.001));
-        hi = std::max(hi, quantile(sorted[f], 0.999));
-    }
-    if (!(hi > lo)) {
-        const double pad = 1e-6 * std::max(1.0, std::fabs(lo));
-        lo -= pad;
-        hi += pad;
-    }
-    for (int b = 0; b <= st.bins; ++b) out.edges.push_back(lo + (hi - lo) * b / st.bins);
-    return {lo, hi};
-}
-
-void fill_histograms(const simulate_settings& st, const histogram_range& range, simulation& out) {
-    const double lo = range.lo, hi = range.hi;
-    for (auto& s : out.frequencies) {
-        s.counts.assign(static_cast<std::size_t>(st.bins), 0);
-        for (double x : s.pnl) {
-            if (x < lo)
-                ++s.below;
-            else if (x > hi)
-                ++s.above;
-            else
-                s.counts[std::min(st.bins - 1, static_cast<int>((x - lo) / (hi - lo) * st.bins))]++;
-        }
-    }
-}
-
-void desk_figures(const simulate_settings& st, const std::vector<std::vector<double>>& desk_pnl, simulation& out) {
-    for (std::size_t f = 0; f < out.frequencies.size(); ++f) {
-        pnl_summary& s = out.frequencies[f];
-        const double n = static_cast<double>(st.paths);
-        s.desk_mean = std::accumulate(desk_pnl[f].begin(), desk_pnl[f].end(), 0.0) / n;
-        double m2 = 0;
-        for (double x : desk_pnl[f]) m2 += (x - s.desk_mean) * (x - s.desk_mean);
-        s.desk_sd = st.paths > 1 ? std::sqrt(m2 / (n - 1)) : 0.0;
-    }
-}
-
 // One European call or put: the hedging error's sd has a closed-form reference.
 void derman_kamal_reference(const trade& t, const simulate_settings& st, simulation& out) {
     out.derman_kamal = t.legs.size() == 1 &&
@@ -462,7 +382,7 @@ simulation run_simulation(const trade& t, const simulate_settings& st) {
         desk_pnl[f].resize(static_cast<std::size_t>(st.paths));
     }
     simulate_paths(t, st, dates, plans, from_table, premium, out, desk_pnl, cost_sum);
-    const histogram_range range = summarise(st, cost_sum, out);
+    const histogram_range range = summarise_pnl(st, cost_sum, out);
     fill_histograms(st, range, out);
     desk_figures(st, desk_pnl, out);
     derman_kamal_reference(t, st, out);
