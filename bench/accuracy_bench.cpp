@@ -9,7 +9,8 @@
 //                                 node updates per price; optionally draw the chart (SVG)
 //                                 and write the rows as CSV.
 #include "bench_common.hpp"
-#include "lattice.hpp"
+#include "numerics/lattice.hpp"
+#include "numerics/lattice_price.hpp"
 #include "option_set.hpp"
 
 #include <algorithm>
@@ -27,7 +28,7 @@ using namespace hedgeleaf::bench;
 
 namespace {
 
-// The reference levels: Leisen-Reimer with the Richardson step of price_lattice_only
+// The reference levels: Leisen-Reimer with the Richardson step of price_leg
 // (first-order weights for American options) on 40,001 and 20,001 steps.
 constexpr int reference_steps = 40001;
 constexpr int check_steps = 20001;
@@ -39,8 +40,8 @@ int make_reference(const std::string& path) {
     const double start = now_seconds();
     for (std::size_t i = 0; i < set.size(); ++i) {
         sample_option& o = set[i];
-        o.reference = price_lattice_only(o.market(), o.leg(), {lattice_method::leisen_reimer, reference_steps, true}).premium;
-        o.check = price_lattice_only(o.market(), o.leg(), {lattice_method::leisen_reimer, check_steps, true}).premium;
+        o.reference = price_leg(o.market(), o.leg(), {lattice_method::leisen_reimer, reference_steps, true}).premium;
+        o.check = price_leg(o.market(), o.leg(), {lattice_method::leisen_reimer, check_steps, true}).premium;
         if (i % 50 == 49) std::fprintf(stderr, "%zu of %zu (%.0f s)\n", i + 1, set.size(), now_seconds() - start);
     }
     double sum = 0, worst = 0;
@@ -67,23 +68,23 @@ int make_reference(const std::string& path) {
 struct row {
     lattice_method method;
     bool extrapolate;
-    int steps;             // fine steps as used
-    double nodes;          // node updates per price of the whole lattice(s)
-    double swept;          // node updates actually done (probable band), mean over the set
-    double seconds;        // mean CPU seconds per price
-    double rms;            // RMS relative error
-    double worst;          // largest relative error
+    int steps;       // fine steps as used
+    double nodes;    // node updates per price of the whole lattice(s)
+    double swept;    // node updates actually done (probable band), mean over the set
+    double seconds;  // mean CPU seconds per price
+    double rms;      // RMS relative error
+    double worst;    // largest relative error
 };
 
 // Plain rows time one induction (what a plain lattice costs); extrapolated rows
-// time price_lattice_only (fine and coarse lattice, Richardson step).
+// time price_leg (fine and coarse lattice, Richardson step).
 row measure(const std::vector<sample_option>& set, lattice_method method, bool extrapolate, int steps) {
     row r{method, extrapolate, effective_steps(method, steps), 0, 0, 0, 0, 0};
     const lattice_settings settings{method, steps, true};
     std::vector<double> premium(set.size());
     const auto price_all = [&] {
         for (std::size_t i = 0; i < set.size(); ++i) {
-            premium[i] = extrapolate ? price_lattice_only(set[i].market(), set[i].leg(), settings).premium
+            premium[i] = extrapolate ? price_leg(set[i].market(), set[i].leg(), settings).premium
                                      : induce(set[i].market(), set[i].leg(), method, steps).value;
         }
     };
@@ -98,7 +99,7 @@ row measure(const std::vector<sample_option>& set, lattice_method method, bool e
         if (spent > 2.0) break;
     }
     r.seconds = best / static_cast<double>(set.size());
-    const lattice_price probe = price_lattice_only(set[0].market(), set[0].leg(), settings);
+    const lattice_price probe = price_leg(set[0].market(), set[0].leg(), settings);
     r.nodes = extrapolate ? node_updates(probe.steps) + node_updates(probe.coarse_steps) : node_updates(r.steps);
     for (const sample_option& o : set) {
         r.swept += induce(o.market(), o.leg(), method, r.steps).node_updates;
@@ -130,7 +131,8 @@ void write_svg(const std::string& path, const std::vector<row>& rows, const row&
     std::ostringstream svg;
     svg << "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"" << width << "\" height=\"" << height
         << "\" font-family=\"sans-serif\" font-size=\"12\">\n<rect width=\"100%\" height=\"100%\" fill=\"white\"/>\n";
-    svg << "<text x=\"" << left << "\" y=\"22\" font-size=\"14\">American options: RMS relative error vs mean time per "
+    svg << "<text x=\"" << left
+        << "\" y=\"22\" font-size=\"14\">American options: RMS relative error vs mean time per "
            "price (native, "
         << note << ")</text>\n";
     for (int d = static_cast<int>(x0); d <= static_cast<int>(x1); ++d) {
@@ -170,7 +172,8 @@ void write_svg(const std::string& path, const std::vector<row>& rows, const row&
             << "\" y=\"" << ly + 4 << "\">" << name << "</text>\n";
     }
     const double cx = px(chosen.seconds * 1e6), cy = py(chosen.rms);
-    svg << "<circle cx=\"" << cx << "\" cy=\"" << cy << "\" r=\"8\" fill=\"none\" stroke=\"black\" stroke-width=\"2\"/>\n";
+    svg << "<circle cx=\"" << cx << "\" cy=\"" << cy
+        << "\" r=\"8\" fill=\"none\" stroke=\"black\" stroke-width=\"2\"/>\n";
     svg << "<text x=\"" << cx + 12 << "\" y=\"" << cy + 18 << "\">default: " << label(chosen) << ", " << chosen.steps
         << " steps</text>\n";
     const double ty = py(1e-5);
@@ -189,11 +192,13 @@ int run_table(const std::string& path, const std::string& svg_path, const std::s
     }
     std::printf("# Accuracy per time: %zu American options (bench/option_set.hpp, seed %llu)\n", set.size(),
                 static_cast<unsigned long long>(option_set_seed));
-    std::printf("reference: leisen-reimer + extrapolation on %d steps; against %d steps it moves by %.1e RMS relative\n",
-                reference_steps, check_steps, std::sqrt(ref_sum / set.size()));
-    std::printf("error = (premium - reference) / max(reference, 0.5); time = CPU time per price, best of up to 3 passes\n\n");
-    std::printf("%-16s %-6s %7s %14s %14s %14s %12s %12s\n", "method", "extrap", "steps", "lattice nodes", "nodes swept",
-                "time/price us", "RMS rel err", "worst rel");
+    std::printf(
+        "reference: leisen-reimer + extrapolation on %d steps; against %d steps it moves by %.1e RMS relative\n",
+        reference_steps, check_steps, std::sqrt(ref_sum / set.size()));
+    std::printf(
+        "error = (premium - reference) / max(reference, 0.5); time = CPU time per price, best of up to 3 passes\n\n");
+    std::printf("%-16s %-6s %7s %14s %14s %14s %12s %12s\n", "method", "extrap", "steps", "lattice nodes",
+                "nodes swept", "time/price us", "RMS rel err", "worst rel");
 
     std::vector<row> rows;
     const lattice_method methods[] = {lattice_method::crr, lattice_method::jarrow_rudd, lattice_method::tian,
@@ -203,8 +208,8 @@ int run_table(const std::string& path, const std::string& svg_path, const std::s
             std::vector<int> steps = {25, 50, 100, 200, 400, 800, 1600, 3200};
             if (m == lattice_method::crr && !extrapolate) steps.insert(steps.end(), {6400, 12800, 25600, 51200});
             // Around the default, where the extrapolated error is not monotone in steps.
-            if (m == lattice_method::leisen_reimer && extrapolate) steps = {25, 51, 101, 201, 401, 501, 801, 1001, 1201,
-                                                                             1401, 1601, 1801, 2001, 3201};
+            if (m == lattice_method::leisen_reimer && extrapolate)
+                steps = {25, 51, 101, 201, 401, 501, 801, 1001, 1201, 1401, 1601, 1801, 2001, 3201};
             for (const int n : steps) {
                 const row r = measure(set, m, extrapolate, n);
                 rows.push_back(r);
@@ -217,10 +222,11 @@ int run_table(const std::string& path, const std::string& svg_path, const std::s
     // The default settings, measured on their own.
     const lattice_settings defaults;
     const row chosen = measure(set, defaults.method, defaults.extrapolate, default_steps(defaults.method));
-    std::printf("\ndefault settings (%s, extrapolation %s, %d steps): RMS relative error %.2e (worst %.2e), "
-                "%.1f us per price natively, %.4g node updates per price swept (%.4g in the two whole lattices)\n",
-                to_string(defaults.method).c_str(), defaults.extrapolate ? "on" : "off", chosen.steps, chosen.rms,
-                chosen.worst, chosen.seconds * 1e6, chosen.swept, chosen.nodes);
+    std::printf(
+        "\ndefault settings (%s, extrapolation %s, %d steps): RMS relative error %.2e (worst %.2e), "
+        "%.1f us per price natively, %.4g node updates per price swept (%.4g in the two whole lattices)\n",
+        to_string(defaults.method).c_str(), defaults.extrapolate ? "on" : "off", chosen.steps, chosen.rms, chosen.worst,
+        chosen.seconds * 1e6, chosen.swept, chosen.nodes);
 
     // Plain CRR at the same accuracy: interpolate log(RMS) against log(steps)
     // between the two CRR rows that bracket the default's error (or extrapolate
@@ -238,10 +244,11 @@ int run_table(const std::string& path, const std::string& svg_path, const std::s
         const double t = (std::log(chosen.rms) - std::log(a->rms)) / (std::log(b->rms) - std::log(a->rms));
         const double steps = std::exp(std::log(a->steps) + t * (std::log(b->steps) - std::log(a->steps)));
         const double whole = node_updates(static_cast<int>(steps));
-        std::printf("plain CRR %s that error at about %.0f steps (%s %d steps: %.2e, %d steps: %.2e): %.3g node "
-                    "updates in the whole lattice, %.0fx the default's %.3g swept (%.0fx its whole lattices)\n",
-                    bracketed ? "reaches" : "would reach (extrapolated)", steps, bracketed ? "between" : "from",
-                    a->steps, a->rms, b->steps, b->rms, whole, whole / chosen.swept, chosen.swept, whole / chosen.nodes);
+        std::printf(
+            "plain CRR %s that error at about %.0f steps (%s %d steps: %.2e, %d steps: %.2e): %.3g node "
+            "updates in the whole lattice, %.0fx the default's %.3g swept (%.0fx its whole lattices)\n",
+            bracketed ? "reaches" : "would reach (extrapolated)", steps, bracketed ? "between" : "from", a->steps,
+            a->rms, b->steps, b->rms, whole, whole / chosen.swept, chosen.swept, whole / chosen.nodes);
     }
     if (!svg_path.empty()) {
         write_svg(svg_path, rows, chosen, "this machine");
@@ -251,8 +258,8 @@ int run_table(const std::string& path, const std::string& svg_path, const std::s
         std::ofstream out(csv_path);
         out << "method,extrapolate,steps,node_updates,seconds_per_price,rms_relative_error,worst_relative_error\n";
         for (const row& r : rows)
-            out << to_string(r.method) << "," << (r.extrapolate ? "yes" : "no") << "," << r.steps << "," << r.nodes << ","
-                << r.seconds << "," << r.rms << "," << r.worst << "\n";
+            out << to_string(r.method) << "," << (r.extrapolate ? "yes" : "no") << "," << r.steps << "," << r.nodes
+                << "," << r.seconds << "," << r.rms << "," << r.worst << "\n";
     }
     return 0;
 }
@@ -265,8 +272,10 @@ int main(int argc, char** argv) {
         if (argc >= 2 && argv[1][0] != '-') {
             std::string svg, csv;
             for (int i = 2; i + 1 < argc; i += 2) {
-                if (std::strcmp(argv[i], "--svg") == 0) svg = argv[i + 1];
-                else if (std::strcmp(argv[i], "--csv") == 0) csv = argv[i + 1];
+                if (std::strcmp(argv[i], "--svg") == 0)
+                    svg = argv[i + 1];
+                else if (std::strcmp(argv[i], "--csv") == 0)
+                    csv = argv[i + 1];
             }
             return run_table(argv[1], svg, csv);
         }

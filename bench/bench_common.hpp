@@ -1,11 +1,11 @@
 // Hedgeleaf benchmarks: clocks and small helpers shared by the bench programs.
 #pragma once
 
+#include <time.h>
 #include <chrono>
 #include <cstdint>
-#include <string>
 #include <fstream>
-#include <time.h>
+#include <string>
 
 #if defined(__x86_64__)
 #include <x86intrin.h>

@@ -7,7 +7,7 @@
 // 21-row spot ladder. Prints the median and the fastest of several runs after
 // one warm-up run. On a shared machine the fastest run is the better guide.
 // Usage: ladder_bench
-#include "engine.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <algorithm>
 #include <chrono>

@@ -1,14 +1,15 @@
 // Hedgeleaf benchmark: speed of the backward induction, natively.
 //
 // Prints node updates per second and reference cycles per node of the kernel
-// in core/lattice.cpp and of the usual loop (bench/usual_loop.hpp) at 1,000,
+// in core/numerics/lattice_kernel.cpp and of the usual loop (bench/usual_loop.hpp) at 1,000,
 // 10,000 and 50,000 steps, European and American; the latency of one dependent
 // multiply on this machine (what bounds the usual loop); and the peak resident
 // memory of one 1,000 / 10,000 / 50,000-step price, each in its own process.
 // Usage: lattice_bench            all figures
 //        lattice_bench --rss N    (internal) price once at N steps, print peak RSS in KiB
 #include "bench_common.hpp"
-#include "lattice.hpp"
+#include "numerics/lattice.hpp"
+#include "numerics/lattice_price.hpp"
 #include "usual_loop.hpp"
 
 #include <sys/resource.h>
@@ -39,7 +40,7 @@ option_leg bench_put(exercise_style style) {
     option_leg leg;
     leg.type = payoff_kind::put;
     leg.strike = 100;
-    leg.expiry = 1.0;
+    leg.expiry_years = 1.0;
     leg.exercise = style;
     return leg;
 }
@@ -118,7 +119,7 @@ int rss_child(int steps) {
     if (steps > 0) {
         lattice_settings s;
         s.steps = steps;
-        const lattice_price p = price_lattice_only(bench_market(), bench_put(exercise_style::american), s);
+        const lattice_price p = price_leg(bench_market(), bench_put(exercise_style::american), s);
         if (!std::isfinite(p.premium)) return 1;
     }
     std::printf("%ld\n", peak_rss_kib());
@@ -163,25 +164,28 @@ int main(int argc, char** argv) {
     const double rate = tsc_rate();
     std::printf("# Native backward induction (bench/lattice_bench.cpp)\n");
     std::printf("cpu: %s\n", cpu_name().c_str());
-    std::printf("time-stamp counter: %.3f GHz (reference cycles: the TSC ticks at the nominal rate; "
-                "the core may run faster under turbo)\n", rate / 1e9);
+    std::printf(
+        "time-stamp counter: %.3f GHz (reference cycles: the TSC ticks at the nominal rate; "
+        "the core may run faster under turbo)\n",
+        rate / 1e9);
     std::printf("sweep code path: %s\n", clone_in_use());
     const double chain = dependent_multiply_seconds() * rate;
-    std::printf("one dependent double multiply (s *= r chain): %.2f reference cycles; it takes 4 core cycles on "
-                "recent Intel and AMD cores (vendor latency tables), so the core clock is about %.2f GHz\n",
-                chain, 4 / chain * rate / 1e9);
+    std::printf(
+        "one dependent double multiply (s *= r chain): %.2f reference cycles; it takes 4 core cycles on "
+        "recent Intel and AMD cores (vendor latency tables), so the core clock is about %.2f GHz\n",
+        chain, 4 / chain * rate / 1e9);
     std::printf("times are CPU time of the benchmark thread; cycles = CPU time x TSC rate\n\n");
 
-    std::printf("%-9s %6s  %-8s %14s %12s %16s %12s %10s\n", "exercise", "steps", "loop", "time/price ms", "node updates",
-                "node updates/s", "cycles/node", "speed-up");
+    std::printf("%-9s %6s  %-8s %14s %12s %16s %12s %10s\n", "exercise", "steps", "loop", "time/price ms",
+                "node updates", "node updates/s", "cycles/node", "speed-up");
     const market_data m = bench_market();
     std::vector<double> buffer;
     for (const exercise_style style : {exercise_style::european, exercise_style::american}) {
         const option_leg leg = bench_put(style);
         for (const int steps : {1000, 10000, 50000}) {
             const double nodes = node_updates(steps);
-            const timing usual = time_prices(
-                [&] { return usual_induce(m, leg, lattice_method::crr, steps, buffer); }, 0.6);
+            const timing usual =
+                time_prices([&] { return usual_induce(m, leg, lattice_method::crr, steps, buffer); }, 0.6);
             const timing kernel = time_prices(
                 [&] { return induce(m, leg, lattice_method::crr, steps, lattice_extent::full).value; }, 0.6);
             const timing band = time_prices([&] { return induce(m, leg, lattice_method::crr, steps).value; }, 0.6);
@@ -192,8 +196,8 @@ int main(int argc, char** argv) {
                 double nodes;
             } rows[] = {{"usual", usual, nodes}, {"kernel", kernel, nodes}, {"band", band, band_nodes}};
             for (const auto& r : rows) {
-                std::printf("%-9s %6d  %-8s %14.3f %12.4g %16.3e %12.3f %10.2f\n", to_string(style).c_str(), steps, r.name,
-                            r.t.seconds_per_price * 1e3, r.nodes, r.nodes / r.t.seconds_per_price,
+                std::printf("%-9s %6d  %-8s %14.3f %12.4g %16.3e %12.3f %10.2f\n", to_string(style).c_str(), steps,
+                            r.name, r.t.seconds_per_price * 1e3, r.nodes, r.nodes / r.t.seconds_per_price,
                             r.t.seconds_per_price * rate / r.nodes, usual.seconds_per_price / r.t.seconds_per_price);
             }
             for (const double v : {kernel.value, band.value}) {
@@ -202,13 +206,15 @@ int main(int argc, char** argv) {
             }
         }
     }
-    std::printf("(CRR lattice, put, spot 100, strike 100, vol 25 %%, rate 5 %%, carry 1 %%, 1 year. usual = "
-                "bench/usual_loop.hpp; kernel = hedgeleaf::induce over every node (lattice_extent::full), set-up "
-                "included; band = hedgeleaf::induce as the pricer calls it, over the probable band only, same value; "
-                "speed-up = usual time / this time)\n\n");
+    std::printf(
+        "(CRR lattice, put, spot 100, strike 100, vol 25 %%, rate 5 %%, carry 1 %%, 1 year. usual = "
+        "bench/usual_loop.hpp; kernel = hedgeleaf::induce over every node (lattice_extent::full), set-up "
+        "included; band = hedgeleaf::induce as the pricer calls it, over the probable band only, same value; "
+        "speed-up = usual time / this time)\n\n");
 
-    std::printf("# Memory: one American put, default method with extrapolation (fine + coarse lattice), "
-                "peak resident set of a fresh process\n");
+    std::printf(
+        "# Memory: one American put, default method with extrapolation (fine + coarse lattice), "
+        "peak resident set of a fresh process\n");
     const long base = rss_of_child(0);
     std::printf("%8s %14s %16s\n", "steps", "peak RSS KiB", "above empty KiB");
     std::printf("%8s %14ld %16s\n", "none", base, "-");
@@ -216,7 +222,9 @@ int main(int argc, char** argv) {
         const long kib = rss_of_child(steps);
         std::printf("%8d %14ld %16ld\n", steps, kib, kib - base);
     }
-    std::printf("(an N x N grid at 50,000 steps would need %.1f GiB; the kernel keeps one row of values, "
-                "a table of N+1 powers and N+1 exercise flags)\n", node_updates(50000) * 8 / (1 << 30));
+    std::printf(
+        "(an N x N grid at 50,000 steps would need %.1f GiB; the kernel keeps one row of values, "
+        "a table of N+1 powers and N+1 exercise flags)\n",
+        node_updates(50000) * 8 / (1 << 30));
     return 0;
 }

@@ -3,8 +3,10 @@
 //
 //   node bench/module_bench.mjs [--module FILE[=LABEL]]... [--reference FILE]
 //
-// Each --module is a built hedgeleaf.js (default build/wasm/hedgeleaf.js); a
-// second one (for instance a -msimd128 build) is timed the same way. Times are
+// Each --module is a built benchmark module, hedgeleaf_bench.js (default
+// build/wasm-bench/hedgeleaf_bench.js: the page's bindings plus bench/bench_exports.cpp,
+// built by bench/run.sh); a second one (for instance a build without -msimd128) is timed
+// the same way. The page's own module holds no benchmark entry points. Times are
 // this process's CPU time (process.cpuUsage), best batch of several, as in the
 // native benchmark: other processes share the machine.
 import { readFileSync } from 'node:fs';
@@ -30,7 +32,7 @@ function options() {
       throw new Error(`unknown option ${args[i]}`);
     }
   }
-  if (modules.length === 0) modules.push({ file: join(root, 'build/wasm/hedgeleaf.js'), label: 'module' });
+  if (modules.length === 0) modules.push({ file: join(root, 'build/wasm-bench/hedgeleaf_bench.js'), label: 'module' });
   return { modules, reference };
 }
 

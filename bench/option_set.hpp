@@ -2,7 +2,7 @@
 // to measure accuracy per unit of time, and its reference file.
 #pragma once
 
-#include "trade.hpp"
+#include "contract/trade.hpp"
 
 #include <cstdint>
 #include <fstream>

@@ -5,7 +5,9 @@
 #   bash bench/run.sh --reference  also recompute bench/american_reference.csv (about 10 minutes)
 #
 # Builds: build/native (preset "native"), build/wasm (preset "wasm", the shipped
-# -msimd128 module) and build/wasm-scalar (the same without SIMD, for comparison).
+# -msimd128 module, for the page figures), build/wasm-bench (preset "wasm-bench": the
+# benchmark module hedgeleaf_bench.js, the page's bindings plus bench/bench_exports.cpp)
+# and build/wasm-scalar (the benchmark module without SIMD, for comparison).
 # Prints: native kernel speed and memory (lattice_bench), accuracy per time on the
 # 500 random American options (accuracy_bench, which also redraws
 # bench/accuracy.svg), the module against the usual loop and a plain-JavaScript
@@ -21,12 +23,14 @@ step "native build (build/native)"
 cmake --preset native >/dev/null
 cmake --build build/native -j2 --target lattice_bench accuracy_bench >/dev/null
 
-step "module builds (build/wasm with SIMD, build/wasm-scalar without)"
+step "module builds (build/wasm: the page's; build/wasm-bench with SIMD and build/wasm-scalar without: the benchmark module)"
 emcmake cmake --preset wasm >/dev/null
 cmake --build build/wasm -j2 >/dev/null
+emcmake cmake --preset wasm-bench >/dev/null
+cmake --build build/wasm-bench -j2 --target hedgeleaf_bench_wasm >/dev/null
 emcmake cmake -S . -B build/wasm-scalar -DCMAKE_BUILD_TYPE=Release -DHEDGELEAF_TESTS=OFF -DHEDGELEAF_BENCH=OFF \
-  -DHEDGELEAF_WASM_SIMD=OFF >/dev/null
-cmake --build build/wasm-scalar -j2 >/dev/null
+  -DHEDGELEAF_WASM_SIMD=OFF -DHEDGELEAF_WASM_BENCH=ON >/dev/null
+cmake --build build/wasm-scalar -j2 --target hedgeleaf_bench_wasm >/dev/null
 
 if [[ "${1:-}" == "--reference" ]]; then
   step "converged reference for the random set (slow)"
@@ -40,7 +44,8 @@ step "accuracy per time (native)"
 build/native/bench/accuracy_bench bench/american_reference.csv --svg bench/accuracy.svg
 
 step "module (Node)"
-node bench/module_bench.mjs --module build/wasm/hedgeleaf.js=simd128 --module build/wasm-scalar/hedgeleaf.js=scalar
+node bench/module_bench.mjs --module build/wasm-bench/hedgeleaf_bench.js=simd128 \
+  --module build/wasm-scalar/hedgeleaf_bench.js=scalar
 
 if [[ -d web/node_modules/playwright-core ]]; then
   step "page (headless Chromium)"

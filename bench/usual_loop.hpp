@@ -1,5 +1,5 @@
 // Hedgeleaf benchmarks: the backward induction as it is usually written, the
-// baseline the optimised kernel in core/lattice.cpp is measured against.
+// baseline the optimised kernel in core/numerics/lattice_kernel.cpp is measured against.
 //
 // A running spot product (s *= up/down, one multiply per node that waits for
 // the previous one) and one max per node. Vanilla put or call, no dividends.
@@ -7,7 +7,7 @@
 // time the same source, compiled the same way as the kernel.
 #pragma once
 
-#include "lattice.hpp"
+#include "numerics/lattice.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -15,7 +15,7 @@
 
 namespace hedgeleaf::bench {
 
-// The same code-generation choice as the kernel's sweep (core/lattice.cpp):
+// The same code-generation choice as the kernel's sweep (core/numerics/lattice_kernel.cpp):
 // AVX-512, AVX2+FMA and baseline clones on x86-64 Linux with GCC.
 #if defined(__x86_64__) && defined(__linux__) && defined(__GNUC__) && !defined(__clang__)
 #define HEDGELEAF_BENCH_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))
@@ -25,11 +25,11 @@ namespace hedgeleaf::bench {
 
 /// Value of a vanilla leg (American or European) by the usual loop; `v` is the
 /// caller's buffer (resized to steps + 1), so timing excludes allocation.
-HEDGELEAF_BENCH_CLONES inline double usual_induce(const market_data& market, const option_leg& leg, lattice_method method,
-                                                  int steps, std::vector<double>& v) {
+HEDGELEAF_BENCH_CLONES inline double usual_induce(const market_data& market, const option_leg& leg,
+                                                  lattice_method method, int steps, std::vector<double>& v) {
     const int n_steps = effective_steps(method, steps);
-    const lattice_step st = make_step(method, market, leg.strike, leg.expiry, n_steps);
-    const double s0 = diffusing_spot(market, leg.expiry);
+    const lattice_step st = make_step(method, market, leg.strike, leg.expiry_years, n_steps);
+    const double s0 = diffusing_spot(market, leg.expiry_years);
     const double k = leg.strike;
     const bool put = leg.type == payoff_kind::put;
     const bool american = leg.exercise == exercise_style::american;

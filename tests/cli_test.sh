@@ -22,7 +22,7 @@ check "missing file exits 2" '[ $code -eq 2 ]'
 err=$("$cli" nosuchcommand "$root/examples/american-put.json" 2>&1 >/dev/null); code=$?
 check "unknown command exits 2" '[ $code -eq 2 ]'
 
-# hedge, simulate and tree (core/hedge, core/simulate, core/replication)
+# hedge, simulate and tree (core/analytics/hedge, simulate, tree; core/commands for their JSON)
 ex="$root/examples/hedge-explicit-spots.json"
 out=$("$cli" hedge "$ex"); code=$?
 check "hedge exits 0" '[ $code -eq 0 ]'
@@ -48,7 +48,7 @@ out=$("$cli" tree "$root/examples/hedge-tree-path.json"); code=$?
 check "tree exits 0" '[ $code -eq 0 ]'
 check "tree shows the path" 'echo "$out" | grep -q "\"moves\": \"DDUDDDD\""'
 
-# solve, ladder, profile and the client price (core/solver, core/ladder, core/profile, core/quote)
+# solve, ladder, profile and the client price (core/analytics/solve, ladder, profile, client_price)
 one_bad() {  # command, document, expected message: exit 2 and exactly that one line
     local err code want=$3
     err=$(echo "$2" | "$cli" "$1" - 2>&1 >/dev/null); code=$?

@@ -1,12 +1,14 @@
 // hedgeleaf: the command-line front end over the same core as the page.
 //
 //   hedgeleaf <command> FILE|- [--table | --csv]
+//   hedgeleaf --version | --vocabulary | --help
 //
 // Exit codes: 0 done, 2 bad input (one line on stderr naming the field), 1 other failure.
-#include "engine.hpp"
+#include "dispatch/command_table.hpp"
+#include "dispatch/dispatch.hpp"
 #include "table.hpp"
-#include "trade.hpp"
 
+#include <algorithm>
 #include <fstream>
 #include <iostream>
 #include <iterator>
@@ -20,10 +22,18 @@ using hedgeleaf::json;
 int usage(std::ostream& out, int code) {
     out << "usage: hedgeleaf <command> FILE|- [--table | --csv]\n"
            "commands:";
-    for (const auto& name : hedgeleaf::command_names()) out << " " << name;
-    out << "\n  FILE is a trade document (JSON); - reads standard input.\n"
+    std::size_t width = 0;
+    for (const auto& d : hedgeleaf::command_table()) {
+        out << " " << d.name;
+        width = std::max(width, d.name.size());
+    }
+    out << "\n";
+    for (const auto& d : hedgeleaf::command_table())
+        out << "  " << d.name << std::string(width + 2 - d.name.size(), ' ') << d.help << "\n";
+    out << "  FILE is a trade document (JSON); - reads standard input.\n"
            "  --table prints for a human, --csv prints the result's rows for a spreadsheet.\n"
-           "  hedgeleaf --version prints the engine version.\n";
+           "  hedgeleaf --version prints the engine version.\n"
+           "  hedgeleaf --vocabulary prints the words and limits the engine accepts (JSON).\n";
     return code;
 }
 
@@ -47,6 +57,10 @@ int main(int argc, char** argv) {
         std::cout << "hedgeleaf " << hedgeleaf::engine_version() << "\n";
         return 0;
     }
+    if (argc == 2 && std::string(argv[1]) == "--vocabulary") {
+        std::cout << hedgeleaf::vocabulary().dump(2) << "\n";
+        return 0;
+    }
     if (argc == 2 && (std::string(argv[1]) == "--help" || std::string(argv[1]) == "-h")) return usage(std::cout, 0);
     if (argc < 3 || argc > 4) return usage(std::cerr, 2);
     const std::string command = argv[1];
@@ -54,8 +68,10 @@ int main(int argc, char** argv) {
     std::string format = "json";
     if (argc == 4) {
         const std::string flag = argv[3];
-        if (flag == "--table") format = "table";
-        else if (flag == "--csv") format = "csv";
+        if (flag == "--table")
+            format = "table";
+        else if (flag == "--csv")
+            format = "csv";
         else {
             std::cerr << "hedgeleaf: unknown option " << flag << " (use --table or --csv)\n";
             return 2;
@@ -67,9 +83,6 @@ int main(int argc, char** argv) {
         return 2;
     }
     try {
-        if (text.size() > hedgeleaf::max_document_bytes)
-            hedgeleaf::fail("", "the trade document is " + std::to_string(text.size()) + " bytes, at most " +
-                                    std::to_string(hedgeleaf::max_document_bytes));
         const json result = hedgeleaf::run_command(command, hedgeleaf::parse_json_text(text));
         if (format == "table") {
             std::cout << hedgeleaf::cli::render_table(result);

@@ -14,7 +14,7 @@ say() { printf '\n== %s\n' "$*"; }
 
 install_packages() {
     local wanted=(cmake g++ make emscripten nlohmann-json3-dev catch2 libboost-dev chromium
-                  clang libclang-rt-14-dev python3 python3-scipy python3-mpmath python3-jsonschema)
+                  clang libclang-rt-14-dev clang-format python3 python3-scipy python3-mpmath python3-jsonschema)
     local missing=()
     for p in "${wanted[@]}"; do dpkg -s "$p" >/dev/null 2>&1 || missing+=("$p"); done
     # Node.js may come from another package source (with npm inside); only add Debian's when absent.

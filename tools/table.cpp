@@ -133,8 +133,10 @@ std::string render_csv(const json& result) {
     const json* rows = find_rows(result);
     if (!rows) return "";
     std::ostringstream out;
-    const auto cols = columns_of(*rows, result.contains("rows") && rows == &result.at("rows") && result.contains("columns")
-                                        ? &result.at("columns") : nullptr);
+    const auto cols =
+        columns_of(*rows, result.contains("rows") && rows == &result.at("rows") && result.contains("columns")
+                              ? &result.at("columns")
+                              : nullptr);
     for (std::size_t c = 0; c < cols.size(); ++c) out << (c ? "," : "") << csv_field(cols[c]);
     out << "\n";
     for (const auto& row : *rows) {

@@ -1,10 +1,10 @@
-// Hedgeleaf module: the Embind glue between JavaScript and core/engine.hpp.
+// Hedgeleaf module: the Embind glue between JavaScript and core/dispatch/dispatch.hpp.
 //
 // JSON text in, JSON text out (the envelope documented in hedgeleaf.d.ts), so the
 // page owns plain strings and never has a C++ handle to .delete(). Every C++
 // exception is caught inside run_command_text; nothing throws across this line.
-#include "engine.hpp"
-#include "work.hpp"
+#include "contract/limits.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <emscripten/bind.h>
 
@@ -13,7 +13,7 @@
 namespace {
 
 /// Run one engine command on a trade document; returns the envelope text. A request
-/// estimated above the page's work budget is refused up front (core/work.hpp).
+/// estimated above the page's work budget is refused up front (analytics/work_estimate.hpp).
 std::string run(const std::string& command, const std::string& trade_json) {
     return hedgeleaf::run_command_text(command, trade_json, hedgeleaf::page_work_budget);
 }
@@ -28,10 +28,14 @@ std::string commands() {
     return list;
 }
 
+/// The words and limits the engine accepts, as JSON text (commands/vocabulary.hpp).
+std::string vocabulary() { return hedgeleaf::vocabulary().dump(); }
+
 }  // namespace
 
 EMSCRIPTEN_BINDINGS(hedgeleaf) {
     emscripten::function("run", &run);
     emscripten::function("version", &version);
     emscripten::function("commands", &commands);
+    emscripten::function("vocabulary", &vocabulary);
 }

@@ -21,20 +21,50 @@ export interface HedgeleafModule {
   /**
    * Run one engine command on a trade document (the JSON text the CLI reads).
    * Never throws for bad input: every C++ exception is caught in
-   * core/engine.cpp's run_command_text and returned as an Envelope text.
-   * Documents over 1 MiB are refused with a message, and so is a request whose
-   * estimated work is above the page's budget (core/work.hpp: price, solve and
-   * hedge, about 3 s of this module), naming the field that sets its size
-   * (lattice.steps, hedge.lattice_steps); the native CLI has no such budget.
+   * core/dispatch/dispatch.cpp's run_command_text and returned as an Envelope text.
+   * Documents over 1 MiB (vocabulary().limits.document_bytes) are refused with a
+   * message, and so is a request whose estimated work is above the page's budget
+   * (core/analytics/work_estimate.hpp: price, solve and hedge, about 3 s of this
+   * module; limits.page_work_budget), naming the field that sets its size
+   * (commands[].work_field: lattice.steps, hedge.lattice_steps); the native CLI has
+   * no such budget.
    */
   run(command: CommandName, tradeJson: string): string;
   /** Engine version, e.g. "0.1.0" (also in every result as engine_version). */
   version(): string;
   /** The commands this build accepts, comma separated, e.g. "hedge,price,tree". */
   commands(): string;
+  /** The words and limits the engine accepts, as JSON text of a Vocabulary (never throws). */
+  vocabulary(): string;
 }
 
-/** Commands of core/engine.cpp; commands() says which this build has. */
+/**
+ * What vocabulary() returns (core/commands/vocabulary.hpp; the CLI prints the same with
+ * `hedgeleaf --vocabulary`). schema/trade.schema.json and this file are checked against it
+ * (tests/vocabulary_check.py).
+ */
+export interface Vocabulary {
+  engine_version: string;
+  /** The command table (core/dispatch/command_table.cpp), in name order. */
+  commands: { name: CommandName; help: string; work_field: string }[];
+  /** Word lists: option_types, leg_types, exercise_styles, structure_exercise_styles, lattice_methods,
+   *  sides, margin_types, solve_unknowns, ladder_kinds, path_kinds, stress_shapes, rebalance_units,
+   *  sections; structure_shapes with the number of strikes each takes. */
+  lists: Record<string, string[]> & { structure_shapes: { name: string; strikes: number }[] };
+  /** Limits of no single field, e.g. document_bytes (1048576), document_depth (64), spread (20:
+   *  volatility x sqrt(years to the last expiry)), page_work_budget (node updates). */
+  limits: Record<string, number>;
+  /** Per trade-document field (JSON path, "[]" = every element of a list) its JSON Schema keywords,
+   *  e.g. fields["market.volatility"] = { type: "number", exclusiveMinimum: 0, maximum: 5 }. */
+  fields: Record<string, {
+    type?: "number" | "integer" | "boolean" | "string" | "array";
+    minimum?: number; maximum?: number; exclusiveMinimum?: number;
+    minItems?: number; maxItems?: number; maxLength?: number;
+    enum?: string[]; default?: number | string | boolean;
+  }>;
+}
+
+/** Commands of the command table (core/dispatch/command_table.cpp); commands() says which this build has. */
 export type CommandName = "price" | "hedge" | "tree" | "simulate" | "solve" | "ladder" | "profile";
 
 /** What run() returns, as JSON text. */
@@ -61,7 +91,7 @@ export interface EngineError {
 // day), vega per 1.00 of volatility, rho per 1.00 of rate (divide by 100 for a
 // point). Quantities: + = client buys.
 
-/** Trade document (the file the CLI reads); the full format is in the README. */
+/** Trade document (the file the CLI reads); the full format is schema/trade.schema.json. */
 export interface TradeDocument {
   valuation_date?: string;               // YYYY-MM-DD; lets other fields be dates
   market: {
@@ -82,7 +112,7 @@ export interface TradeDocument {
   quantity?: number;                     // > 0, default 1
   side?: "buy" | "sell";                 // the client's side, default buy
   lattice?: { method?: "leisen-reimer" | "crr" | "jarrow-rudd" | "tian"; steps?: number; extrapolate?: boolean };
-  // Sections read by their own commands (see the README): quote, hedge, simulate, solve, ladder, profile.
+  // Sections read by their own commands (schema/trade.schema.json): quote, hedge, simulate, solve, ladder, profile.
   [section: string]: unknown;
 }
 
@@ -129,8 +159,8 @@ export interface PriceResult {
 export interface PriceLevel { per_unit: number; total: number; fraction_of_notional: number }
 
 // ---------------------------------------------------------------------------
-// The other commands, as far as the page reads them (full fields: README and
-// core/*.hpp). Per unit of the trade held long unless a field says position/desk.
+// The other commands, as far as the page reads them (full fields: the writers in
+// core/commands/*.cpp). Per unit of the trade held long unless a field says position/desk.
 
 /** "profile": P&L against spot at the first expiry and valued today. */
 export interface ProfileResult {

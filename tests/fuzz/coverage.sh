@@ -19,4 +19,4 @@ cmake --build "$build" --target trade_fuzz -j2 >/dev/null
 rm -f "$build"/*.profraw
 (cd "$build" && LLVM_PROFILE_FILE="$build/corpus-%p.profraw" ./trade_fuzz -runs=0 "$corpus" >/dev/null 2>&1)
 llvm-profdata-14 merge -sparse "$build"/*.profraw -o "$build/corpus.profdata"
-llvm-cov-14 report "$build/trade_fuzz" -instr-profile="$build/corpus.profdata" "$root"/core/*.cpp
+llvm-cov-14 report "$build/trade_fuzz" -instr-profile="$build/corpus.profdata" "$root"/core/*/*.cpp

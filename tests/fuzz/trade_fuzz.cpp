@@ -3,7 +3,7 @@
 // Input layout: "<command>\n<trade document>". Without a newline the whole input is
 // the document and the command is "price". The document goes through the same
 // entry the page uses, run_command_text with the page's work budget, and (when it is
-// JSON) through parse_trade.
+// JSON) through read_trade. The commands are those of dispatch/command_table.hpp.
 //
 // Beyond "no crash, no sanitizer report", each run checks the contract:
 //   - the envelope is valid JSON with a boolean "ok";
@@ -15,18 +15,17 @@
 // ask for 50,000 lattice steps or 200,000 simulated paths, which takes seconds per
 // run. Work-size fields (work_fields below) whose value is within the product's
 // range but above a small cap are lowered to the cap before the call, and missing
-// ones are set to the cap (the defaults, e.g. 501 steps, would dominate run time).
+// ones are set to the cap (the defaults, e.g. 1601 lattice steps, would dominate run time).
 // Values outside the product's range are left alone so their messages are fuzzed.
-#include "engine.hpp"
-#include "replication.hpp"
-#include "simulate.hpp"
-#include "trade.hpp"
-#include "work.hpp"
+#include "commands/trade_reader.hpp"
+#include "contract/limits.hpp"
+#include "dispatch/command_table.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <cmath>
+#include <cstdint>
 #include <cstdio>
 #include <cstdlib>
-#include <cstdint>
 #include <map>
 #include <string>
 #include <vector>
@@ -53,13 +52,14 @@ struct work_field {
 
 const std::vector<work_field>& work_fields() {
     static const std::vector<work_field> fields = {
-        {"lattice", nullptr, "steps", 40, hedgeleaf::max_lattice_steps, true},          // default 501
+        {"lattice", nullptr, "steps", 40, hedgeleaf::max_lattice_steps, true},                // default 1601
         {"simulate", nullptr, "paths", 16, static_cast<double>(hedgeleaf::max_paths), true},  // default 10,000
-        {"simulate", nullptr, "lattice_steps", 20, 1000, true},                        // automatic: 200 and up
-        {"hedge", nullptr, "lattice_steps", 12, 2000, true},                           // default 151
+        {"simulate", nullptr, "lattice_steps", 20, hedgeleaf::max_simulate_lattice_steps,
+         true},                                                                             // automatic: 200 and up
+        {"hedge", nullptr, "lattice_steps", 12, hedgeleaf::max_hedge_lattice_steps, true},  // default 151
         {"hedge", "tree", "steps", 40, hedgeleaf::max_tree_steps, false},
-        {"ladder", nullptr, "steps", 21, 2001, true},                                  // default 101
-        {"profile", nullptr, "steps", 21, 2001, true},                                 // default 101
+        {"ladder", nullptr, "steps", 21, hedgeleaf::max_ladder_steps, true},    // default 101
+        {"profile", nullptr, "steps", 21, hedgeleaf::max_profile_steps, true},  // default 101
     };
     return fields;
 }
@@ -75,7 +75,10 @@ bool clamp_work(json& doc) {
             if (!step) continue;
             auto it = node->find(step);
             if (it == node->end() || it->is_null()) {
-                if (!f.inject) { missing = true; break; }
+                if (!f.inject) {
+                    missing = true;
+                    break;
+                }
                 (*node)[step] = json::object();
                 changed = true;
             } else if (!it->is_object()) {
@@ -119,7 +122,8 @@ void check_envelope(const std::string& command, const std::string& text, const s
         // The envelope text turns NaN into null; look at the result itself.
         try {
             const json result = hedgeleaf::run_command(command, json::parse(text), hedgeleaf::page_work_budget);
-            if (!all_finite(result)) broken("result holds NaN or infinity", result.dump(-1, ' ', false, json::error_handler_t::replace));
+            if (!all_finite(result))
+                broken("result holds NaN or infinity", result.dump(-1, ' ', false, json::error_handler_t::replace));
         } catch (const std::exception& e) {
             broken(std::string("run_command threw after run_command_text succeeded: ") + e.what(), text);
         }
@@ -141,7 +145,7 @@ std::vector<std::string> all_commands;
 }  // namespace
 
 extern "C" int LLVMFuzzerInitialize(int*, char***) {
-    all_commands = hedgeleaf::command_names();
+    for (const auto& d : hedgeleaf::command_table()) all_commands.push_back(d.name);
     // run.sh asks for the command names to build the seed corpus.
     if (std::getenv("HEDGELEAF_FUZZ_LIST_COMMANDS")) {
         for (const auto& name : all_commands) std::printf("%s\n", name.c_str());
@@ -163,7 +167,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     if (!doc.is_discarded()) {
         if (clamp_work(doc)) text = doc.dump(-1, ' ', false, json::error_handler_t::replace);
         try {
-            (void)hedgeleaf::parse_trade(doc);
+            (void)hedgeleaf::read_trade(doc);
         } catch (const hedgeleaf::input_error&) {
             // expected for most fuzzed documents; the message is checked below
         }

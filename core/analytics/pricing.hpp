@@ -1,0 +1,45 @@
+// Hedgeleaf analytics: pricing a whole trade (one option or several legs).
+#pragma once
+
+#include "contract/trade.hpp"
+#include "numerics/closed_form.hpp"
+#include "numerics/lattice_price.hpp"
+
+#include <vector>
+
+namespace hedgeleaf {
+
+struct leg_result {
+    option_leg leg;
+    lattice_price lattice;  ///< per unit of the leg (quantity not applied)
+    valuation reference;    ///< closed-form European value, per unit of the leg
+};
+
+/// Shares and cash that replicate the trade today: shares * spot + cash = value.
+struct replicating_portfolio {
+    double spot = 0;
+    double shares = 0;
+    double cash = 0;
+    double value = 0;
+};
+
+struct trade_result {
+    double premium = 0;                 ///< net per unit (sum of leg quantity * leg premium)
+    greeks sensitivities;               ///< net per unit
+    valuation reference;                ///< net closed-form European reference
+    double early_exercise_premium = 0;  ///< premium - reference (American/Bermudan legs)
+    bool has_early_exercise = false;
+    double error_estimate = 0;  ///< sum of |leg quantity| * leg error estimate
+    lattice_method method = lattice_method::leisen_reimer;
+    int steps = 0;
+    int coarse_steps = 0;
+    bool extrapolated = false;
+    replicating_portfolio replication;  ///< per unit
+    std::vector<leg_result> legs;
+};
+
+/// Price every leg on its own lattice (each centred on its strike) and sum them; vega and
+/// rho by re-pricing when `bumps` is on (the price command), else left 0 (ladders, quotes).
+trade_result price_trade(const trade& t, bumped_greeks bumps);
+
+}  // namespace hedgeleaf

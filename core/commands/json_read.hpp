@@ -1,0 +1,77 @@
+// Hedgeleaf commands: strict reading of JSON objects with field paths.
+//
+// A field_reader walks one JSON object, hands out typed values with range
+// checks, and at the end rejects any key nobody asked for (a misspelt field is
+// an error, never silently ignored). All failures go through fail().
+#pragma once
+
+#include "contract/errors.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include <optional>
+#include <set>
+#include <string>
+#include <vector>
+
+namespace hedgeleaf {
+
+using json = nlohmann::ordered_json;  // objects keep the order they are built in (premium first)
+
+/// Short description of a JSON value for messages: `string "abc"`, `null`, ...
+std::string describe(const json& value);
+
+/// Read a finite number at `path` from `value` (not from an object).
+double as_number(const json& value, const std::string& path);
+
+/// The candidate at most two edits from `word` (the nearest), or "": the did-you-mean hints.
+std::string nearest(const std::string& word, const std::vector<std::string>& candidates);
+
+/// Reads the fields of one JSON object; call finish() to reject unknown keys.
+class field_reader {
+public:
+    field_reader(const json& object, std::string path);
+
+    const std::string& path() const { return path_; }
+    bool has(const std::string& key) const;
+    /// Path of a child field, for messages.
+    std::string child(const std::string& key) const { return join_path(path_, key); }
+
+    /// The raw child value (marks it as read); throws if missing.
+    const json& raw(const std::string& key);
+    /// The raw child if present.
+    const json* raw_optional(const std::string& key);
+
+    double number(const std::string& key);
+    std::optional<double> number_optional(const std::string& key);
+    double number_or(const std::string& key, double fallback);
+    /// A whole number within [lo, hi]; 64-bit because `long` is 32 bits under WebAssembly (wasm32).
+    long long integer_or(const std::string& key, long long fallback, long long lo, long long hi);
+    std::string text(const std::string& key, std::size_t max_length = 200);
+    std::optional<std::string> text_optional(const std::string& key, std::size_t max_length = 200);
+    bool boolean_or(const std::string& key, bool fallback);
+    /// A string that must be one of `choices`.
+    std::string choice(const std::string& key, const std::vector<std::string>& choices);
+    std::string choice_or(const std::string& key, const std::vector<std::string>& choices, const std::string& fallback);
+
+    /// Reject keys that were never read (with a did-you-mean hint).
+    void finish() const;
+
+private:
+    const json& object_;
+    std::string path_;
+    mutable std::set<std::string> seen_;
+};
+
+/// Parse a trade document's text. Reports text over max_document_bytes, malformed JSON
+/// and nesting past max_document_depth (contract/limits.hpp) as an input_error with an
+/// empty field.
+json parse_json_text(const std::string& text);
+
+/// Range checks that name the field: "must be > 0, got -0.2".
+void require_positive(double value, const std::string& path);
+void require_non_negative(double value, const std::string& path);
+void require_at_most(double value, double limit, const std::string& path);
+void require_at_least(double value, double limit, const std::string& path);
+
+}  // namespace hedgeleaf

@@ -1,0 +1,62 @@
+// Hedgeleaf commands: the tree command (see tree.hpp).
+#include "commands/tree.hpp"
+
+#include "commands/hedge.hpp"
+
+namespace hedgeleaf {
+
+namespace {
+json node_json(const tree_node& node, double dt) {
+    return json{{"step", node.step},     {"index", node.index}, {"time_years", node.step * dt},
+                {"spot", node.spot},     {"value", node.value}, {"paid", node.paid},
+                {"shares", node.shares}, {"cash", node.cash},   {"event", to_string(node.event)},
+                {"check", node.check()}};
+}
+}  // namespace
+
+tree_settings read_tree_settings(const json& document, const trade& t) {
+    const hedge_settings hs = read_hedge_settings(document, t);
+    return {hs.tree, hs.path.kind == path_kind::lattice, hs.path.moves};
+}
+
+json write_tree_result(const trade& t, const tree_settings& settings, const tree_result& result) {
+    const double dt = result.step.dt;
+    json nodes = json::array();
+    for (const auto& node : result.nodes) nodes.push_back(node_json(node, dt));
+
+    json path = nullptr;
+    if (settings.lattice_path) {
+        json rows = json::array();
+        for (const auto& ps : result.path) {
+            json row = node_json(ps.node, dt);
+            row["carried"] = ps.carried;
+            row["error"] = ps.carried - ps.node.value;
+            rows.push_back(row);
+        }
+        path = json{{"moves", moves_text(settings.moves)}, {"rows", rows}};
+    }
+    const double q = t.signed_quantity();
+    return json{
+        {"steps", result.steps},
+        {"method", to_string(t.lattice.method)},
+        {"dt_years", result.step.dt},
+        {"up", result.step.up},
+        {"down", result.step.down},
+        {"p_up", result.step.p_up},
+        {"discount", result.step.discount},
+        {"from_step", result.from_step},
+        {"to_step", result.to_step},
+        {"nodes", nodes},
+        {"path", path},
+        {"premium", nodes.empty() || result.from_step > 0 ? json(nullptr) : json(nodes[0]["value"])},
+        {"position", {{"quantity", t.quantity}, {"side", t.client_sells ? "sell" : "buy"}, {"signed_quantity", q}}},
+        {"view",
+         "Per unit of the trade held long (legs with their signed quantities). value = the legs still running, "
+         "including what they pay at the node (paid); shares and cash replicate value - paid until the next step; "
+         "check = shares*spot + cash - (value - paid). The desk that sold the client the trade holds signed_quantity "
+         "times these shares and cash."},
+        {"notes", result.notes},
+    };
+}
+
+}  // namespace hedgeleaf

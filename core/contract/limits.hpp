@@ -1,0 +1,156 @@
+// Hedgeleaf contract: every limit and every word list the engine accepts, in one place.
+//
+// The readers (core/commands) check inputs against these, the analytics hold their
+// loops to them, and core/commands/vocabulary.cpp hands them to the page, the module
+// and the tests (tests/vocabulary_check.py holds schema/trade.schema.json and
+// wasm/hedgeleaf.d.ts to them). Units as in the trade file: prices per share,
+// volatility and rates as decimals a year, times in years.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace hedgeleaf {
+
+// ---- words ---------------------------------------------------------------
+
+/// `option.type`: what a single option (or a structure's leg) pays.
+inline const std::vector<std::string> option_types = {"call", "put", "digital-call", "digital-put"};
+/// `legs[i].type`: the option types and a share held.
+inline const std::vector<std::string> leg_types = {"call", "put", "digital-call", "digital-put", "stock"};
+/// `exercise` of an option or a leg.
+inline const std::vector<std::string> exercise_styles = {"european", "american", "bermudan"};
+/// `structure.exercise`: Bermudan options are given as legs.
+inline const std::vector<std::string> structure_exercise_styles = {"european", "american"};
+/// `lattice.method`.
+inline const std::vector<std::string> lattice_methods = {"crr", "jarrow-rudd", "tian", "leisen-reimer"};
+/// `side`: the client's side.
+inline const std::vector<std::string> sides = {"buy", "sell"};
+/// `quote.margin_type`.
+inline const std::vector<std::string> margin_types = {"absolute", "fraction_of_premium", "volatility"};
+/// `solve.for`.
+inline const std::vector<std::string> solve_unknowns = {"volatility", "strike", "quantity"};
+/// `ladder.kind`.
+inline const std::vector<std::string> ladder_kinds = {"spot", "volatility", "time", "grid"};
+/// `hedge.path.kind`.
+inline const std::vector<std::string> path_kinds = {"scenario", "spots", "lattice", "stress"};
+/// `hedge.path.shape` of a stress path.
+inline const std::vector<std::string> stress_shapes = {"rise", "fall", "gap-down"};
+/// `unit` of a rebalancing frequency.
+inline const std::vector<std::string> rebalance_units = {"days", "weeks", "months"};
+/// Sections of the trade document each read by its own command.
+inline const std::vector<std::string> command_sections = {"quote", "hedge", "simulate", "solve", "ladder", "profile"};
+// The structure shapes live in their table (contract/structures.hpp); the commands in
+// theirs (dispatch/command_table.hpp).
+
+/// The word for a value of an enum whose values follow `words` in order.
+template <class Enum>
+const std::string& word_of(const std::vector<std::string>& words, Enum value) {
+    return words[static_cast<std::size_t>(value)];
+}
+/// The enum value for `word`, which must be one of `words` (readers check it first).
+template <class Enum>
+Enum enum_of(const std::vector<std::string>& words, const std::string& word) {
+    std::size_t i = 0;
+    while (i + 1 < words.size() && words[i] != word) ++i;
+    return static_cast<Enum>(i);
+}
+
+// ---- the document --------------------------------------------------------
+
+inline constexpr std::size_t max_document_bytes = 1 << 20;  ///< 1 MiB of trade document text
+inline constexpr int max_document_depth = 64;               ///< nesting of objects and lists
+inline constexpr std::size_t max_date_chars = 40;           ///< valuation_date text, before it is parsed
+inline constexpr int min_year = 1900;                       ///< dates are years 1900..2200
+inline constexpr int max_year = 2200;
+
+// ---- market and trade ----------------------------------------------------
+
+inline constexpr double max_price_level = 1e9;  ///< spot, strike, payout, spots: larger is a typo, not a trade
+inline constexpr double max_abs_rate = 1.0;     ///< rate, carry yield, drift: +-100 % a year, negative allowed
+inline constexpr double max_volatility = 5.0;   ///< 500 % a year
+/// The widest spread of log-spot a lattice holds: volatility x sqrt(years to the
+/// last expiry). Beyond about 26 the spots that carry a call's value lie past
+/// e^500 from spot, where a double-precision lattice clamps them; 20 keeps a
+/// margin (it is 283 % a year over 5 years, or 63 % over 100).
+inline constexpr double max_spread = 20.0;
+inline constexpr double max_expiry_years = 50.0;
+inline constexpr double max_quantity = 1e12;  ///< units of a trade, of a leg, of a lot
+inline constexpr std::size_t max_dividends = 200;
+inline constexpr std::size_t max_exercise_dates = 2000;
+inline constexpr std::size_t max_legs = 12;
+inline constexpr int max_lattice_steps = 50000;
+inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs/performance.md)
+
+// ---- quote ---------------------------------------------------------------
+
+inline constexpr double max_margin_fraction = 1.0;        ///< a margin of the whole premium on each side
+inline constexpr double max_volatility_margin = 0.5;      ///< fifty volatility points
+inline constexpr std::size_t max_client_name_chars = 80;  ///< printed on the sheet
+inline constexpr std::size_t max_notes_chars = 500;
+
+// ---- hedge and tree ------------------------------------------------------
+
+inline constexpr std::size_t max_rebalancing_dates = 2000;  ///< about eight years of business days
+inline constexpr int max_rebalance_every = 1000;            ///< `every` N units
+inline constexpr double max_cost_bp = 1000;                 ///< basis points of traded notional
+inline constexpr int default_hedge_lattice_steps = 151;     ///< re-pricing American and Bermudan legs per date
+inline constexpr int min_hedge_lattice_steps = 10;
+inline constexpr int max_hedge_lattice_steps = 2000;
+inline constexpr std::int64_t max_seed = 9007199254740991;  ///< 2^53 - 1: exact in a JavaScript number
+inline constexpr double max_rise = 10.0;                    ///< a stress rise of 1,000 % (a fall stays below 1)
+inline constexpr double default_stress_change = 0.2;
+inline constexpr int max_tree_steps = 5000;   ///< the tree and the path walk (work grows like steps^2 per leg)
+inline constexpr int max_tree_nodes = 2000;   ///< nodes listed in one tree result
+inline constexpr int default_tree_steps = 7;  ///< the tree view when the trade names none
+inline constexpr std::size_t max_moves_chars = max_tree_steps + 2000;  ///< moves text, separators included
+
+// ---- simulate ------------------------------------------------------------
+
+inline constexpr long default_paths = 10000;
+inline constexpr long max_paths = 200000;
+/// Most paths times rebalancings over all frequencies (keeps a run to a few seconds).
+inline constexpr double max_path_rebalancings = 5e7;
+inline constexpr int default_bins = 40;
+inline constexpr int min_bins = 5;
+inline constexpr int max_bins = 200;
+inline constexpr std::size_t max_frequencies = 6;
+inline constexpr int min_simulate_lattice_steps = 20;  ///< delta tables of American and Bermudan legs
+inline constexpr int max_simulate_lattice_steps = 1000;
+
+// ---- ladder and profile --------------------------------------------------
+
+inline constexpr int max_points_per_axis = 201;
+inline constexpr long max_grid_cells = 10000;
+inline constexpr int default_ladder_steps = 101;  ///< modest, for speed
+inline constexpr int max_ladder_steps = 2001;
+/// Node updates a ladder or a profile may ask for (scenarios x legs x steps^2 / 2 for the
+/// fine and coarse lattices): about a second natively.
+inline constexpr double max_ladder_work = 2e9;
+inline constexpr double min_ladder_volatility = 1e-3;
+inline constexpr double min_spot_shift = -0.95;  ///< spot 95 % lower
+inline constexpr double max_spot_shift = 4.0;    ///< spot five times today's
+/// A ladder axis when the section gives none: from, to, step.
+struct axis_defaults {
+    double from, to, step;
+};
+inline constexpr axis_defaults spot_axis{-0.2, 0.2, 0.02};   ///< fractions of today's spot
+inline constexpr axis_defaults vol_axis{-0.05, 0.05, 0.01};  ///< volatility points as decimals
+inline constexpr long max_ladder_days = 36500;
+inline constexpr int default_profile_points = 41;
+inline constexpr int max_profile_points = 501;
+inline constexpr int max_profile_steps = 2001;
+inline constexpr double max_profile_work = 2e9;  ///< lattice node updates, as for ladders
+
+// ---- solve ---------------------------------------------------------------
+
+inline constexpr double max_budget = 1e15;
+
+// ---- the page's work budget ----------------------------------------------
+
+/// Node updates the page allows one request: a few seconds in the module (analytics/work_estimate.hpp).
+inline constexpr double page_work_budget = 4e9;
+
+}  // namespace hedgeleaf

@@ -1,0 +1,45 @@
+// Hedgeleaf contract: the trade's own arithmetic and the words for its enums (see trade.hpp).
+#include "contract/trade.hpp"
+
+#include "contract/errors.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace hedgeleaf {
+
+double market_data::dividend_pv(double from_years, double until_years) const {
+    double pv = 0;
+    for (const auto& d : dividends)
+        if (d.years > from_years && d.years <= until_years) pv += d.amount * std::exp(-rate * (d.years - from_years));
+    return pv;
+}
+
+double highest_volatility(double years) {
+    // rounded down to 4 decimals so that the limit is the number the messages show
+    return years > 0 ? std::min(max_volatility, std::floor(max_spread / std::sqrt(years) * 1e4) / 1e4) : max_volatility;
+}
+
+void require_spread(double volatility, double years, const std::string& path) {
+    if (volatility <= highest_volatility(years) * (1 + 1e-12)) return;
+    fail(path, format_number(volatility) + " over " + format_number(years) +
+                   " years spreads spot too wide for the lattice (volatility x sqrt(expiry) = " +
+                   format_number(std::round(volatility * std::sqrt(years) * 100) / 100) + ", at most " +
+                   format_number(max_spread) + "); for this expiry use a volatility of at most " +
+                   format_number(highest_volatility(years)));
+}
+
+double trade::final_expiry_years() const {
+    double t = 0;
+    for (const auto& leg : legs) t = std::max(t, leg.expiry_years);
+    return t;
+}
+
+std::string to_string(payoff_kind k) { return word_of(leg_types, k); }
+std::string to_string(exercise_style e) { return word_of(exercise_styles, e); }
+std::string to_string(lattice_method m) { return word_of(lattice_methods, m); }
+payoff_kind parse_payoff_kind(const std::string& text) { return enum_of<payoff_kind>(leg_types, text); }
+exercise_style parse_exercise_style(const std::string& text) { return enum_of<exercise_style>(exercise_styles, text); }
+lattice_method parse_lattice_method(const std::string& text) { return enum_of<lattice_method>(lattice_methods, text); }
+
+}  // namespace hedgeleaf

@@ -1,0 +1,109 @@
+// Hedgeleaf contract: the trade and its market as typed values (no JSON here).
+//
+// Units: spot and strike in price units; volatility, rate and carry_yield are
+// decimals per year (0.25 = 25 %), rates continuously compounded; times are
+// years from valuation (ACT/365F from valuation_date when dates are given).
+// A time measured from valuation is named *_years throughout the C++.
+#pragma once
+
+#include "contract/dates.hpp"
+#include "contract/limits.hpp"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace hedgeleaf {
+
+// In the order of their words in contract/limits.hpp (leg_types, exercise_styles, lattice_methods).
+enum class payoff_kind { call, put, digital_call, digital_put, stock };
+enum class exercise_style { european, american, bermudan };
+enum class lattice_method { crr, jarrow_rudd, tian, leisen_reimer };
+
+/// A discrete cash dividend (escrowed-dividend model).
+struct dividend {
+    double years = 0;   ///< paid this many years from valuation
+    double amount = 0;  ///< cash per share
+};
+
+struct market_data {
+    double spot = 0;
+    double volatility = 0;   ///< decimal, annualised
+    double rate = 0;         ///< continuously compounded, decimal
+    double carry_yield = 0;  ///< continuous dividend yield or foreign rate, decimal
+    std::vector<dividend> dividends;
+
+    /// Present value at `from_years` of the cash dividends paid in (from_years, until_years].
+    double dividend_pv(double from_years, double until_years) const;
+};
+
+/// One option (or share) position inside a trade.
+struct option_leg {
+    payoff_kind type = payoff_kind::call;
+    double strike = 0;  ///< unused for stock
+    double expiry_years = 0;
+    exercise_style exercise = exercise_style::european;
+    std::vector<double> exercise_years;  ///< Bermudan exercise dates (the expiry always may)
+    double payout = 1;                   ///< cash paid by a digital
+    double quantity = 1;                 ///< signed; + = client buys
+};
+
+/// A market without cash dividends, in one line (tests, benchmarks).
+inline market_data flat_market(double spot, double volatility, double rate, double carry_yield = 0) {
+    market_data m;
+    m.spot = spot;
+    m.volatility = volatility;
+    m.rate = rate;
+    m.carry_yield = carry_yield;
+    return m;
+}
+
+/// One leg of quantity 1, in one line.
+inline option_leg single_leg(payoff_kind type, double strike, double expiry_years,
+                             exercise_style exercise = exercise_style::european, double payout = 1) {
+    option_leg leg;
+    leg.type = type;
+    leg.strike = strike;
+    leg.expiry_years = expiry_years;
+    leg.exercise = exercise;
+    leg.payout = payout;
+    return leg;
+}
+
+struct lattice_settings {
+    lattice_method method = lattice_method::leisen_reimer;
+    int steps = 0;  ///< 0 = default for the method
+    bool extrapolate = true;
+};
+
+/// The highest volatility the lattice takes for a trade whose last expiry is `years` away
+/// (max_spread / sqrt(years) rounded down to 4 decimals, at most max_volatility).
+double highest_volatility(double years);
+/// Refuse (naming `path`) a volatility the lattice cannot hold over `years`.
+void require_spread(double volatility, double years, const std::string& path);
+
+/// A whole trade after validation (commands/trade_reader.hpp reads it from a document).
+struct trade {
+    std::optional<date> valuation_date;
+    market_data market;
+    std::vector<option_leg> legs;  ///< one leg for a single option
+    bool is_structure = false;     ///< given as `legs` or `structure`
+    double quantity = 1;           ///< number of units (structures) or options
+    bool client_sells = false;     ///< side: "sell"
+    lattice_settings lattice;
+
+    /// +quantity for buy, -quantity for sell.
+    double signed_quantity() const { return client_sells ? -quantity : quantity; }
+    /// Latest expiry across legs.
+    double final_expiry_years() const;
+};
+
+/// The words of contract/limits.hpp for the enums, and back (the text must be one of them).
+std::string to_string(payoff_kind k);
+std::string to_string(exercise_style e);
+std::string to_string(lattice_method m);
+payoff_kind parse_payoff_kind(const std::string& text);
+exercise_style parse_exercise_style(const std::string& text);
+lattice_method parse_lattice_method(const std::string& text);
+
+}  // namespace hedgeleaf

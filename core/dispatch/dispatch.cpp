@@ -1,0 +1,65 @@
+// Hedgeleaf dispatch: running a command on a document (see dispatch.hpp).
+#include "dispatch/dispatch.hpp"
+
+#include "commands/trade_reader.hpp"
+#include "commands/vocabulary.hpp"
+#include "contract/version.hpp"
+#include "dispatch/command_table.hpp"
+
+namespace hedgeleaf {
+
+namespace {
+std::string envelope_text(const json& envelope) {
+    return envelope.dump(-1, ' ', false, json::error_handler_t::replace);
+}
+}  // namespace
+
+const char* engine_version() { return project_version; }
+
+std::vector<std::string> command_names() {
+    std::vector<std::string> names;
+    for (const auto& d : command_table()) names.push_back(d.name);
+    return names;
+}
+
+json run_command(const std::string& command, const json& document, double work_budget) {
+    const command_descriptor& d = find_command(command);
+    const trade t = read_trade(document);
+    json result = d.execute(d, document, t, work_budget);
+    result["engine_version"] = engine_version();
+    return result;
+}
+
+std::string run_command_text(const std::string& command, const std::string& text, double work_budget) {
+    try {
+        const json doc = parse_json_text(text);
+        return envelope_text(json{{"ok", true}, {"result", run_command(command, doc, work_budget)}});
+    } catch (const input_error& e) {
+        return envelope_text(json{{"ok", false}, {"error", {{"field", e.field()}, {"message", e.what()}}}});
+    } catch (const std::bad_alloc&) {
+        return envelope_text(json{
+            {"ok", false}, {"error", {{"field", ""}, {"message", "out of memory: reduce lattice.steps or paths"}}}});
+    } catch (const std::exception& e) {
+        return envelope_text(
+            json{{"ok", false}, {"error", {{"field", ""}, {"message", std::string("internal error: ") + e.what()}}}});
+    }
+}
+
+work_estimate estimate_work(const std::string& command, const json& document) {
+    const command_descriptor& d = find_command(command);
+    work_estimate w = d.estimate(document, read_trade(document));
+    w.field = d.work_field;
+    return w;
+}
+
+json vocabulary() {
+    json commands = json::array();
+    for (const auto& d : command_table())
+        commands.push_back({{"name", d.name}, {"help", d.help}, {"work_field", d.work_field}});
+    json out{{"engine_version", engine_version()}, {"commands", commands}};
+    const json lists_and_limits = vocabulary_json();
+    for (const auto& [key, value] : lists_and_limits.items()) out[key] = value;
+    return out;
+}
+
+}  // namespace hedgeleaf

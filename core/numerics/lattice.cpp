@@ -1,0 +1,134 @@
+// Hedgeleaf numerics: the lattice step and the payoffs (see lattice.hpp).
+#include "numerics/lattice.hpp"
+
+#include "contract/errors.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace hedgeleaf {
+
+namespace {
+
+// Peizer-Pratt inversion (method 2) of a normal quantile onto a binomial with n
+// steps, as used by Leisen and Reimer (1996), as logarithms of p and of 1 - p.
+// Far from the strike (|z| beyond about 6 sqrt(n): deep in or out of the money at
+// low volatility) p rounds to 1 or 0 while 1 - p or p is still tiny but exact here,
+// so the step stays defined (was "breaks no-arbitrage, down 0, up 0").
+struct log_probability {
+    double p;      ///< log p
+    double not_p;  ///< log (1 - p)
+};
+log_probability peizer_pratt(double z, int n) {
+    const double nn = static_cast<double>(n);
+    const double a = z / (nn + 1.0 / 3.0 + 0.1 / (nn + 1.0));
+    const double x = a * a * (nn + 1.0 / 6.0);
+    const double root = std::sqrt(-std::expm1(-x));                  // sqrt(1 - e^-x)
+    const double log_big = std::log1p(root) - std::log(2.0);         // log (1 + root) / 2
+    const double log_small = -x - std::log(2.0) - std::log1p(root);  // log (1 - root) / 2
+    return z >= 0 ? log_probability{log_big, log_small} : log_probability{log_small, log_big};
+}
+
+}  // namespace
+
+bool early_exercise_can_pay(const market_data& m, const option_leg& leg) {
+    // Without cash dividends, C >= S e^{-qT} - K e^{-rT} > S - K when q <= 0 <= r, so a call
+    // is never exercised early; likewise a put when r <= 0 <= q (Merton, 1973).
+    if (!m.dividends.empty()) return true;
+    if (leg.type == payoff_kind::call) return !(m.carry_yield <= 0 && m.rate >= 0);
+    if (leg.type == payoff_kind::put) return !(m.rate <= 0 && m.carry_yield >= 0);
+    return true;
+}
+
+int effective_steps(lattice_method method, int steps) {
+    if (method == lattice_method::leisen_reimer && steps % 2 == 0) return steps + 1;
+    return steps;
+}
+
+int default_steps(lattice_method method) { return effective_steps(method, default_lattice_steps); }
+
+double diffusing_spot(const market_data& market, double expiry_years) {
+    return market.spot - market.dividend_pv(0, expiry_years);
+}
+
+lattice_step make_step(lattice_method method, const market_data& m, double strike, double expiry_years, int steps) {
+    lattice_step st;
+    const double sigma = m.volatility;
+    const double b = m.rate - m.carry_yield;
+    st.dt = expiry_years / steps;
+    st.growth = std::exp(b * st.dt);
+    st.discount = std::exp(-m.rate * st.dt);
+    const double sq = sigma * std::sqrt(st.dt);
+    switch (method) {
+        case lattice_method::crr:
+            st.up = std::exp(sq);
+            st.down = 1.0 / st.up;
+            break;
+        case lattice_method::jarrow_rudd: {
+            const double drift = (b - 0.5 * sigma * sigma) * st.dt;
+            st.up = std::exp(drift + sq);
+            st.down = std::exp(drift - sq);
+            break;
+        }
+        case lattice_method::tian: {
+            const double v = std::exp(sigma * sigma * st.dt);
+            const double root = std::sqrt(std::max(0.0, v * v + 2 * v - 3));
+            st.up = 0.5 * st.growth * v * (v + 1 + root);
+            st.down = 0.5 * st.growth * v * (v + 1 - root);
+            break;
+        }
+        case lattice_method::leisen_reimer: {
+            const double s = diffusing_spot(m, expiry_years);
+            const double vol_t = sigma * std::sqrt(expiry_years);
+            const double d1 = (std::log(s / strike) + (b + 0.5 * sigma * sigma) * expiry_years) / vol_t;
+            const double d2 = d1 - vol_t;
+            // up = growth p'/p and down = (growth - p up) / (1 - p) = growth (1 - p')/(1 - p),
+            // taken as ratios of logarithms so neither cancels nor underflows.
+            const log_probability p = peizer_pratt(d2, steps);
+            const log_probability p_bar = peizer_pratt(d1, steps);
+            st.up = st.growth * std::exp(p_bar.p - p.p);
+            st.down = st.growth * std::exp(p_bar.not_p - p.not_p);
+            break;
+        }
+    }
+    // growth may equal up (or down) when the up (down) probability rounds to 1: the
+    // step is then the forward itself, which prices such a far-off strike exactly.
+    if (!(st.down > 0 && st.down <= st.growth && st.growth <= st.up && st.down < st.up && std::isfinite(st.up))) {
+        fail("market.volatility",
+             "the " + to_string(method) + " lattice breaks no-arbitrage (needs 0 < down < growth < up; got down " +
+                 format_number(st.down) + ", growth " + format_number(st.growth) + ", up " + format_number(st.up) +
+                 ") with market.volatility " + format_number(sigma) + ", market.rate " + format_number(m.rate) +
+                 ", market.carry_yield " + format_number(m.carry_yield) + " and lattice.steps " +
+                 std::to_string(steps) + " over " + format_number(expiry_years) +
+                 " years; raise the volatility or lattice.steps, or narrow the rate-carry gap");
+    }
+    st.p_up = (st.growth - st.down) / (st.up - st.down);
+    return st;
+}
+
+std::vector<char> exercise_steps(const option_leg& leg, int steps, double dt) {
+    std::vector<char> allowed(static_cast<std::size_t>(steps) + 1, 0);
+    allowed[static_cast<std::size_t>(steps)] = 1;
+    if (leg.exercise == exercise_style::american) {
+        std::fill(allowed.begin(), allowed.end(), 1);
+    } else if (leg.exercise == exercise_style::bermudan) {
+        for (double t : leg.exercise_years) {
+            const long n = std::lround(t / dt);
+            allowed[static_cast<std::size_t>(std::clamp<long>(n, 1, steps))] = 1;
+        }
+    }
+    return allowed;
+}
+
+double exercise_value(const option_leg& leg, double s) {
+    switch (leg.type) {
+        case payoff_kind::call: return std::max(s - leg.strike, 0.0);
+        case payoff_kind::put: return std::max(leg.strike - s, 0.0);
+        case payoff_kind::digital_call: return s > leg.strike ? leg.payout : (s == leg.strike ? 0.5 * leg.payout : 0.0);
+        case payoff_kind::digital_put: return s < leg.strike ? leg.payout : (s == leg.strike ? 0.5 * leg.payout : 0.0);
+        case payoff_kind::stock: return s;
+    }
+    return 0;
+}
+
+}  // namespace hedgeleaf
