@@ -50,7 +50,7 @@ tree_result run_tree(const trade& t, const tree_settings& settings) {
     tree_result out;
     out.steps = tree_steps(settings);
     const trade_lattice lat(t, out.steps);
-    out.step = lat.step;
+    out.geometry = lat.geometry;
     out.notes = lat.notes;
     choose_window(settings.tree, out.steps, out);
     out.nodes = tree_window(lat, out.from_step, out.to_step);

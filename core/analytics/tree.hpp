@@ -25,7 +25,7 @@ struct tree_settings {
 
 struct tree_result {
     int steps = 0;
-    lattice_step step;
+    lattice_geometry geometry;       ///< the trade's lattice (step: the one step, or the longest of steps that differ)
     int from_step = 0, to_step = 0;  ///< the levels listed
     std::vector<tree_node> nodes;    ///< levels from_step..to_step, j ascending
     std::vector<path_step> path;     ///< the walk along the moves (lattice path only)
