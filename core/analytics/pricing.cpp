@@ -5,13 +5,13 @@
 
 namespace hedgeleaf {
 
-trade_result price_trade(const trade& t, bumped_greeks bumps) {
+trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estimate) {
     trade_result out;
     out.method = t.lattice.method;
     for (const auto& leg : t.legs) {
         leg_result lr;
         lr.leg = leg;
-        lr.lattice = price_leg(t.market, leg, t.lattice, bumps);
+        lr.lattice = price_leg(t.market, leg, t.lattice, bumps, estimate);
         lr.reference = closed_form(t.market, leg);
         out.premium += leg.quantity * lr.lattice.premium;
         out.sensitivities = out.sensitivities + leg.quantity * lr.lattice.sensitivities;

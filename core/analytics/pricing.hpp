@@ -39,7 +39,8 @@ struct trade_result {
 };
 
 /// Price every leg on its own lattice (each centred on its strike) and sum them; vega and
-/// rho by re-pricing when `bumps` is on (the price command), else left 0 (ladders, quotes).
-trade_result price_trade(const trade& t, bumped_greeks bumps);
+/// rho by re-pricing when `bumps` is on (the price command), else left 0 (ladders, quotes);
+/// the error bound when `estimate` is on (the price command).
+trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estimate = error_bound::off);
 
 }  // namespace hedgeleaf
