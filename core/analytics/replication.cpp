@@ -134,7 +134,8 @@ double trade_lattice::dividends_after(int n) const {
 
 double trade_lattice::income(int n, int j) const {
     const market_data& m = source->market;
-    const double growth_r = std::exp(m.rate * step.dt);
+    // The lattice's steps use the rate averaged to the final expiry (numerics/lattice.cpp).
+    const double growth_r = std::exp(m.rate.average(0, years_at(steps)) * step.dt);
     double inc = diffusing(n, j) * (growth_r - step.growth);  // carry yield earned on S*
     if (!m.dividends.empty()) inc += m.dividend_pv(years_at(n), years_at(n + 1)) * growth_r;
     return inc;

@@ -35,8 +35,11 @@ bool early_exercise_can_pay(const market_data& m, const option_leg& leg) {
     // Without cash dividends, C >= S e^{-qT} - K e^{-rT} > S - K when q <= 0 <= r, so a call
     // is never exercised early; likewise a put when r <= 0 <= q (Merton, 1973).
     if (!m.dividends.empty()) return true;
-    if (leg.type == payoff_kind::call) return !(m.carry_yield <= 0 && m.rate >= 0);
-    if (leg.type == payoff_kind::put) return !(m.rate <= 0 && m.carry_yield >= 0);
+    // With term structures the signs must hold at every maturity (every forward rate).
+    const double carry_low = m.carry_yield.lowest_forward() + m.borrow.lowest_forward();
+    const double carry_high = m.carry_yield.highest_forward() + m.borrow.highest_forward();
+    if (leg.type == payoff_kind::call) return !(carry_high <= 0 && m.rate.lowest_forward() >= 0);
+    if (leg.type == payoff_kind::put) return !(m.rate.highest_forward() <= 0 && carry_low >= 0);
     return true;
 }
 
@@ -54,10 +57,12 @@ double diffusing_spot(const market_data& market, double expiry_years) {
 lattice_step make_step(lattice_method method, const market_data& m, double strike, double expiry_years, int steps) {
     lattice_step st;
     const double sigma = m.volatility;
-    const double b = m.rate - m.carry_yield;
+    // Rates averaged over the leg's life (the plain numbers when flat).
+    const double r = m.rate.average(0, expiry_years);
+    const double b = r - m.carry_average(0, expiry_years);
     st.dt = expiry_years / steps;
     st.growth = std::exp(b * st.dt);
-    st.discount = std::exp(-m.rate * st.dt);
+    st.discount = std::exp(-r * st.dt);
     const double sq = sigma * std::sqrt(st.dt);
     switch (method) {
         case lattice_method::crr:
@@ -97,9 +102,9 @@ lattice_step make_step(lattice_method method, const market_data& m, double strik
         fail("market.volatility",
              "the " + to_string(method) + " lattice breaks no-arbitrage (needs 0 < down < growth < up; got down " +
                  format_number(st.down) + ", growth " + format_number(st.growth) + ", up " + format_number(st.up) +
-                 ") with market.volatility " + format_number(sigma) + ", market.rate " + format_number(m.rate) +
-                 ", market.carry_yield " + format_number(m.carry_yield) + " and lattice.steps " +
-                 std::to_string(steps) + " over " + format_number(expiry_years) +
+                 ") with market.volatility " + format_number(sigma) + ", market.rate " + format_number(r) +
+                 ", market.carry_yield " + format_number(r - b) + " and lattice.steps " + std::to_string(steps) +
+                 " over " + format_number(expiry_years) +
                  " years; raise the volatility or lattice.steps, or narrow the rate-carry gap");
     }
     st.p_up = (st.growth - st.down) / (st.up - st.down);

@@ -373,7 +373,8 @@ void first_rows_greeks(const sweep& w, const lattice_step& st, double s0, int n_
         later = st.dt;
     }
     // Tree theta holds S* fixed; with dividends S* = spot - PV drifts as time passes.
-    out.theta = (v_at_s0_later - out.value) / later - out.delta * market.rate * market.dividend_pv(0, expiry_years);
+    out.theta =
+        (v_at_s0_later - out.value) / later - out.delta * market.rate.zero(0) * market.dividend_pv(0, expiry_years);
 }
 
 }  // namespace

@@ -82,7 +82,7 @@ lattice_price price_without_bumps(const market_data& market, const option_leg& l
 // here is the bump's, never the user's.
 void add_bumped_greeks(const market_data& market, const option_leg& leg, const lattice_settings& settings,
                        lattice_price& out) {
-    const auto premium_with = [&](double vol, double rate) -> std::optional<double> {
+    const auto premium_with = [&](double vol, const curve& rate) -> std::optional<double> {
         market_data m = market;
         m.volatility = vol;
         m.rate = rate;
@@ -105,8 +105,9 @@ void add_bumped_greeks(const market_data& market, const option_leg& leg, const l
     const double hv = std::min(vega_bump, 0.5 * market.volatility);
     out.sensitivities.vega =
         slope(premium_with(market.volatility + hv, market.rate), premium_with(market.volatility - hv, market.rate), hv);
-    out.sensitivities.rho = slope(premium_with(market.volatility, market.rate + rho_bump),
-                                  premium_with(market.volatility, market.rate - rho_bump), rho_bump);
+    // rho: the whole rate curve moved in parallel.
+    out.sensitivities.rho = slope(premium_with(market.volatility, market.rate.shifted(rho_bump)),
+                                  premium_with(market.volatility, market.rate.shifted(-rho_bump)), rho_bump);
 }
 
 }  // namespace
