@@ -31,8 +31,8 @@ market_data bench_market() {
     market_data m;
     m.spot = 100;
     m.volatility = 0.25;
-    m.rate = 0.05;
-    m.carry_yield = 0.01;
+    m.rate = curve::flat(0.05);
+    m.carry_yield = curve::flat(0.01);
     return m;
 }
 

@@ -4,7 +4,7 @@
 // Black-Scholes value over the last step (Broadie and Detemple 1996, "BBS") and Richardson
 // extrapolation 2 V(2N) - V(N) ("BBSR"). Smoothing the last step removes the odd-even
 // oscillation of a plain lattice, so the error falls like 1/N and the extrapolation is reliable.
-// Bermudan dates must be multiples of T / N (the caller picks N to make them so).
+// Bermudan dates must be multiples of T / N (the caller picks N to make them so). Flat rates only.
 #pragma once
 
 #include "contract/trade.hpp"
@@ -34,10 +34,10 @@ inline double bbs_price(const market_data& m, const option_leg& leg, int steps) 
     const bool call = leg.type == payoff_kind::call;
     const double T = leg.expiry_years, dt = T / steps;
     const double u = std::exp(m.volatility * std::sqrt(dt));
-    const double growth = std::exp((m.rate - m.carry_yield) * dt);
+    const double growth = std::exp((m.rate.first_rate() - m.carry_yield.first_rate()) * dt);
     const double p = (growth - 1 / u) / (u - 1 / u);
     const double p_share = p * u / growth;
-    const double df = std::exp(-m.rate * dt);
+    const double df = std::exp(-m.rate.first_rate() * dt);
     const double pu = df * p, pd = df * (1 - p);
     std::vector<char> allowed(static_cast<std::size_t>(steps) + 1, leg.exercise == exercise_style::american);
     for (double t : leg.exercise_years) allowed[static_cast<std::size_t>(std::lround(t / dt))] = 1;
@@ -58,7 +58,7 @@ inline double bbs_price(const market_data& m, const option_leg& leg, int steps) 
     band(last, lo, hi);
     for (int i = lo; i <= hi; ++i) {
         const double s = spot(last, i);
-        v[i] = black_scholes(call, s, leg.strike, m.volatility, m.rate, m.carry_yield, dt);
+        v[i] = black_scholes(call, s, leg.strike, m.volatility, m.rate.first_rate(), m.carry_yield.first_rate(), dt);
         if (allowed[last]) v[i] = std::max(v[i], exercise(s));
     }
     for (int n = last - 1; n >= 0; --n) {

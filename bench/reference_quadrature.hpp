@@ -68,7 +68,7 @@ struct table {
 inline double bermudan_by_quadrature(const market_data& m, const option_leg& leg, int points = 8001) {
     using namespace quadrature_detail;
     const bool call = leg.type == payoff_kind::call;
-    const double K = leg.strike, sigma = m.volatility, r = m.rate, q = m.carry_yield;
+    const double K = leg.strike, sigma = m.volatility, r = m.rate.first_rate(), q = m.carry_yield.first_rate();
     const double mu = r - q - 0.5 * sigma * sigma;
     std::vector<double> dates = leg.exercise_years;
     std::sort(dates.begin(), dates.end());

@@ -81,6 +81,18 @@ export type Envelope<R = PriceResult> =
 export interface EngineError {
   field: string;
   message: string;
+  /**
+   * What to do about it, without reading the message: "input" (fix the named field),
+   * "budget" (the request is too large for the page: fewer steps or paths, or use the CLI)
+   * or "internal" (a defect of the engine; never caused by the input alone).
+   */
+  kind: 'input' | 'budget' | 'internal';
+  /**
+   * For a range check: the value given and the bound it broke, in the file's units
+   * (decimals for rates and volatility): the value must stand in `relation` to `limit`.
+   * The page re-words the message in the units on screen with it.
+   */
+  detail?: { value: number; limit: number; relation: '<' | '<=' | '>' | '>=' };
 }
 
 // ---------------------------------------------------------------------------

@@ -247,7 +247,7 @@ void book_marks(const trade& t, const hedge_settings& hs, const std::vector<mark
             cash_before_costs = tot.premium;
         } else {
             const mark& prev = marks[k - 1];
-            const double growth = std::exp(m.rate * (mk.years - prev.years));
+            const double growth = m.rate.growth(prev.years, mk.years);
             row.interest = (cash_before_costs - cost_account) * (growth - 1);
             cash_before_costs *= growth;
             cost_account *= growth;
@@ -289,19 +289,15 @@ void book_marks(const trade& t, const hedge_settings& hs, const std::vector<mark
 }  // namespace
 
 double share_income(const market_data& m, double s_diffusing, double from_years, double to_years) {
-    const double dt = to_years - from_years;
-    const double growth_r = std::exp(m.rate * dt);
-    double inc = s_diffusing * (growth_r - std::exp((m.rate - m.carry_yield) * dt));
+    const double growth_r = m.rate.growth(from_years, to_years);
+    double inc = s_diffusing * (growth_r - m.forward_growth(from_years, to_years));
     if (!m.dividends.empty()) inc += m.dividend_pv(from_years, to_years) * growth_r;
     return inc;
 }
 
 market_data market_at(const market_data& m, double spot, double years) {
-    market_data out = m;
+    market_data out = m.seen_at(years);
     out.spot = spot;
-    out.dividends.clear();
-    for (const auto& d : m.dividends)
-        if (d.years > years) out.dividends.push_back({d.years - years, d.amount});
     return out;
 }
 

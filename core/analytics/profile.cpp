@@ -160,7 +160,7 @@ void profile_notes(const trade& t, const profile_settings& s, profile_result& ou
     }
     const bool has_stock =
         std::any_of(t.legs.begin(), t.legs.end(), [](const option_leg& l) { return l.type == payoff_kind::stock; });
-    if (has_stock && (t.market.carry_yield != 0 || !t.market.dividends.empty()))
+    if (has_stock && (!t.market.carry_yield.is_zero() || !t.market.borrow.is_zero() || !t.market.dividends.empty()))
         out.notes.push_back(
             "a stock leg pays the share price at expiry; dividends received before then are not in the payoff");
     if (std::any_of(t.legs.begin(), t.legs.end(), is_digital))
@@ -170,13 +170,7 @@ void profile_notes(const trade& t, const profile_settings& s, profile_result& ou
 }  // namespace
 
 double horizon_payoff(const trade& t, double s, double horizon_years) {
-    market_data later = t.market;
-    later.dividends.clear();
-    for (dividend d : t.market.dividends)
-        if (d.years > horizon_years) {
-            d.years -= horizon_years;
-            later.dividends.push_back(d);
-        }
+    const market_data later = t.market.seen_at(horizon_years);
     double total = 0;
     for (const auto& leg : t.legs) {
         if (leg.type == payoff_kind::stock || leg.expiry_years <= horizon_years + expiry_epsilon) {
@@ -246,7 +240,7 @@ profile_result run_profile(const trade& t, const profile_settings& s) {
     out.one_expiry = one_expiry(t);
     // The premium is the price command's (the trade's own lattice settings).
     out.premium = price_trade(t, bumped_greeks::off).premium;
-    out.cost_at_expiry = s.finance_premium ? out.premium * std::exp(t.market.rate * out.horizon_years) : out.premium;
+    out.cost_at_expiry = s.finance_premium ? out.premium * t.market.rate.growth(0, out.horizon_years) : out.premium;
     profile_rows(t, s, out.cost_at_expiry, out);
     out.zero_pnl = find_break_evens(t, out.cost_at_expiry);
     if (out.one_expiry) linear_extremes(t, out.cost_at_expiry, out);

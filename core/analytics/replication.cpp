@@ -167,7 +167,10 @@ double trade_lattice::dividends_after(int n) const {
 
 double trade_lattice::income(int n, int j) const {
     const market_data& m = source->market;
-    const double growth_r = std::exp(m.rate * step(n).dt);
+    // A lattice of one step repeated uses the rate averaged to the final expiry
+    // (numerics/lattice.cpp); one whose steps differ, each step's own.
+    const double growth_r = geometry.constant ? std::exp(m.rate.average(0, years_at(steps)) * step(n).dt)
+                                              : m.rate.growth(years_at(n), years_at(n + 1));
     double inc = diffusing(n, j) * (growth_r - step(n).growth);  // carry yield earned on S*
     if (!m.dividends.empty()) inc += m.dividend_pv(years_at(n), years_at(n + 1)) * growth_r;
     return inc;

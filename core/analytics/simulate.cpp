@@ -103,16 +103,20 @@ int delta_table_steps(const simulate_settings& st, const date_grid& dates) {
     return st.lattice_steps > 0 ? st.lattice_steps : std::clamp(static_cast<int>(4 * most_dates), 200, 1000);
 }
 
-euro_delta euro_delta_for(const market_data& m, const option_leg& leg, double tau) {
+// The leg's delta `from_years` on, `tau` years before its expiry, with the rate and the
+// carry averaged over that remaining life (the plain numbers when they are flat).
+euro_delta euro_delta_for(const market_data& m, const option_leg& leg, double from_years, double tau) {
     const double vol_t = m.volatility * std::sqrt(tau);
+    const double r = m.rate.average(from_years, leg.expiry_years);
+    const double q = m.carry_average(from_years, leg.expiry_years);
     euro_delta e;
     e.strike = leg.strike;
-    e.drift_term = (m.rate - m.carry_yield + 0.5 * m.volatility * m.volatility) * tau;
+    e.drift_term = (r - q + 0.5 * m.volatility * m.volatility) * tau;
     e.inv_vol = 1.0 / vol_t;
-    e.df_q = std::exp(-m.carry_yield * tau);
+    e.df_q = std::exp(-q * tau);
     e.digital = leg.type == payoff_kind::digital_call || leg.type == payoff_kind::digital_put;
     e.w = (leg.type == payoff_kind::call || leg.type == payoff_kind::digital_call) ? 1.0 : -1.0;
-    e.scale = leg.payout * std::exp(-m.rate * tau);
+    e.scale = leg.payout * std::exp(-r * tau);
     return e;
 }
 
@@ -125,11 +129,11 @@ frequency_plan plan_frequency(const trade& t, const std::vector<schedule_date>& 
     plan.levels.resize(n_legs);
     for (std::size_t k = 0; k < ds.size(); ++k) {
         plan.grid.push_back(dates.index(ds[k].years));
-        const double dt = k == 0 ? 0.0 : ds[k].years - ds[k - 1].years;
-        plan.growth.push_back(std::exp(m.rate * dt));
-        plan.carry.push_back(std::exp(m.rate * dt) - std::exp((m.rate - m.carry_yield) * dt));
-        plan.dividends.push_back(
-            k == 0 || m.dividends.empty() ? 0.0 : m.dividend_pv(ds[k - 1].years, ds[k].years) * std::exp(m.rate * dt));
+        const double from = k == 0 ? ds[k].years : ds[k - 1].years, to = ds[k].years;
+        const double growth_r = m.rate.growth(from, to);
+        plan.growth.push_back(growth_r);
+        plan.carry.push_back(growth_r - m.forward_growth(from, to));
+        plan.dividends.push_back(k == 0 || m.dividends.empty() ? 0.0 : m.dividend_pv(from, to) * growth_r);
         std::vector<leg_date> lds(n_legs);
         for (std::size_t i = 0; i < n_legs; ++i) {
             const option_leg& leg = t.legs[i];
@@ -140,7 +144,7 @@ frequency_plan plan_frequency(const trade& t, const std::vector<schedule_date>& 
             if (ld.expires) continue;
             ld.pv = m.dividends.empty() ? 0.0 : m.dividend_pv(ds[k].years, leg.expiry_years);
             if (leg.exercise == exercise_style::european) {
-                ld.euro = euro_delta_for(m, leg, tau);
+                ld.euro = euro_delta_for(m, leg, ds[k].years, tau);
             } else {
                 ld.may_exercise = leg.exercise == exercise_style::american ||
                                   std::any_of(leg.exercise_years.begin(), leg.exercise_years.end(), [&](double x) {

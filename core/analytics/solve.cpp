@@ -109,9 +109,9 @@ std::optional<premium_range> option_premium_range(const trade& t) {
     const option_leg& leg = t.legs.front();
     if (leg.type != payoff_kind::call && leg.type != payoff_kind::put) return std::nullopt;
     const market_data& m = t.market;
-    const double forward_spot =
-        (m.spot - m.dividend_pv(0, leg.expiry_years)) * std::exp(-m.carry_yield * leg.expiry_years);
-    const double pv_strike = leg.strike * std::exp(-m.rate * leg.expiry_years);
+    const double forward_spot = (m.spot - m.dividend_pv(0, leg.expiry_years)) *
+                                std::exp(-m.carry_average(0, leg.expiry_years) * leg.expiry_years);
+    const double pv_strike = leg.strike * m.rate.discount(0, leg.expiry_years);
     const bool call = leg.type == payoff_kind::call;
     premium_range out;
     out.lower = std::max(0.0, call ? forward_spot - pv_strike : pv_strike - forward_spot);

@@ -80,10 +80,10 @@ work_estimate estimate_bounded_work(const trade&) { return {}; }
 void check_work_budget(const work_estimate& w, double budget) {
     if (!std::isfinite(budget)) return;
     if (w.node_updates <= budget) return;
-    fail(w.field, w.what + " need about " + in_millions(w.node_updates) + " lattice node updates, more than the " +
-                      in_millions(budget) +
-                      " the page runs at once (a few seconds); use fewer steps, or the hedgeleaf "
-                      "command-line tool, which has no such limit");
+    throw work_exhausted(w.field, w.what + " need about " + in_millions(w.node_updates) +
+                                      " lattice node updates, more than the " + in_millions(budget) +
+                                      " the page runs at once (a few seconds); use fewer steps, or the hedgeleaf "
+                                      "command-line tool, which has no such limit");
 }
 
 }  // namespace hedgeleaf

@@ -84,7 +84,7 @@ std::vector<int> read_lattice_moves(field_reader& r) {
 }
 
 void read_scenario(field_reader& r, const trade& t, path_spec& p) {
-    p.drift = r.number_or("drift", t.market.rate);
+    p.drift = r.number_or("drift", t.market.rate.average(0, t.final_expiry_years()));
     require_at_least(p.drift, -max_abs_rate, r.child("drift"));
     require_at_most(p.drift, max_abs_rate, r.child("drift"));
     p.volatility = r.number_or("volatility", t.market.volatility);
@@ -165,7 +165,7 @@ rebalance_spec read_rebalance(const json& node, const std::string& path, const t
 
 hedge_settings read_hedge_settings(const json& document, const trade& t) {
     hedge_settings hs;
-    hs.path.drift = t.market.rate;
+    hs.path.drift = t.market.rate.average(0, t.final_expiry_years());
     hs.path.volatility = t.market.volatility;
     const json* section = section_of(document, "hedge");
     if (!section) return hs;
@@ -345,7 +345,7 @@ json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_sc
         {"path", path_json(hs.path)},
         {"rebalance", rebalance_json(hs)},
         {"cost_bp", hs.cost_bp},
-        {"rate", t.market.rate},
+        {"rate", t.market.rate.average(0, t.final_expiry_years())},
         {"pricing", pricing_text(t, hs)},
         {"view",
          "Per-unit columns replicate one unit of the trade held long: start with the premium in cash, hold delta "

@@ -301,16 +301,16 @@ json parse_json_text(const std::string& text) {
 }
 
 void require_positive(double value, const std::string& path) {
-    if (!(value > 0)) fail(path, "must be > 0, got " + format_number(value));
+    if (!(value > 0)) fail_bound(path, value, ">", 0);
 }
 void require_non_negative(double value, const std::string& path) {
-    if (!(value >= 0)) fail(path, "must be >= 0, got " + format_number(value));
+    if (!(value >= 0)) fail_bound(path, value, ">=", 0);
 }
 void require_at_most(double value, double limit, const std::string& path) {
-    if (!(value <= limit)) fail(path, "must be <= " + format_number(limit) + ", got " + format_number(value));
+    if (!(value <= limit)) fail_bound(path, value, "<=", limit);
 }
 void require_at_least(double value, double limit, const std::string& path) {
-    if (!(value >= limit)) fail(path, "must be >= " + format_number(limit) + ", got " + format_number(value));
+    if (!(value >= limit)) fail_bound(path, value, ">=", limit);
 }
 
 }  // namespace hedgeleaf

@@ -9,7 +9,7 @@ namespace hedgeleaf {
 
 simulate_settings read_simulate_settings(const json& document, const trade& t) {
     simulate_settings s;
-    s.drift = t.market.rate;
+    s.drift = t.market.rate.average(0, t.final_expiry_years());
     s.volatility = t.market.volatility;
     const auto every = [](int n, rebalance_unit u) {
         rebalance_spec r;

@@ -19,12 +19,15 @@ market_data read_market(const json& node, const years_reader& times) {
     m.volatility = r.number("volatility");
     require_positive(m.volatility, r.child("volatility"));
     require_at_most(m.volatility, max_volatility, r.child("volatility"));
-    m.rate = r.number("rate");
-    require_at_least(m.rate, -max_abs_rate, r.child("rate"));
-    require_at_most(m.rate, max_abs_rate, r.child("rate"));
-    m.carry_yield = r.number_or("carry_yield", 0.0);
-    require_at_least(m.carry_yield, -max_abs_rate, r.child("carry_yield"));
-    require_at_most(m.carry_yield, max_abs_rate, r.child("carry_yield"));
+    // One number each for now: a flat curve (term structures are read in the market section's own reader).
+    const double rate = r.number("rate");
+    require_at_least(rate, -max_abs_rate, r.child("rate"));
+    require_at_most(rate, max_abs_rate, r.child("rate"));
+    m.rate = curve::flat(rate);
+    const double carry_yield = r.number_or("carry_yield", 0.0);
+    require_at_least(carry_yield, -max_abs_rate, r.child("carry_yield"));
+    require_at_most(carry_yield, max_abs_rate, r.child("carry_yield"));
+    m.carry_yield = curve::flat(carry_yield);
     if (const json* divs = r.raw_optional("dividends")) {
         const std::string path = r.child("dividends");
         if (!divs->is_array()) fail(path, "must be a list of {time_years or date, amount}, got " + describe(*divs));

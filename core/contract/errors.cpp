@@ -49,6 +49,12 @@ std::string format_number(double x) {
     return buf;
 }
 
+void fail_bound(const std::string& field, double value, const std::string& relation, double limit) {
+    const std::string problem = "must be " + relation + " " + format_number(limit) + ", got " + format_number(value);
+    if (!std::isfinite(value)) throw input_error(field, problem);
+    throw input_error(field, problem, bound_detail{value, limit, relation});
+}
+
 std::string join_path(const std::string& parent, const std::string& key) {
     return parent.empty() ? key : parent + "." + key;
 }

@@ -11,8 +11,30 @@ namespace hedgeleaf {
 double market_data::dividend_pv(double from_years, double until_years) const {
     double pv = 0;
     for (const auto& d : dividends)
-        if (d.years > from_years && d.years <= until_years) pv += d.amount * std::exp(-rate * (d.years - from_years));
+        if (d.years > from_years && d.years <= until_years) pv += d.amount * rate.discount(from_years, d.years);
     return pv;
+}
+
+market_data market_data::seen_at(double years) const {
+    market_data out = *this;
+    out.rate = rate.seen_from(years);
+    out.carry_yield = carry_yield.seen_from(years);
+    out.borrow = borrow.seen_from(years);
+    out.dividends.clear();
+    for (const auto& d : dividends)
+        if (d.years > years) out.dividends.push_back({d.years - years, d.amount});
+    return out;
+}
+
+double market_data::carry_average(double from_years, double to_years) const {
+    return carry_yield.average(from_years, to_years) + borrow.average(from_years, to_years);
+}
+
+double market_data::forward_growth(double from_years, double to_years) const {
+    if (flat_rates())
+        return std::exp((rate.first_rate() - carry_yield.first_rate() - borrow.first_rate()) * (to_years - from_years));
+    return rate.growth(from_years, to_years) /
+           (carry_yield.growth(from_years, to_years) * borrow.growth(from_years, to_years));
 }
 
 double highest_volatility(double years) {

@@ -1,11 +1,13 @@
 // Hedgeleaf contract: the trade and its market as typed values (no JSON here).
 //
-// Units: spot and strike in price units; volatility, rate and carry_yield are
-// decimals per year (0.25 = 25 %), rates continuously compounded; times are
-// years from valuation (ACT/365F from valuation_date when dates are given).
+// Units: spot and strike in price units; volatility, rates and yields are
+// decimals per year (0.25 = 25 %), rates continuously compounded zero rates
+// (contract/curve.hpp); times are years from valuation (ACT/365F from
+// valuation_date when dates are given).
 // A time measured from valuation is named *_years throughout the C++.
 #pragma once
 
+#include "contract/curve.hpp"
 #include "contract/dates.hpp"
 #include "contract/limits.hpp"
 
@@ -28,13 +30,25 @@ struct dividend {
 
 struct market_data {
     double spot = 0;
-    double volatility = 0;   ///< decimal, annualised
-    double rate = 0;         ///< continuously compounded, decimal
-    double carry_yield = 0;  ///< continuous dividend yield or foreign rate, decimal
+    double volatility = 0;  ///< decimal, annualised
+    curve rate;             ///< interest rate of the price currency
+    curve carry_yield;      ///< continuous dividend yield, or the foreign rate
+    curve borrow;           ///< stock-loan fee: lowers the share's forward like a yield
     std::vector<dividend> dividends;
 
     /// Present value at `from_years` of the cash dividends paid in (from_years, until_years].
     double dividend_pv(double from_years, double until_years) const;
+    /// Average of carry_yield + borrow over (from, to]: what holding the share earns
+    /// instead of the rate (the q of the generalised Black-Scholes-Merton formula).
+    double carry_average(double from_years, double to_years) const;
+    /// What the share's forward (net of cash dividends) grows by over (from, to]:
+    /// exp of the integral of rate - carry_yield - borrow.
+    double forward_growth(double from_years, double to_years) const;
+    /// The market as seen `years` from now at the same spot: dividends paid by then dropped,
+    /// the rest and the curves' times measured from then.
+    market_data seen_at(double years) const;
+    /// True when rate, carry_yield and borrow are each one number.
+    bool flat_rates() const { return rate.is_flat() && carry_yield.is_flat() && borrow.is_flat(); }
 };
 
 /// One option (or share) position inside a trade.
@@ -53,8 +67,8 @@ inline market_data flat_market(double spot, double volatility, double rate, doub
     market_data m;
     m.spot = spot;
     m.volatility = volatility;
-    m.rate = rate;
-    m.carry_yield = carry_yield;
+    m.rate = curve::flat(rate);
+    m.carry_yield = curve::flat(carry_yield);
     return m;
 }
 

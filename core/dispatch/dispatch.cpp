@@ -12,6 +12,16 @@ namespace {
 std::string envelope_text(const json& envelope) {
     return envelope.dump(-1, ' ', false, json::error_handler_t::replace);
 }
+
+/// The refusal envelope. `kind` tells callers what to do without reading the message:
+/// "input" (fix the named field), "budget" (the request is too large for the page: fewer
+/// steps or paths, or the CLI) or "internal" (a defect of the engine, never the user's input).
+std::string refusal(const std::string& kind, const std::string& field, const std::string& message,
+                    const std::optional<bound_detail>& bound = std::nullopt) {
+    json error{{"field", field}, {"message", message}, {"kind", kind}};
+    if (bound) error["detail"] = {{"value", bound->value}, {"limit", bound->limit}, {"relation", bound->relation}};
+    return envelope_text(json{{"ok", false}, {"error", error}});
+}
 }  // namespace
 
 const char* engine_version() { return project_version; }
@@ -34,14 +44,14 @@ std::string run_command_text(const std::string& command, const std::string& text
     try {
         const json doc = parse_json_text(text);
         return envelope_text(json{{"ok", true}, {"result", run_command(command, doc, work_budget)}});
+    } catch (const work_exhausted& e) {
+        return refusal("budget", e.field(), e.what());
     } catch (const input_error& e) {
-        return envelope_text(json{{"ok", false}, {"error", {{"field", e.field()}, {"message", e.what()}}}});
+        return refusal("input", e.field(), e.what(), e.bound());
     } catch (const std::bad_alloc&) {
-        return envelope_text(json{
-            {"ok", false}, {"error", {{"field", ""}, {"message", "out of memory: reduce lattice.steps or paths"}}}});
+        return refusal("budget", "", "out of memory: reduce lattice.steps or paths");
     } catch (const std::exception& e) {
-        return envelope_text(
-            json{{"ok", false}, {"error", {{"field", ""}, {"message", std::string("internal error: ") + e.what()}}}});
+        return refusal("internal", "", std::string("internal error: ") + e.what());
     }
 }
 

@@ -18,14 +18,16 @@ valuation closed_form(const market_data& m, const option_leg& leg) {
 
     const double T = leg.expiry_years;
     const double K = leg.strike;
-    const double r = m.rate;
-    const double q = m.carry_yield;
+    // With term structures, the rate and the carry averaged over the option's life: a
+    // European option under deterministic rates depends on them only through those averages.
+    const double r = m.rate.average(0, T);
+    const double q = m.carry_average(0, T);
     const double sigma = m.volatility;
     // Escrowed dividends: the diffusing part of spot.
     double pv = 0, pv_time = 0;  // PV and sum of t_i * PV_i (for rho)
     for (const auto& d : m.dividends)
         if (d.years > 0 && d.years <= T) {
-            const double pvi = d.amount * std::exp(-r * d.years);
+            const double pvi = d.amount * m.rate.discount(0, d.years);
             pv += pvi;
             pv_time += d.years * pvi;
         }

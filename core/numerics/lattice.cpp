@@ -35,8 +35,11 @@ bool early_exercise_can_pay(const market_data& m, const option_leg& leg) {
     // Without cash dividends, C >= S e^{-qT} - K e^{-rT} > S - K when q <= 0 <= r, so a call
     // is never exercised early; likewise a put when r <= 0 <= q (Merton, 1973).
     if (!m.dividends.empty()) return true;
-    if (leg.type == payoff_kind::call) return !(m.carry_yield <= 0 && m.rate >= 0);
-    if (leg.type == payoff_kind::put) return !(m.rate <= 0 && m.carry_yield >= 0);
+    // With term structures the signs must hold at every maturity (every forward rate).
+    const double carry_low = m.carry_yield.lowest_forward() + m.borrow.lowest_forward();
+    const double carry_high = m.carry_yield.highest_forward() + m.borrow.highest_forward();
+    if (leg.type == payoff_kind::call) return !(carry_high <= 0 && m.rate.lowest_forward() >= 0);
+    if (leg.type == payoff_kind::put) return !(m.rate.highest_forward() <= 0 && carry_low >= 0);
     return true;
 }
 
@@ -54,10 +57,12 @@ double diffusing_spot(const market_data& market, double expiry_years) {
 lattice_step make_step(lattice_method method, const market_data& m, double strike, double expiry_years, int steps) {
     lattice_step st;
     const double sigma = m.volatility;
-    const double b = m.rate - m.carry_yield;
+    // Rates averaged over the leg's life (the plain numbers when flat).
+    const double r = m.rate.average(0, expiry_years);
+    const double b = r - m.carry_average(0, expiry_years);
     st.dt = expiry_years / steps;
     st.growth = std::exp(b * st.dt);
-    st.discount = std::exp(-m.rate * st.dt);
+    st.discount = std::exp(-r * st.dt);
     const double sq = sigma * std::sqrt(st.dt);
     switch (method) {
         case lattice_method::crr:
@@ -97,9 +102,9 @@ lattice_step make_step(lattice_method method, const market_data& m, double strik
         fail("market.volatility",
              "the " + to_string(method) + " lattice breaks no-arbitrage (needs 0 < down < growth < up; got down " +
                  format_number(st.down) + ", growth " + format_number(st.growth) + ", up " + format_number(st.up) +
-                 ") with market.volatility " + format_number(sigma) + ", market.rate " + format_number(m.rate) +
-                 ", market.carry_yield " + format_number(m.carry_yield) + " and lattice.steps " +
-                 std::to_string(steps) + " over " + format_number(expiry_years) +
+                 ") with market.volatility " + format_number(sigma) + ", market.rate " + format_number(r) +
+                 ", market.carry_yield " + format_number(r - b) + " and lattice.steps " + std::to_string(steps) +
+                 " over " + format_number(expiry_years) +
                  " years; raise the volatility or lattice.steps, or narrow the rate-carry gap");
     }
     st.p_up = (st.growth - st.down) / (st.up - st.down);
@@ -120,7 +125,6 @@ lattice_geometry piecewise_geometry(const market_data& m, const time_grid& grid)
     for (int n = 0; n < n_steps; ++n) longest = std::max(longest, grid.time(n + 1) - grid.time(n));
     const double L = 2 * m.volatility * std::sqrt(longest);
     const double e_l = std::expm1(L);
-    const double b = m.rate - m.carry_yield;
     g.log_ratio = L;
     g.per_step.resize(static_cast<std::size_t>(n_steps));
     g.offsets.resize(static_cast<std::size_t>(n_steps) + 1);
@@ -128,15 +132,15 @@ lattice_geometry piecewise_geometry(const market_data& m, const time_grid& grid)
     for (int n = 0; n < n_steps; ++n) {
         lattice_step& st = g.per_step[static_cast<std::size_t>(n)];
         st.dt = grid.time(n + 1) - grid.time(n);
-        st.growth = std::exp(b * st.dt);
-        st.discount = std::exp(-m.rate * st.dt);
+        st.growth = m.forward_growth(grid.time(n), grid.time(n + 1));
+        st.discount = m.rate.discount(grid.time(n), grid.time(n + 1));
         // Both roots match the step's variance; their third moments have opposite signs.
         // Taking them in turn cancels the skew of the sum pair by pair: with one root only,
         // steps a little shorter than the longest (p well away from 1/2) would leave an
         // error falling only like 1 / sqrt(N).
         const double root = std::sqrt(std::max(0.0, 1 - st.dt / longest));
         st.p_up = 0.5 * (1 + (n % 2 == 0 ? root : -root));
-        const double log_down = b * st.dt - std::log1p(st.p_up * e_l);
+        const double log_down = std::log(st.growth) - std::log1p(st.p_up * e_l);
         st.down = std::exp(log_down);
         st.up = std::exp(log_down + L);
         g.offsets[static_cast<std::size_t>(n)] = offset;
@@ -147,13 +151,60 @@ lattice_geometry piecewise_geometry(const market_data& m, const time_grid& grid)
     return g;
 }
 
+// Equal steps under rate curves (DESIGN: per-step growth and discount): the method's step
+// for the rates averaged over the life sets the spacing; each step then takes its own growth
+// g_n and discount. Cox-Ross-Rubinstein keeps up and down and moves p_n = (g_n - d)/(u - d),
+// which must stay inside (0, 1) on every step; the others keep p and move up and down with
+// g_n, so their ratio (the spacing) stays.
+lattice_geometry curve_geometry(lattice_method method, const market_data& m, const lattice_step& base,
+                                const time_grid& grid) {
+    lattice_geometry g;
+    g.grid = grid;
+    g.constant = false;
+    g.step = base;
+    g.log_ratio = std::log(base.up) - std::log(base.down);
+    const int n_steps = grid.steps;
+    g.per_step.resize(static_cast<std::size_t>(n_steps));
+    g.offsets.resize(static_cast<std::size_t>(n_steps) + 1);
+    double offset = 0;
+    for (int n = 0; n < n_steps; ++n) {
+        lattice_step& st = g.per_step[static_cast<std::size_t>(n)];
+        const double from = grid.time(n), to = grid.time(n + 1);
+        st.dt = base.dt;
+        st.growth = m.forward_growth(from, to);
+        st.discount = m.rate.discount(from, to);
+        if (method == lattice_method::crr) {
+            st.up = base.up;
+            st.down = base.down;
+            st.p_up = (st.growth - st.down) / (st.up - st.down);
+            if (!(st.p_up > 0 && st.p_up < 1))
+                fail("market.rate", "the crr lattice breaks no-arbitrage from " + format_number(from) + " to " +
+                                        format_number(to) + " years: the forward growth " + format_number(st.growth) +
+                                        " over the step lies outside down " + format_number(st.down) + " .. up " +
+                                        format_number(st.up) + " (market.rate, market.carry_yield, market.borrow " +
+                                        "forwards against market.volatility " + format_number(m.volatility) +
+                                        "); raise lattice.steps or use lattice.method leisen-reimer");
+        } else {
+            st.up = base.up * (st.growth / base.growth);
+            st.down = base.down * (st.growth / base.growth);
+            st.p_up = base.p_up;
+        }
+        g.offsets[static_cast<std::size_t>(n)] = offset;
+        offset += std::log(st.down);
+    }
+    g.offsets[static_cast<std::size_t>(n_steps)] = offset;
+    return g;
+}
+
 }  // namespace
 
 lattice_geometry make_geometry(lattice_method method, const market_data& m, double strike, const time_grid& grid) {
     if (!grid.uniform) return piecewise_geometry(m, grid);
+    const lattice_step base = make_step(method, m, strike, grid.expiry, grid.steps);
+    if (!m.flat_rates()) return curve_geometry(method, m, base, grid);
     lattice_geometry g;
     g.grid = grid;
-    g.step = make_step(method, m, strike, grid.expiry, grid.steps);
+    g.step = base;
     g.log_ratio = std::log(g.step.up) - std::log(g.step.down);
     return g;
 }

@@ -431,7 +431,8 @@ void first_rows_greeks(const sweep& w, const lattice_geometry& geo, double s0, i
         later = first.dt;
     }
     // Tree theta holds S* fixed; with dividends S* = spot - PV drifts as time passes.
-    out.theta = (v_at_s0_later - out.value) / later - out.delta * market.rate * market.dividend_pv(0, expiry_years);
+    out.theta =
+        (v_at_s0_later - out.value) / later - out.delta * market.rate.zero(0) * market.dividend_pv(0, expiry_years);
 }
 
 }  // namespace

@@ -202,7 +202,7 @@ double vega_bump_for(const market_data& market, const option_leg& leg) {
 // here is the bump's, never the user's.
 void add_bumped_greeks(const market_data& market, const option_leg& leg, const lattice_settings& settings,
                        lattice_price& out) {
-    const auto premium_with = [&](double vol, double rate) -> std::optional<double> {
+    const auto premium_with = [&](double vol, const curve& rate) -> std::optional<double> {
         market_data m = market;
         m.volatility = vol;
         m.rate = rate;
@@ -225,8 +225,22 @@ void add_bumped_greeks(const market_data& market, const option_leg& leg, const l
     const double hv = vega_bump_for(market, leg);
     out.sensitivities.vega =
         slope(premium_with(market.volatility + hv, market.rate), premium_with(market.volatility - hv, market.rate), hv);
-    out.sensitivities.rho = slope(premium_with(market.volatility, market.rate + rho_bump),
-                                  premium_with(market.volatility, market.rate - rho_bump), rho_bump);
+    // rho: the whole rate curve moved in parallel.
+    out.sensitivities.rho = slope(premium_with(market.volatility, market.rate.shifted(rho_bump)),
+                                  premium_with(market.volatility, market.rate.shifted(-rho_bump)), rho_bump);
+}
+
+// The largest discount factor to any time in [0, T] of the rate (or of the carry: carry yield
+// plus borrow): 1 unless a forward is negative. log discount is linear between curve points.
+double largest_discount(const market_data& m, double T, bool carry) {
+    const auto log_discount = [&](double t) {
+        return carry ? -(m.carry_yield.integral(t) + m.borrow.integral(t)) : -m.rate.integral(t);
+    };
+    double most = std::max(0.0, log_discount(T));
+    for (const curve* c : {&m.rate, &m.carry_yield, &m.borrow})
+        for (double t : c->years())
+            if (t < T) most = std::max(most, log_discount(t));
+    return std::exp(most);
 }
 
 }  // namespace
@@ -234,26 +248,25 @@ void add_bumped_greeks(const market_data& market, const option_leg& leg, const l
 premium_bounds no_arbitrage_bounds(const market_data& m, const option_leg& leg) {
     const double T = leg.expiry_years;
     const double pv = m.dividend_pv(0, T);
-    const double forward_value = (m.spot - pv) * std::exp(-m.carry_yield * T);  // S* e^-qT
-    const double strike_value = leg.strike * std::exp(-m.rate * T);             // K e^-rT
+    const double forward_value = (m.spot - pv) * std::exp(-m.carry_average(0, T) * T);  // S* e^-qT
+    const double strike_value = leg.strike * m.rate.discount(0, T);                     // K e^-rT
     const bool early = leg.exercise != exercise_style::european;
     const bool now = leg.exercise == exercise_style::american;  // may be exercised today
     switch (leg.type) {
         case payoff_kind::call: {
             double lower = std::max(0.0, forward_value - strike_value);
             if (now) lower = std::max(lower, m.spot - leg.strike);
-            const double upper =
-                early ? (m.spot - pv) * std::max(1.0, std::exp(-m.carry_yield * T)) + pv : forward_value;
+            const double upper = early ? (m.spot - pv) * largest_discount(m, T, true) + pv : forward_value;
             return {lower, upper};
         }
         case payoff_kind::put: {
             double lower = std::max(0.0, strike_value - forward_value);
             if (now) lower = std::max(lower, leg.strike - m.spot);
-            const double upper = early ? std::max(leg.strike, strike_value) : strike_value;
+            const double upper = early ? leg.strike * largest_discount(m, T, false) : strike_value;
             return {lower, upper};
         }
         case payoff_kind::digital_call:
-        case payoff_kind::digital_put: return {0.0, leg.payout * std::exp(-m.rate * T)};
+        case payoff_kind::digital_put: return {0.0, leg.payout * m.rate.discount(0, T)};
         case payoff_kind::stock: return {m.spot, m.spot};
     }
     return {0.0, 0.0};

@@ -31,7 +31,7 @@ TEST_CASE("a minimal trade gets the documented defaults", "[trade]") {
     const trade t = read_trade(base());
     REQUIRE(t.legs.size() == 1);
     CHECK(t.legs[0].exercise == exercise_style::european);
-    CHECK(t.market.carry_yield == 0);
+    CHECK(t.market.carry_yield.is_zero());
     CHECK(t.quantity == 1);
     CHECK_FALSE(t.client_sells);
     CHECK(t.lattice.method == lattice_method::leisen_reimer);

@@ -8,7 +8,7 @@
 // Beyond "no crash, no sanitizer report", each run checks the contract:
 //   - the envelope is valid JSON with a boolean "ok";
 //   - a refusal has a one-line message that starts with its field path, and is
-//     never an "internal error" (only input_error may reach the user);
+//     never of kind "internal" (only input_error may reach the user);
 //   - an accepted result holds no NaN or infinity anywhere.
 //
 // Work clamp (fuzzing only, product limits unchanged): a fuzzed trade may validly
@@ -130,13 +130,17 @@ void check_envelope(const std::string& command, const std::string& text, const s
         return;
     }
     const json& error = env["error"];
-    if (!error.is_object() || !error["field"].is_string() || !error["message"].is_string())
-        broken("error without field and message", out);
+    if (!error.is_object() || !error["field"].is_string() || !error["message"].is_string() ||
+        !error["kind"].is_string())
+        broken("error without field, message and kind", out);
+    const std::string kind = error["kind"].get<std::string>();
     const std::string field = error["field"].get<std::string>();
     const std::string message = error["message"].get<std::string>();
     if (message.empty()) broken("empty message", out);
     if (message.find('\n') != std::string::npos) broken("message spans lines", out);
-    if (message.rfind("internal error", 0) == 0) broken("internal error reached the user", out + "\n" + text);
+    // Classified by the structured kind, never by the text: a field may be named "internal errorside".
+    if (kind == "internal") broken("internal error reached the user", out + "\n" + text);
+    if (kind != "input" && kind != "budget") broken("unknown error kind", out);
     if (!field.empty() && message.rfind(field + ": ", 0) != 0) broken("message does not start with its field", out);
 }
 

@@ -57,8 +57,8 @@ market_data market(double spot, double vol, double rate, double carry, bool divi
     market_data m;
     m.spot = spot;
     m.volatility = vol;
-    m.rate = rate;
-    m.carry_yield = carry;
+    m.rate = curve::flat(rate);
+    m.carry_yield = curve::flat(carry);
     if (dividends) m.dividends = {{0.3, 1.5}, {0.8, 2.0}};
     return m;
 }
