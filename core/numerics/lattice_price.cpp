@@ -16,13 +16,17 @@ bool is_vanilla(payoff_kind k) { return k == payoff_kind::call || k == payoff_ki
 
 bool on_equal_steps(const market_data& market, const option_leg& leg) { return leg_events(market, leg).empty(); }
 
+bool early_may_pay(const market_data& market, const option_leg& leg) {
+    return leg.exercise != exercise_style::european && early_exercise_can_pay(market, leg);
+}
+
 // k in error ~ c / n^k: Leisen-Reimer on equal steps converges at second order without early
 // exercise (Leisen and Reimer 1996; digitals likewise, the strike being centred), at first
 // order with it; the other lattices at first order for calls and puts and at order one half
 // for digitals (the payout jumps between nodes one spacing, ~ 1/sqrt(n), apart).
 double convergence_order(lattice_method method, const market_data& market, const option_leg& leg) {
-    const bool early_may_pay = leg.exercise != exercise_style::european && early_exercise_can_pay(market, leg);
-    if (method == lattice_method::leisen_reimer && on_equal_steps(market, leg)) return early_may_pay ? 1.0 : 2.0;
+    if (method == lattice_method::leisen_reimer && on_equal_steps(market, leg))
+        return early_may_pay(market, leg) ? 1.0 : 2.0;
     return is_vanilla(leg.type) ? 1.0 : 0.5;
 }
 
@@ -108,6 +112,9 @@ std::string why_not_extrapolated(lattice_method method, const market_data& marke
     if (!on_equal_steps(market, leg))
         return "not extrapolated: the steps differ in length so that exercise and dividend dates fall on steps, "
                "and the error of such a lattice oscillates with the step count";
+    if (early_may_pay(market, leg))
+        return "not extrapolated: early exercise may pay, and the error of a lattice with an exercise boundary does "
+               "not fall smoothly enough for Richardson extrapolation to be trusted (bench/coverage_bench)";
     return "not extrapolated: the error of a " + to_string(method) +
            " lattice oscillates with the step count and Richardson extrapolation makes it larger (it helps "
            "leisen-reimer lattices)";
@@ -273,7 +280,8 @@ premium_bounds no_arbitrage_bounds(const market_data& m, const option_leg& leg) 
 }
 
 bool extrapolation_helps(lattice_method method, const market_data& market, const option_leg& leg) {
-    return method == lattice_method::leisen_reimer && leg.type != payoff_kind::stock && on_equal_steps(market, leg);
+    return method == lattice_method::leisen_reimer && leg.type != payoff_kind::stock && on_equal_steps(market, leg) &&
+           !early_may_pay(market, leg);
 }
 
 lattice_price price_leg(const market_data& market, const option_leg& leg, const lattice_settings& settings,
