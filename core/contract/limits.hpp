@@ -65,6 +65,8 @@ inline constexpr int max_document_depth = 64;               ///< nesting of obje
 inline constexpr std::size_t max_date_chars = 40;           ///< valuation_date text, before it is parsed
 inline constexpr int min_year = 1900;                       ///< dates are years 1900..2200
 inline constexpr int max_year = 2200;
+inline constexpr int max_tenor_count = 18250;      ///< "18250d": fifty years of days
+inline constexpr std::size_t max_tenor_chars = 6;  ///< "18250d"
 
 // ---- market and trade ----------------------------------------------------
 
