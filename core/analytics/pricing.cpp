@@ -34,4 +34,8 @@ trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estima
     return out;
 }
 
+premium_comparison compare_with_price(const trade& t, double card_premium) {
+    return {price_trade(t, bumped_greeks::off).premium, card_premium};
+}
+
 }  // namespace hedgeleaf

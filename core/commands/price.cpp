@@ -3,6 +3,11 @@
 
 #include "commands/quote.hpp"
 
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <string>
+
 namespace hedgeleaf {
 
 price_settings read_price_settings(const json& document, const trade& t) { return {read_quote_terms(document, t)}; }
@@ -56,6 +61,23 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
     };
     if (result.quote) out["client_price"] = write_client_price(*settings.quote, *result.quote);
     return out;
+}
+
+void add_price_comparison(json& out, const premium_comparison& c, const std::string& card,
+                          const std::string& steps_field, int steps) {
+    out["price_premium"] = c.price_premium;
+    out["difference_from_price"] = c.difference();
+    if (!(std::fabs(c.difference()) >= 5e-5 * std::max(1.0, std::fabs(c.price_premium)))) return;
+    if (!out.contains("notes") || !out["notes"].is_array()) out["notes"] = json::array();
+    const auto shown = [](double x) {  // six significant digits: the note is read, not computed with
+        char buf[32];
+        std::snprintf(buf, sizeof buf, "%.6g", x);
+        return std::string(buf);
+    };
+    out["notes"].push_back(card + " values the trade today at " + shown(c.card_premium) + " on its " +
+                           std::to_string(steps) + "-step lattice (" + steps_field + "), " +
+                           shown(std::fabs(c.difference())) + (c.difference() > 0 ? " above" : " below") +
+                           " the price command's premium " + shown(c.price_premium) + "; more steps bring it closer");
 }
 
 }  // namespace hedgeleaf

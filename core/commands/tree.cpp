@@ -2,6 +2,7 @@
 #include "commands/tree.hpp"
 
 #include "commands/hedge.hpp"
+#include "commands/price.hpp"
 
 namespace hedgeleaf {
 
@@ -36,7 +37,7 @@ json write_tree_result(const trade& t, const tree_settings& settings, const tree
         path = json{{"moves", moves_text(settings.moves)}, {"rows", rows}};
     }
     const double q = t.signed_quantity();
-    return json{
+    json out{
         {"steps", result.steps},
         {"method", to_string(t.lattice.method)},
         {"dt_years", geo.step.dt},
@@ -57,6 +58,8 @@ json write_tree_result(const trade& t, const tree_settings& settings, const tree
          "times these shares and cash."},
         {"notes", result.notes},
     };
+    add_price_comparison(out, result.against_price, "The tree", "hedge.tree.steps", result.steps);
+    return out;
 }
 
 }  // namespace hedgeleaf
