@@ -230,6 +230,26 @@ TEST_CASE("zero and negative rates", "[edge_cases]") {
     }
 }
 
+TEST_CASE("negative rate and negative carry yield: an American put may be exercised early", "[edge_cases]") {
+    // Merton (1973) bounds (from memory): with rate <= 0 <= carry_yield the European put is worth at
+    // least K - S and early exercise never pays; with both negative and the carry yield the lower,
+    // the share grows faster than the strike and deep in the money the European put falls below
+    // its exercise value, so the American put is dearer (docs/replication.md).
+    edge e;
+    e.rate = -0.01;
+    e.carry = -0.05;
+    e.strike = 140;
+    e.years = 2;
+    const double european = european_reference(e);
+    CHECK(european < e.strike - e.spot);  // below the exercise value: early exercise pays
+    const trade_result am = price(e);
+    CHECK(am.premium >= e.strike - e.spot);
+    CHECK(am.premium > european + 0.1);
+    // rate <= 0 <= carry_yield: the same put is European in value.
+    e.carry = 0.01;
+    CHECK(price(e).premium == Approx(european_reference(e)).epsilon(1e-6));
+}
+
 TEST_CASE("carry yield above the rate", "[edge_cases]") {
     edge e;
     e.type = "call";
