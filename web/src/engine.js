@@ -1,8 +1,15 @@
 // Hedgeleaf page: the one loader of the WebAssembly engine.
 //
-// Shared by the page's Web Workers, the main-thread fallback and the Node
-// tests, so all of them read the engine through the same few lines. The
-// contract of the module itself is wasm/hedgeleaf.d.ts.
+// Shared by the page, its Web Workers and the Node tests, so all of them read
+// the engine through the same few lines. The contract of the module itself is
+// wasm/hedgeleaf.d.ts.
+//
+// The page carries the engine's WebAssembly gzip-compressed, in base64, beside
+// the module's JavaScript (web/build.mjs takes it out of the module file, which
+// holds it uncompressed). The page unpacks and compiles it once (unpackEngine)
+// and hands the compiled module to every worker; loadEngine gives it to the
+// module through `instantiateWasm`, so the module never fetches its own bytes
+// (a fetch of a data: URL that the page's security policy refuses).
 
 /** A refused input: `field` is the trade-document path, `message` starts with it. */
 export class EngineError extends Error {
@@ -13,14 +20,35 @@ export class EngineError extends Error {
   }
 }
 
+/** The bytes of base64 `text` (atob gives one character per byte). */
+function base64Bytes(text) {
+  const chars = atob(text);
+  const bytes = new Uint8Array(chars.length);
+  for (let i = 0; i < chars.length; i += 1) bytes[i] = chars.charCodeAt(i);
+  return bytes;
+}
+
+/**
+ * The engine's WebAssembly from the page's packed text (base64 of gzip bytes):
+ * unzipped with the browser's DecompressionStream, then compiled once.
+ * @returns {Promise<{module: WebAssembly.Module, bytes: ArrayBuffer}>}
+ */
+export async function unpackEngine(packed) {
+  const unzipped = new Blob([base64Bytes(packed.trim())]).stream().pipeThrough(new DecompressionStream('gzip'));
+  const bytes = await new Response(unzipped).arrayBuffer();
+  return { module: await WebAssembly.compile(bytes), bytes };
+}
+
 let loading = null;
 
 /**
  * Load the engine once; later calls get the same promise. Rejects if the
- * runtime aborts while starting. `factory` is createHedgeleaf from the module file.
+ * runtime aborts while starting. `factory` is createHedgeleaf from the module
+ * file; `wasm`, when given, is the engine's compiled WebAssembly.Module (or its
+ * bytes), which the module then uses instead of the copy inside its own file.
  * @returns {Promise<{version: string, commands: string[], run: (command: string, trade: object|string) => object}>}
  */
-export function loadEngine(factory) {
+export function loadEngine(factory, wasm) {
   if (loading) return loading;
   loading = new Promise((resolve, reject) => {
     let dead = null;
@@ -28,7 +56,18 @@ export function loadEngine(factory) {
       dead = `the engine stopped (${String(what).slice(0, 200)})`;
       reject(new Error(dead));
     };
-    factory({ onAbort, print: () => {}, printErr: () => {} }).then((module) => {
+    const options = { onAbort, print: () => {}, printErr: () => {} };
+    if (wasm) {
+      // The module calls this instead of finding its bytes itself; it waits for receive().
+      options.instantiateWasm = (imports, receive) => {
+        WebAssembly.instantiate(wasm, imports).then(
+          (made) => (made instanceof WebAssembly.Instance ? receive(made) : receive(made.instance)),
+          reject,
+        );
+        return {};
+      };
+    }
+    factory(options).then((module) => {
       resolve({
         version: module.version(),
         commands: module.commands().split(',').filter(Boolean),

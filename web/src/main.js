@@ -11,6 +11,7 @@ import { EngineChannel, workerMaker } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
+import { unpackEngine } from './engine.js';
 import { hedgePanel } from './hedge.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
 import { recomputeCycle } from './recompute.js';
@@ -23,11 +24,16 @@ const scope = document.querySelector('main'); // the terms form and every card
 const state = pageState(commandsFrom(byId('engine-commands').textContent));
 const storage = localStore();
 
-// Two engines on two workers: `live` prices, `desk` runs the profile, hedge schedule,
-// ladder and solve for the same edit at the same time, so the slowest of them, not
-// their sum, sets how long a recompute takes. The simulation has a worker of its own.
-const makeWorker = workerMaker(byId('engine-js').textContent, byId('worker-js').textContent);
-const mainThreadFactory = () => globalThis.createHedgeleaf;
+// The engine's WebAssembly is unpacked and compiled once, first of all (the browser
+// compiles off this thread while the form is drawn), and every worker gets the
+// compiled module. Two engines on two workers: `live` prices, `desk` runs the
+// profile, hedge schedule, ladder and solve for the same edit at the same time, so
+// the slowest of them, not their sum, sets how long a recompute takes. The
+// simulation has a worker of its own.
+const compiled = unpackEngine(byId('engine-wasm').textContent);
+compiled.catch(() => {}); // the first call reports it
+const makeWorker = workerMaker(byId('engine-js').textContent, byId('worker-js').textContent, compiled);
+const mainThreadFactory = async () => ({ factory: globalThis.createHedgeleaf, wasm: (await compiled).module });
 const live = new EngineChannel(makeWorker, mainThreadFactory);
 const desk = new EngineChannel(makeWorker, mainThreadFactory);
 
@@ -89,7 +95,10 @@ function start() {
     () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price),
   );
   document.body.classList.add('ready');
-  cycle.recompute();
+  // Opening, the price comes first: the cards' calls wait for it (on a slow laptop they
+  // would compete with it for the cores), and the engine warms up after all of them.
+  desk.holdUntil(live.answered);
+  cycle.recompute().finally(() => desk.warmUp());
 }
 
 start();

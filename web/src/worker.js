@@ -1,17 +1,31 @@
 // Hedgeleaf page: the Web Worker that runs engine commands off the main thread.
 //
-// The page builds this worker from a Blob holding the inlined module script
+// The page builds this worker from a Blob holding the module's JavaScript
 // (which defines createHedgeleaf) followed by this code, so the worker needs
-// no network and no eval. Messages in: {id, command, trade}; out: {id, result}
-// or {id, error: {field, message}} or {id, fatal} when the engine cannot run.
+// no network and no eval. Messages in: {engine} once, the engine's compiled
+// WebAssembly.Module (or its bytes) from the page, which may come after the
+// first calls (or {engineFailed: message} if the page could not unpack it);
+// {id, command, trade}; {warmUp: true}. Out: {id, result} or
+// {id, error: {field, message}} or {id, fatal} when the engine cannot run, and
+// {problem} for a security-policy violation here, which the page reports on
+// its own console (where people and automation look; a worker's console is
+// often hidden).
 import { EngineError, loadEngine } from './engine.js';
 
-// V8 first runs WebAssembly in its baseline tier and compiles a function
-// optimised only after it has run for a while; a long call stays on the code it
-// started with. So once the first results are back, price a few small trades
-// (some 20 ms in all) so that the lattice kernels are optimised before the
-// user's first edit. All four commands share the kernel, so a worker asked for
-// any of them warms them all; a worker that only simulates (its own card) does not.
+let haveEngine;
+let noEngine;
+const engineGiven = new Promise((resolve, reject) => {
+  haveEngine = resolve;
+  noEngine = reject;
+});
+engineGiven.catch(() => {}); // each call reports it
+
+// V8 and WebKit first run WebAssembly in a baseline tier and optimise a function
+// only after it has run for a while; a long call stays on the code it started
+// with. So once the page has shown its first figures it asks one worker to price
+// a few small trades (some 20 ms in all), so that the lattice kernels are
+// optimised before the user's first edit. The workers share one compiled module,
+// so the optimised code serves them all.
 const warmUpTrades = [
   {
     market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
@@ -25,32 +39,41 @@ const warmUpTrades = [
   },
 ];
 const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
-let warmUp = null;
 
-function scheduleWarmUp(engine, command) {
-  if (warmUp || !warmUpCommands.includes(command)) return;
-  warmUp = setTimeout(() => {
-    for (const name of warmUpCommands) {
-      if (!engine.commands.includes(name)) continue;
-      for (const trade of warmUpTrades) {
-        try {
-          engine.run(name, trade);
-        } catch {
-          // a refusal here changes nothing for the user: warming up is best effort
-        }
+function warmUp(engine) {
+  for (const name of warmUpCommands) {
+    if (!engine.commands.includes(name)) continue;
+    for (const trade of warmUpTrades) {
+      try {
+        engine.run(name, trade);
+      } catch {
+        // a refusal here changes nothing for the user: warming up is best effort
       }
     }
-  }, 30);
+  }
 }
+
+self.addEventListener('securitypolicyviolation', (event) => {
+  self.postMessage({ problem: `${event.violatedDirective} refused ${String(event.blockedURI).slice(0, 80)}` });
+});
 
 /* global createHedgeleaf */
 self.onmessage = async (event) => {
-  const { id, command, trade } = event.data;
+  const { id, command, trade, engine: wasm, engineFailed } = event.data;
+  if (wasm || engineFailed) {
+    if (wasm) haveEngine(wasm);
+    else noEngine(new Error(`the engine could not be unpacked (${engineFailed})`));
+    return;
+  }
   let engine;
   try {
-    engine = await loadEngine(createHedgeleaf);
+    engine = await loadEngine(createHedgeleaf, await engineGiven);
   } catch (err) {
-    self.postMessage({ id, fatal: String(err.message || err) });
+    if (id) self.postMessage({ id, fatal: String(err.message || err) });
+    return;
+  }
+  if (event.data.warmUp) {
+    warmUp(engine);
     return;
   }
   try {
@@ -59,5 +82,4 @@ self.onmessage = async (event) => {
     if (err instanceof EngineError) self.postMessage({ id, error: { field: err.field, message: err.message } });
     else self.postMessage({ id, fatal: String(err.message || err) });
   }
-  scheduleWarmUp(engine, command);
 };
