@@ -1,8 +1,10 @@
 // Hedgeleaf page: small line charts drawn as SVG (no library).
 //
 // Colours come from classes in style.css (CSP allows no inline styles); text
-// is set with textContent only.
-import { make, makeSvg } from './dom.js';
+// is set with textContent only. The drawing is hidden from screen readers; its
+// text alternative is the legend and a folded table of the figures it plots
+// (chartData), inside the host, which is labelled (role "figure").
+import { fillTable, make, makeSvg, scrollRegion } from './dom.js';
 import { formatNumber } from './format.js';
 
 /** About `count` round tick values covering [lo, hi]. */
@@ -39,6 +41,7 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     focusable: 'false',
     'aria-hidden': 'true',
   });
+  const data = host.querySelector(':scope > details.chart-data') ?? make('details', { className: 'chart-data' });
   host.replaceChildren(svg);
   if (xs.length === 0 || ys.length === 0) return;
   let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
@@ -116,5 +119,31 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
       .filter((m) => m.legend)
       .map((m) => make('span', { className: `legend-item mark ${m.kind}`, text: m.legend })),
   ];
-  host.append(make('p', { className: 'chart-legend' }, items));
+  const name = host.getAttribute('aria-label') || yLabel;
+  host.append(make('p', { className: 'chart-legend' }, items), chartData(data, { series, marks, xLabel, name }));
+}
+
+/** Up to 4 decimals below 10, else 2: as the page's tables show such figures. */
+const figure = (v) => (Number.isFinite(v) ? formatNumber(v, Math.abs(v) < 10 ? 4 : 2) : '–');
+
+/**
+ * The chart's figures as a table in a folded <details> (`details`, reused: the table is
+ * filled in place): one row per x, one column per series, the marks in the caption.
+ * `name` names the chart (its scrolling table is a region of that name).
+ */
+function chartData(details, { series, marks, xLabel, name }) {
+  const plotted = series.filter((s) => s.points.length);
+  const xs = [...new Set(plotted.flatMap((s) => s.points.map((p) => p[0])))].sort((a, b) => a - b);
+  const byX = plotted.map((s) => new Map(s.points));
+  const rows = xs.map((x) => [figure(x), ...byX.map((m) => (m.has(x) ? figure(m.get(x)) : ''))]);
+  if (!details.firstChild)
+    details.append(
+      make('summary', { text: 'The figures in this chart' }),
+      scrollRegion(`Figures: ${name}`, make('table', { className: 'figures' })),
+    );
+  const table = details.querySelector('table');
+  const caption = marks.length ? `Marked: ${marks.map((m) => m.label).join('; ')}` : 'Chart figures';
+  fillTable(table, [xLabel || 'x', ...plotted.map((s) => s.label || s.kind)], rows, caption);
+  if (table.caption.textContent !== caption) table.caption.textContent = caption;
+  return details;
 }
