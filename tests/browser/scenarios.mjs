@@ -271,6 +271,10 @@ export function coreScenarios(name) {
       await tab.evaluate(() => {
         for (const details of document.querySelectorAll('details')) details.open = true;
       });
+      // a chart's table of figures is filled when it is opened
+      await until(tab, () =>
+        [...document.querySelectorAll('details.chart-data table')].every((table) => table.rows.length > 1),
+      );
       assert.deepEqual(await axeFindings(tab), [], 'every panel open');
       await tab.fill('[data-path="market.volatility"]', '-20');
       await until(tab, () => Boolean(document.querySelector('.headline.stale')));

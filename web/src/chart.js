@@ -127,23 +127,32 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
 const figure = (v) => (Number.isFinite(v) ? formatNumber(v, Math.abs(v) < 10 ? 4 : 2) : '–');
 
 /**
- * The chart's figures as a table in a folded <details> (`details`, reused: the table is
- * filled in place): one row per x, one column per series, the marks in the caption.
- * `name` names the chart (its scrolling table is a region of that name).
+ * The chart's figures as a table in a folded <details> (`details`, reused): one row per
+ * x, one column per series, the marks in the caption. `name` names the chart (its
+ * scrolling table is a region of that name). The table is filled (in place) only while
+ * the details are open, so that a recompute does not write figures nobody sees.
  */
-function chartData(details, { series, marks, xLabel, name }) {
+function chartData(details, figures) {
+  details.figures = figures;
+  if (!details.firstChild) {
+    details.append(
+      make('summary', { text: 'The figures in this chart' }),
+      scrollRegion(`Figures: ${figures.name}`, make('table', { className: 'figures' })),
+    );
+    details.addEventListener('toggle', () => details.open && fillChartData(details));
+  }
+  if (details.open) fillChartData(details);
+  return details;
+}
+
+function fillChartData(details) {
+  const { series, marks, xLabel } = details.figures;
   const plotted = series.filter((s) => s.points.length);
   const xs = [...new Set(plotted.flatMap((s) => s.points.map((p) => p[0])))].sort((a, b) => a - b);
   const byX = plotted.map((s) => new Map(s.points));
   const rows = xs.map((x) => [figure(x), ...byX.map((m) => (m.has(x) ? figure(m.get(x)) : ''))]);
-  if (!details.firstChild)
-    details.append(
-      make('summary', { text: 'The figures in this chart' }),
-      scrollRegion(`Figures: ${name}`, make('table', { className: 'figures' })),
-    );
   const table = details.querySelector('table');
   const caption = marks.length ? `Marked: ${marks.map((m) => m.label).join('; ')}` : 'Chart figures';
   fillTable(table, [xLabel || 'x', ...plotted.map((s) => s.label || s.kind)], rows, caption);
   if (table.caption.textContent !== caption) table.caption.textContent = caption;
-  return details;
 }

@@ -1,12 +1,12 @@
 // Hedgeleaf page: engine calls on a Web Worker, one at a time, cancellable.
 //
 // A channel owns one worker built from a Blob of the module's JavaScript plus
-// the worker code (no network, no eval; CSP worker-src blob:); each new worker
-// is handed the engine's WebAssembly compiled once by the page, so no worker
-// compiles it again. cancel() terminates the worker mid-run; the next call
+// the worker code (no network, no eval; CSP worker-src blob:); the first worker
+// compiles the engine's WebAssembly and every later one is handed that compiled
+// module, so it is compiled once. cancel() terminates the worker mid-run; the next call
 // starts a fresh one. Where a worker cannot start, calls run on the main thread
 // through the same loader.
-import { EngineError, loadEngine } from './engine.js';
+import { EngineError, loadEngine, unpackEngine } from './engine.js';
 
 /** Raised for calls cut short by cancel(). */
 export class Cancelled extends Error {
@@ -28,27 +28,43 @@ export function started(promise) {
 
 /**
  * Workers built from the page's module script followed by the worker code (one
- * Blob, made once: no network, no eval). `compiled` is the promise of the
- * engine's {module, bytes} (engine.js unpackEngine); each worker gets the compiled
- * module (its bytes where a browser will not pass a module to a worker). Returns
- * a function that starts one.
+ * Blob, made once: no network, no eval), and the engine's WebAssembly for them.
+ * `packed` is the page's packed WebAssembly (engine.js unpackEngine). The first
+ * worker unpacks and compiles it itself, at once, while this thread draws the page,
+ * and hands the compiled module back; every later worker gets that module (a
+ * worker made before it exists, or in a browser that will not pass a module to a
+ * worker, compiles its own). Returns {make: () => Worker, mainThread: () =>
+ * Promise<{factory, wasm}>} (the engine where no worker can start).
  */
-export function workerMaker(engineText, workerText, compiled) {
-  const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
-  return () => {
-    const worker = new Worker(url, { name: 'hedgeleaf-engine' });
-    compiled.then(
-      ({ module, bytes }) => {
-        try {
-          worker.postMessage({ engine: module });
-        } catch {
-          worker.postMessage({ engine: bytes });
-        }
-      },
-      (err) => worker.postMessage({ engineFailed: String(err.message || err) }),
-    );
-    return worker;
+export function engineWorkers(engineText, workerText, packed) {
+  /** Give `worker` the compiled module; false where this browser cannot pass one to a worker. */
+  const handOver = (worker, compiled) => {
+    try {
+      worker.postMessage({ engine: compiled });
+      return true;
+    } catch {
+      return false;
+    }
   };
+  const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
+  let module = null;
+  const keep = (event) => {
+    if (!event.data.compiled) return;
+    event.stopImmediatePropagation(); // for here, not for the worker's channel
+    module ??= event.data.compiled;
+  };
+  function make() {
+    const worker = new Worker(url, { name: 'hedgeleaf-engine' });
+    if (module && handOver(worker, module)) return worker;
+    worker.addEventListener('message', keep);
+    worker.postMessage({ unpack: packed });
+    return worker;
+  }
+  async function mainThread() {
+    module ??= (await unpackEngine(packed)).module;
+    return { factory: globalThis.createHedgeleaf, wasm: module };
+  }
+  return { make, mainThread };
 }
 
 export class EngineChannel {

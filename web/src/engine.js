@@ -20,8 +20,9 @@ export class EngineError extends Error {
   }
 }
 
-/** The bytes of base64 `text` (atob gives one character per byte). */
+/** The bytes of base64 `text` (where there is no Uint8Array.fromBase64, atob gives one character per byte). */
 function base64Bytes(text) {
+  if (typeof Uint8Array.fromBase64 === 'function') return Uint8Array.fromBase64(text);
   const chars = atob(text);
   const bytes = new Uint8Array(chars.length);
   for (let i = 0; i < chars.length; i += 1) bytes[i] = chars.charCodeAt(i);
@@ -31,12 +32,13 @@ function base64Bytes(text) {
 /**
  * The engine's WebAssembly from the page's packed text (base64 of gzip bytes):
  * unzipped with the browser's DecompressionStream, then compiled once.
- * @returns {Promise<{module: WebAssembly.Module, bytes: ArrayBuffer}>}
+ * @returns {Promise<{module: WebAssembly.Module}>}
  */
 export async function unpackEngine(packed) {
-  const unzipped = new Blob([base64Bytes(packed.trim())]).stream().pipeThrough(new DecompressionStream('gzip'));
+  // (a Response's body, not a Blob's stream: WebKit cannot read a Blob in a worker of a file:// page)
+  const unzipped = new Response(base64Bytes(packed.trim())).body.pipeThrough(new DecompressionStream('gzip'));
   const bytes = await new Response(unzipped).arrayBuffer();
-  return { module: await WebAssembly.compile(bytes), bytes };
+  return { module: await WebAssembly.compile(bytes) };
 }
 
 let loading = null;

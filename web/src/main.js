@@ -7,11 +7,10 @@
 // (messages.js). terms.js draws the terms form; saving.js moves the trade in
 // and out of the page; the cards (hedge.js, simulate.js, desk.js) get what they
 // use passed in here.
-import { EngineChannel, workerMaker } from './compute.js';
+import { EngineChannel, engineWorkers } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
-import { unpackEngine } from './engine.js';
 import { hedgePanel } from './hedge.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
 import { recomputeCycle } from './recompute.js';
@@ -24,16 +23,18 @@ const scope = document.querySelector('main'); // the terms form and every card
 const state = pageState(commandsFrom(byId('engine-commands').textContent));
 const storage = localStore();
 
-// The engine's WebAssembly is unpacked and compiled once, first of all (the browser
-// compiles off this thread while the form is drawn), and every worker gets the
-// compiled module. Two engines on two workers: `live` prices, `desk` runs the
-// profile, hedge schedule, ladder and solve for the same edit at the same time, so
-// the slowest of them, not their sum, sets how long a recompute takes. The
-// simulation has a worker of its own.
-const compiled = unpackEngine(byId('engine-wasm').textContent);
-compiled.catch(() => {}); // the first call reports it
-const makeWorker = workerMaker(byId('engine-js').textContent, byId('worker-js').textContent, compiled);
-const mainThreadFactory = async () => ({ factory: globalThis.createHedgeleaf, wasm: (await compiled).module });
+// The engine's WebAssembly is compiled once, by the first worker, and every later
+// worker gets the compiled module (compute.js engineWorkers). Two engines on two
+// workers: `live` prices, `desk` runs the profile, hedge schedule, ladder and solve
+// for the same edit at the same time, so the slowest of them, not their sum, sets
+// how long a recompute takes. The simulation has a worker of its own.
+const workers = engineWorkers(
+  byId('engine-js').textContent,
+  byId('worker-js').textContent,
+  byId('engine-wasm').textContent,
+);
+const makeWorker = workers.make;
+const mainThreadFactory = workers.mainThread;
 const live = new EngineChannel(makeWorker, mainThreadFactory);
 const desk = new EngineChannel(makeWorker, mainThreadFactory);
 
@@ -71,6 +72,12 @@ function start() {
   state.doc = first.doc;
   if (first.message) notice(first.message);
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
+  // The price is asked for first, before the form is drawn, so that the engine worker
+  // starts and prices while this thread builds the page. The cards' calls wait for the
+  // price (on a slow laptop they would compete with it for the cores: they show soon
+  // after it), and the engine warms up only once all of them are in.
+  desk.holdUntil(live.answered);
+  cycle.recompute().finally(() => desk.warmUp());
   for (const card of cards) card.setup();
   fillForm();
   listenForEdits({
@@ -95,10 +102,6 @@ function start() {
     () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price),
   );
   document.body.classList.add('ready');
-  // Opening, the price comes first: the cards' calls wait for it (on a slow laptop they
-  // would compete with it for the cores), and the engine warms up after all of them.
-  desk.holdUntil(live.answered);
-  cycle.recompute().finally(() => desk.warmUp());
 }
 
 start();

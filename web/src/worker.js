@@ -2,15 +2,16 @@
 //
 // The page builds this worker from a Blob holding the module's JavaScript
 // (which defines createHedgeleaf) followed by this code, so the worker needs
-// no network and no eval. Messages in: {engine} once, the engine's compiled
-// WebAssembly.Module (or its bytes) from the page, which may come after the
-// first calls (or {engineFailed: message} if the page could not unpack it);
-// {id, command, trade}; {warmUp: true}. Out: {id, result} or
+// no network and no eval. Messages in, first: {engine}, the engine's compiled
+// WebAssembly.Module, or {unpack}, the page's packed WebAssembly, which this
+// worker unpacks and compiles itself and then hands back as {compiled} for the
+// page's other workers; then {id, command, trade} (a call may come before its
+// engine is ready: it waits) and {warmUp: true}. Out: {id, result} or
 // {id, error: {field, message}} or {id, fatal} when the engine cannot run, and
 // {problem} for a security-policy violation here, which the page reports on
 // its own console (where people and automation look; a worker's console is
 // often hidden).
-import { EngineError, loadEngine } from './engine.js';
+import { EngineError, loadEngine, unpackEngine } from './engine.js';
 
 let haveEngine;
 let noEngine;
@@ -59,10 +60,20 @@ self.addEventListener('securitypolicyviolation', (event) => {
 
 /* global createHedgeleaf */
 self.onmessage = async (event) => {
-  const { id, command, trade, engine: wasm, engineFailed } = event.data;
-  if (wasm || engineFailed) {
-    if (wasm) haveEngine(wasm);
-    else noEngine(new Error(`the engine could not be unpacked (${engineFailed})`));
+  const { id, command, trade, engine: wasm, unpack } = event.data;
+  if (wasm) {
+    haveEngine(wasm);
+    return;
+  }
+  if (unpack) {
+    unpackEngine(unpack).then(({ module }) => {
+      haveEngine(module);
+      try {
+        self.postMessage({ compiled: module });
+      } catch {
+        // a browser that cannot pass the module on: the other workers compile their own
+      }
+    }, noEngine);
     return;
   }
   let engine;
