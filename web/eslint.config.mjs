@@ -40,7 +40,6 @@ export default [
     languageOptions: {
       globals: {
         atob: 'readonly',
-        Blob: 'readonly',
         DecompressionStream: 'readonly',
         Response: 'readonly',
         WebAssembly: 'readonly',
