@@ -20,6 +20,7 @@ import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { after, before, describe, test } from 'node:test';
 import { fileURLToPath, pathToFileURL } from 'node:url';
+import { inflateSync } from 'node:zlib';
 
 import { openBrowser, until } from './harness.mjs';
 
@@ -88,6 +89,21 @@ async function axeFindings(tab) {
       .filter((v) => v.impact === 'serious' || v.impact === 'critical')
       .map((v) => `${v.id} (${v.impact}): ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
   });
+}
+
+/** The pages of a PDF: its /Type /Page objects, also those inside compressed object streams. */
+function pdfPages(pdf) {
+  const raw = pdf.toString('latin1');
+  let text = raw;
+  for (const found of raw.matchAll(/stream\r?\n/g)) {
+    const start = found.index + found[0].length;
+    try {
+      text += inflateSync(pdf.subarray(start, raw.indexOf('endstream', start))).toString('latin1');
+    } catch {
+      // not a deflated stream (an image, a font)
+    }
+  }
+  return (text.match(/\/Type\s*\/Page(?!s)/g) ?? []).length;
 }
 
 /** Register the core scenarios for engine `name` (harness.mjs engineNames). */
@@ -228,6 +244,7 @@ export function coreScenarios(name) {
       if (pdf) {
         assert.equal(pdf.subarray(0, 5).toString('latin1'), '%PDF-');
         assert.ok(pdf.length > 10000, `a PDF of ${pdf.length} bytes`);
+        assert.equal(pdfPages(pdf), 1, 'the quote sheet prints on one A4 page');
       }
       await done(tab);
     });

@@ -73,7 +73,7 @@ class ChromiumTab {
     return this.page.pdf({ format: 'A4' });
   }
   printMedia(on) {
-    return printMedia(this, on, (print) => this.page.emulateMedia({ media: print ? 'print' : 'screen' }));
+    return printMedia(this, on, (print) => this.page.emulateMedia({ media: print ? 'print' : null }));
   }
   problems() {
     return [...this.seen, ...this.context.problems];
