@@ -31,6 +31,30 @@ const modulePath = option('--module', join(root, 'build/wasm/hedgeleaf.js'));
 const outPath = option('--out', join(root, 'dist/hedgeleaf.html'));
 const examplePath = join(root, 'examples/american-put.json');
 
+/**
+ * `source` without its whole-line comments (lines that start with // and blocks that
+ * start a line with /*), which are for readers of web/src, not for the page's size.
+ * Comments after code stay; nothing inside a template literal is touched.
+ */
+export function dropCommentLines(source) {
+  const kept = [];
+  let inBlock = false;
+  let inTemplate = false;
+  for (const line of source.split('\n')) {
+    const text = line.trim();
+    if (inBlock) inBlock = !text.endsWith('*/');
+    else if (!inTemplate && text.startsWith('//')) continue;
+    else if (!inTemplate && text.startsWith('/*') && (!text.includes('*/') || text.endsWith('*/')))
+      inBlock = !text.endsWith('*/');
+    else {
+      kept.push(line);
+      // an odd number of backticks opens or closes a template literal that spans lines
+      if ((line.match(/`/g)?.length ?? 0) % 2) inTemplate = !inTemplate;
+    }
+  }
+  return kept.join('\n');
+}
+
 /** Bundle an ES module and what it imports (named imports/exports only) into one script. */
 export function bundle(entry) {
   const modules = [];
@@ -40,7 +64,7 @@ export function bundle(entry) {
     if (state.get(file) === 'done') return;
     if (state.get(file) === 'open') throw new Error(`import cycle through ${relative(root, file)}`);
     state.set(file, 'open');
-    const source = readFileSync(file, 'utf8');
+    const source = dropCommentLines(readFileSync(file, 'utf8'));
     const imports = [...source.matchAll(importPattern)].map((m) => ({
       names: m[1],
       file: resolve(dirname(file), m[2]),

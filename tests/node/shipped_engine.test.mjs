@@ -18,7 +18,7 @@ import { gunzipSync } from 'node:zlib';
 import vm from 'node:vm';
 
 import { loadEngine, unpackEngine } from '../../web/src/engine.js';
-import { maxBytes, packModule } from '../../web/build.mjs';
+import { dropCommentLines, maxBytes, packModule } from '../../web/build.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const pagePath = join(root, 'dist/hedgeleaf.html');
@@ -57,6 +57,34 @@ test('the page carries exactly the module file: its script, and its WebAssembly 
   assert.ok(wasm.equals(Buffer.from(embedded, 'base64')), 'the unpacked WebAssembly differs from the module file');
   assert.equal(inline('engine-wasm'), packed);
   assert.ok(!/data:application\/octet-stream;base64,[A-Za-z0-9+/]/.test(inline('engine-js')), 'a second copy');
+});
+
+test('the page build drops whole-line comments and nothing else', () => {
+  const source = [
+    '// a comment line',
+    'const a = 1; // after code: kept',
+    '/**',
+    ' * a block',
+    ' */',
+    '/* one line */',
+    '/* before code */ const b = 2;',
+    'const c = `',
+    '// inside a template: kept',
+    '`;',
+    '  // indented',
+    'const d = "//";',
+  ].join('\n');
+  assert.equal(
+    dropCommentLines(source),
+    [
+      'const a = 1; // after code: kept',
+      '/* before code */ const b = 2;',
+      'const c = `',
+      '// inside a template: kept',
+      '`;',
+      'const d = "//";',
+    ].join('\n'),
+  );
 });
 
 test('the page stays under 1 MiB', { skip }, () => {
