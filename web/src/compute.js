@@ -103,38 +103,46 @@ export class EngineChannel {
     return this;
   }
 
+  /**
+   * Start the worker now, if none runs, so that it loads the engine before the first call
+   * comes (calls start one anyway). False where no worker can start: calls run here.
+   */
+  start() {
+    if (this.worker) return true;
+    if (this.inline) return false;
+    try {
+      this.worker = this.makeWorker();
+    } catch {
+      // no worker here (a browser that refuses them from this page): run on the main thread
+      this.inline = true;
+      return false;
+    }
+    this.worker.onmessage = (event) => {
+      this.proven = true;
+      if (event.data.problem) console.error(`Hedgeleaf engine worker: ${event.data.problem}`);
+      else this.settle(event.data);
+    };
+    this.worker.onerror = (event) => {
+      event.preventDefault();
+      if (!this.proven) {
+        // the browser would not start a worker from this page: run here instead
+        const waiting = [...this.pending.values()];
+        this.pending.clear();
+        this.worker.terminate();
+        this.worker = null;
+        this.inline = true;
+        for (const entry of waiting) this.callInline(entry.command, entry.trade).then(entry.resolve, entry.reject);
+        return;
+      }
+      this.fail(new Error(`the engine worker failed: ${event.message || 'unknown error'}`));
+    };
+    return true;
+  }
+
   /** Run one command; resolves with its result, rejects with EngineError, Cancelled or Error. */
   call(command, trade) {
     if (this.held) return this.held.then(() => this.call(command, trade));
-    if (this.inline) return this.callInline(command, trade);
-    if (!this.worker) {
-      try {
-        this.worker = this.makeWorker();
-      } catch {
-        // no worker here (a browser that refuses them from this page): run on the main thread
-        this.inline = true;
-        return this.callInline(command, trade);
-      }
-      this.worker.onmessage = (event) => {
-        this.proven = true;
-        if (event.data.problem) console.error(`Hedgeleaf engine worker: ${event.data.problem}`);
-        else this.settle(event.data);
-      };
-      this.worker.onerror = (event) => {
-        event.preventDefault();
-        if (!this.proven) {
-          // the browser would not start a worker from this page: run here instead
-          const waiting = [...this.pending.values()];
-          this.pending.clear();
-          this.worker.terminate();
-          this.worker = null;
-          this.inline = true;
-          for (const entry of waiting) this.callInline(entry.command, entry.trade).then(entry.resolve, entry.reject);
-          return;
-        }
-        this.fail(new Error(`the engine worker failed: ${event.message || 'unknown error'}`));
-      };
-    }
+    if (!this.start()) return this.callInline(command, trade);
     const id = this.nextId++;
     return new Promise((resolve, reject) => {
       this.pending.set(id, { resolve, reject, command, trade });

@@ -37,6 +37,7 @@ const makeWorker = workers.make;
 const mainThreadFactory = workers.mainThread;
 const live = new EngineChannel(makeWorker, mainThreadFactory);
 const desk = new EngineChannel(makeWorker, mainThreadFactory);
+live.start(); // the engine loads on its worker while this thread builds the page
 
 /** Error lines for every bound input, pointed at the fields they write now. */
 const bindControls = () => syncErrorPaths(scope, state.doc);

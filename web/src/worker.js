@@ -68,6 +68,7 @@ self.onmessage = async (event) => {
   if (unpack) {
     unpackEngine(unpack).then(({ module }) => {
       haveEngine(module);
+      loadEngine(createHedgeleaf, module).catch(() => {}); // ready before the first call; a call reports a failure
       try {
         self.postMessage({ compiled: module });
       } catch {
