@@ -67,6 +67,42 @@ const quantile = (xs, q) => {
 };
 const median = (xs) => quantile(xs, 0.5);
 
+/**
+ * Run in the page: what packing the engine costs when the page opens. Median of 5 of
+ * unpacking the page's engine (base64 of gzip, as web/src/engine.js does) against
+ * decoding the same WebAssembly as the plain base64 the module file carries.
+ */
+async function unpackingCost() {
+  const decode = (text) =>
+    typeof Uint8Array.fromBase64 === 'function'
+      ? Uint8Array.fromBase64(text)
+      : Uint8Array.from(atob(text), (c) => c.charCodeAt(0));
+  const packed = document.getElementById('engine-wasm').textContent.trim();
+  const unpack = async () =>
+    new Uint8Array(
+      await new Response(new Response(decode(packed)).body.pipeThrough(new DecompressionStream('gzip'))).arrayBuffer(),
+    );
+  const wasm = await unpack();
+  let plain = '';
+  for (let i = 0; i < wasm.length; i += 0x8000) plain += String.fromCharCode(...wasm.subarray(i, i + 0x8000));
+  plain = btoa(plain);
+  const time = async (fn) => {
+    const xs = [];
+    for (let k = 0; k < 5; k++) {
+      const t = performance.now();
+      await fn();
+      xs.push(performance.now() - t);
+    }
+    return xs.sort((a, b) => a - b)[2];
+  };
+  return {
+    packedChars: packed.length,
+    plainChars: plain.length,
+    unpack: await time(unpack),
+    decodePlain: await time(() => decode(plain)),
+  };
+}
+
 /** Open the page in `contexts` fresh contexts at CPU `rate` and time the open and four spot edits in each. */
 async function measure(browser, url, rate) {
   const figures = { opens: [], settled: [], recomputes: [], firstUpdates: [] };
@@ -90,6 +126,7 @@ async function measure(browser, url, rate) {
     }
     await settle(page);
     figures.settled.push(await page.evaluate(() => window.__bench.changes.at(-1)));
+    if (run === 0) figures.unpacking = await page.evaluate(unpackingCost);
     // The spot ladder is folded at first: open it, so the timed recompute includes it.
     await page.evaluate(() => {
       const card = document.getElementById('ladder-card');
@@ -138,7 +175,7 @@ async function measure(browser, url, rate) {
   return figures;
 }
 
-function report(rate, { opens, settled, recomputes, firstUpdates }) {
+function report(rate, { opens, settled, recomputes, firstUpdates, unpacking }) {
   const budget = budgets[rate];
   const within = (figure, limit) => (limit ? `; budget ${limit} ms, ${figure < limit ? 'met' : 'NOT met'}` : '');
   const ms = (x, digits = 0) => `${x.toFixed(digits)} ms`;
@@ -149,6 +186,11 @@ function report(rate, { opens, settled, recomputes, firstUpdates }) {
       `worst ${ms(Math.max(...opens))} (${opens.length} fresh contexts${within(median(opens), budget?.open)})`,
   );
   console.log(`page settled after opening (last change): median ${ms(median(settled))}`);
+  const kib = (chars) => `${(chars / 1024).toFixed(0)} KiB`;
+  console.log(
+    `unpacking the engine (${kib(unpacking.packedChars)} of base64 gzip): ${ms(unpacking.unpack, 1)}; ` +
+      `decoding it as the module file's plain base64 (${kib(unpacking.plainChars)}) would take ${ms(unpacking.decodePlain, 1)}`,
+  );
   console.log(
     `full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
       `${ms(median(firstUpdates), 1)}, last change median ${ms(median(recomputes), 1)}, ` +
