@@ -41,9 +41,10 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     focusable: 'false',
     'aria-hidden': 'true',
   });
-  const data = host.querySelector(':scope > details.chart-data') ?? make('details', { className: 'chart-data' });
-  host.replaceChildren(svg);
-  if (xs.length === 0 || ys.length === 0) return;
+  if (xs.length === 0 || ys.length === 0) {
+    host.replaceChildren(svg);
+    return;
+  }
   let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
   let [y0, y1] = [Math.min(...ys, 0), Math.max(...ys, 0)];
   if (x1 === x0) [x0, x1] = [x0 - 1, x1 + 1];
@@ -114,13 +115,21 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     svg.append(g);
   }
   const items = [
-    ...series.filter((x) => x.label).map((s) => make('span', { className: `legend-item ${s.kind}`, text: s.label })),
-    ...marks
-      .filter((m) => m.legend)
-      .map((m) => make('span', { className: `legend-item mark ${m.kind}`, text: m.legend })),
+    ...series.filter((s) => s.label).map((s) => [`legend-item ${s.kind}`, s.label]),
+    ...marks.filter((m) => m.legend).map((m) => [`legend-item mark ${m.kind}`, m.legend]),
   ];
-  const name = host.getAttribute('aria-label') || yLabel;
-  host.append(make('p', { className: 'chart-legend' }, items), chartData(data, { series, marks, xLabel, name }));
+  // a recompute replaces the drawing only; the legend (when unchanged) and the table stay
+  const old = host.querySelector(':scope > svg');
+  let legend = host.querySelector(':scope > .chart-legend');
+  const data = host.querySelector(':scope > details.chart-data') ?? make('details', { className: 'chart-data' });
+  if (!old || !legend) host.replaceChildren(svg, (legend = make('p', { className: 'chart-legend' })), data);
+  else old.replaceWith(svg);
+  const key = JSON.stringify(items);
+  if (legend.itemsKey !== key) {
+    legend.replaceChildren(...items.map(([className, text]) => make('span', { className, text })));
+    legend.itemsKey = key;
+  }
+  chartData(data, { series, marks, xLabel, name: host.getAttribute('aria-label') || yLabel });
 }
 
 /** Up to 4 decimals below 10, else 2: as the page's tables show such figures. */
