@@ -77,7 +77,8 @@ async function unpackingCost() {
     typeof Uint8Array.fromBase64 === 'function'
       ? Uint8Array.fromBase64(text)
       : Uint8Array.from(atob(text), (c) => c.charCodeAt(0));
-  const packed = document.getElementById('engine-wasm').textContent.trim();
+  const packed = document.getElementById('engine-wasm')?.textContent.trim();
+  if (!packed) return null; // a page that carries its engine unpacked
   const unpack = async () =>
     new Uint8Array(
       await new Response(new Response(decode(packed)).body.pipeThrough(new DecompressionStream('gzip'))).arrayBuffer(),
@@ -187,10 +188,11 @@ function report(rate, { opens, settled, recomputes, firstUpdates, unpacking }) {
   );
   console.log(`page settled after opening (last change): median ${ms(median(settled))}`);
   const kib = (chars) => `${(chars / 1024).toFixed(0)} KiB`;
-  console.log(
-    `unpacking the engine (${kib(unpacking.packedChars)} of base64 gzip): ${ms(unpacking.unpack, 1)}; ` +
-      `decoding it as the module file's plain base64 (${kib(unpacking.plainChars)}) would take ${ms(unpacking.decodePlain, 1)}`,
-  );
+  if (unpacking)
+    console.log(
+      `unpacking the engine (${kib(unpacking.packedChars)} of base64 gzip): ${ms(unpacking.unpack, 1)}; ` +
+        `decoding it as the module file's plain base64 (${kib(unpacking.plainChars)}) would take ${ms(unpacking.decodePlain, 1)}`,
+    );
   console.log(
     `full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
       `${ms(median(firstUpdates), 1)}, last change median ${ms(median(recomputes), 1)}, ` +
