@@ -76,11 +76,16 @@ function start() {
   // The price is asked for first, before the form is drawn, so that the engine worker
   // starts and prices while this thread builds the page. The cards' calls wait for the
   // price (on a slow laptop they would compete with it for the cores: they show soon
-  // after it), and the engine warms up only once all of them are in.
+  // after it); the cards below the terms, off screen at first, are built once the first
+  // figures are in; the engine warms up last.
   desk.holdUntil(live.answered);
-  cycle.recompute().finally(() => desk.warmUp());
-  for (const card of cards) card.setup();
-  fillForm();
+  cycle.recompute().finally(() => {
+    for (const card of cards) card.setup();
+    bindControls();
+    desk.warmUp();
+  });
+  terms.fill();
+  bindControls();
   listenForEdits({
     scope,
     state,
