@@ -11,6 +11,7 @@ import { EngineChannel, engineWorkers } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
+import { formatNumber } from './format.js';
 import { hedgePanel } from './hedge.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
 import { recomputeCycle } from './recompute.js';
@@ -86,6 +87,10 @@ function start() {
   });
   terms.fill();
   bindControls();
+  // The browser's number formats take some 30 ms to make the first time: make the two
+  // the figures use now, while the engine prices, not after.
+  formatNumber(0, 2);
+  formatNumber(0, 4);
   listenForEdits({
     scope,
     state,
