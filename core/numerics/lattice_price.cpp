@@ -112,9 +112,6 @@ std::string why_not_extrapolated(lattice_method method, const market_data& marke
     if (!on_equal_steps(market, leg))
         return "not extrapolated: the steps differ in length so that exercise and dividend dates fall on steps, "
                "and the error of such a lattice oscillates with the step count";
-    if (early_may_pay(market, leg))
-        return "not extrapolated: early exercise may pay, and the error of a lattice with an exercise boundary does "
-               "not fall smoothly enough for Richardson extrapolation to be trusted (bench/coverage_bench)";
     return "not extrapolated: the error of a " + to_string(method) +
            " lattice oscillates with the step count and Richardson extrapolation makes it larger (it helps "
            "leisen-reimer lattices)";
@@ -178,6 +175,10 @@ lattice_price price_without_bumps(const market_data& market, const option_leg& l
         if (out.extrapolated) {
             // The extrapolation one level down, against this one.
             largest = std::fabs(out.premium - richardson(lv.r[1].value, lv.n[1], lv.r[2].value, lv.n[2], k));
+            // With an exercise boundary the error falls unevenly and one level down says too little
+            // (the bound covered 90-92 % of the coverage benchmark's American cases): the step the
+            // extrapolation took from the fine lattice bounds it as well.
+            if (early_may_pay(market, leg)) largest = std::max(largest, std::fabs(out.premium - f.value));
         } else {
             const double v0 = f.value, v1 = lv.r[1].value, v2 = lv.r[2].value;
             largest = std::max({error_at(lv.n[0], v1, lv.n[1], v0, lv.n[0], k),
@@ -280,8 +281,7 @@ premium_bounds no_arbitrage_bounds(const market_data& m, const option_leg& leg) 
 }
 
 bool extrapolation_helps(lattice_method method, const market_data& market, const option_leg& leg) {
-    return method == lattice_method::leisen_reimer && leg.type != payoff_kind::stock && on_equal_steps(market, leg) &&
-           !early_may_pay(market, leg);
+    return method == lattice_method::leisen_reimer && leg.type != payoff_kind::stock && on_equal_steps(market, leg);
 }
 
 lattice_price price_leg(const market_data& market, const option_leg& leg, const lattice_settings& settings,

@@ -3,17 +3,16 @@
 //
 // A price is the fine lattice of N steps, or, where it is known to help, the Richardson
 // extrapolation of N and about N/2 steps: Leisen-Reimer lattices of calls, puts and digitals
-// on a uniform grid without early exercise that may pay, whose errors fall smoothly at
-// second order. With an exercise boundary the error is roughly first order but uneven, and
-// the extrapolated price's bound covered the true error in only 90 % of the coverage
-// benchmark's cases, so those are not extrapolated either. Cox-Ross-Rubinstein, Jarrow-Rudd and Tian errors oscillate
+// on a uniform grid, whose errors fall smoothly (second order for European payoffs, first
+// order, less evenly, with an exercise boundary). Cox-Ross-Rubinstein, Jarrow-Rudd and Tian errors oscillate
 // with N, and so do lattices whose steps differ (numerics/time_grid.hpp): extrapolating
 // them makes the error larger, so they report the fine lattice and say so.
 //
 // The error bound compares the price with lattices of about N/2 and N/4 steps (N x 2 and
 // N x 4 below 8 steps, or where a smaller lattice cannot be built): for an error falling
 // like c / n^k each pair of levels gives an estimate of the price's own error; the bound
-// is error_safety times the largest of them (bench/coverage_bench.cpp measures that it
+// is error_safety times the largest of them, and for an extrapolated price with an exercise
+// boundary at least the step the extrapolation took (bench/coverage_bench.cpp measures that it
 // covers the true error in at least 19 cases of 20 for every method and option type).
 #pragma once
 

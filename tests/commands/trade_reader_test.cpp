@@ -105,7 +105,7 @@ TEST_CASE("an expiry tenor becomes years from its rolled date", "[trade][tenor]"
           "option.expiry_tenor: give one of expiry_years, expiry_date or expiry_tenor, not expiry_years as well");
     doc["option"].erase("expiry_years");
     doc["option"]["expiry_tenor"] = 6;
-    CHECK(message_of(doc) == "option.expiry_tenor: must be a tenor such as 6m (text), got number 6");
+    CHECK(message_of(doc) == "option.expiry_tenor: must be a tenor such as 6m (text), got 6");
     doc["valuation_date"] = "2027-07-30";  // a Friday; the next day is Saturday 31 July
     doc["option"]["expiry_tenor"] = "1d";
     CHECK(message_of(doc) ==
