@@ -59,6 +59,12 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
         {"spot", t.market.spot},
         {"expiry_years", t.final_expiry_years()},
     };
+    // What the lattices say (not extrapolated and why, a fallback, rough Greeks), each line once.
+    json notes = json::array();
+    for (const auto& lr : r.legs)
+        for (const auto& note : lr.lattice.notes)
+            if (std::find(notes.begin(), notes.end(), note) == notes.end()) notes.push_back(note);
+    out["notes"] = notes;
     if (result.quote) out["client_price"] = write_client_price(*settings.quote, *result.quote);
     return out;
 }

@@ -164,3 +164,31 @@ TEST_CASE("memory stays linear at the largest step count", "[lattice]") {
     CHECK(std::isfinite(p.premium));
     CHECK(p.premium > closed_form(m, put).premium);
 }
+
+TEST_CASE("Greeks from one or two steps come with a warning naming lattice.steps", "[lattice]") {
+    // Decision: priced, not refused (a one-step tree is a teaching case), but said to be rough.
+    const auto m = flat_market(100, 0.2, 0.03);
+    const auto leg = single_leg(payoff_kind::call, 100, 1.0);
+    for (int steps : {1, 2, 3}) {
+        const lattice_price p = price_leg(m, leg, plain(lattice_method::crr, steps));
+        bool warned = false;
+        for (const auto& note : p.notes) warned = warned || note.find("lattice.steps") != std::string::npos;
+        INFO(steps << " steps");
+        CHECK(warned == (steps < 3));
+    }
+}
+
+TEST_CASE("a digital's vega at low volatility agrees with the closed form", "[lattice]") {
+    // Cash-or-nothing call vega -e^-rT n(d2) d1 / sigma (Haug, The Complete Guide to Option Pricing
+    // Formulas, 2nd ed., cash-or-nothing; differentiated by hand), evaluated with scipy.stats.norm:
+    // S 100, K 101, r 3 %, T 0.25. The bump scales with the volatility (at most 2 % of it): a fixed
+    // 0.005 bump would straddle the digital's whole value at 2 % volatility.
+    const auto leg = single_leg(payoff_kind::digital_call, 101, 0.25);
+    const struct { double volatility, vega; } cases[] = {{0.02, 4.60594421842513}, {0.05, 0.6730760346652644}};
+    for (const auto& c : cases) {
+        const auto m = flat_market(100, c.volatility, 0.03);
+        const lattice_price p = price_leg(m, leg, lattice_settings{}, bumped_greeks::on);
+        INFO("volatility " << c.volatility);
+        CHECK(p.sensitivities.vega == Approx(c.vega).epsilon(2e-3));
+    }
+}
