@@ -5,6 +5,7 @@
 #include "contract/errors.hpp"
 #include "contract/limits.hpp"
 
+#include <cctype>
 #include <cstdio>
 
 namespace hedgeleaf {
@@ -93,6 +94,27 @@ date next_business_day(const date& d) {
     date out = d;
     while (!is_business_day(out)) out = add_days(out, 1);
     return out;
+}
+
+std::optional<tenor> parse_tenor(const std::string& text) {
+    if (text.size() < 2 || text.size() > 5) return std::nullopt;
+    const char unit = static_cast<char>(std::tolower(static_cast<unsigned char>(text.back())));
+    if (unit != 'd' && unit != 'w' && unit != 'm' && unit != 'y') return std::nullopt;
+    int count = 0;
+    for (std::size_t i = 0; i + 1 < text.size(); ++i) {
+        if (text[i] < '0' || text[i] > '9') return std::nullopt;
+        count = count * 10 + (text[i] - '0');
+    }
+    if (count < 1 || count > 1200) return std::nullopt;
+    return tenor{count, unit};
+}
+
+double tenor_years(const tenor& t, const std::optional<date>& valuation_date) {
+    const double days_per_unit = t.unit == 'd' ? 1 : t.unit == 'w' ? 7 : 0;
+    if (days_per_unit > 0) return t.count * days_per_unit / 365.0;
+    const int months = t.unit == 'y' ? 12 * t.count : t.count;
+    if (!valuation_date) return months / 12.0;
+    return year_fraction(*valuation_date, add_months(*valuation_date, months));
 }
 
 }  // namespace hedgeleaf

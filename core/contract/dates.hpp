@@ -1,6 +1,7 @@
 // Hedgeleaf contract: calendar dates, ACT/365F year fractions and business days.
 #pragma once
 
+#include <optional>
 #include <string>
 
 namespace hedgeleaf {
@@ -31,5 +32,17 @@ date add_months(const date& d, int months);
 date add_days(const date& d, long days);
 /// The first business day on or after d (Saturday/Sunday roll forward to Monday).
 date next_business_day(const date& d);
+
+/// A tenor as desks write it: a whole number of days, weeks, months or years ("3m", "10d", "2y").
+struct tenor {
+    int count = 0;
+    char unit = 'm';  ///< 'd', 'w', 'm' or 'y'
+};
+/// "3m", "2W", "10d", "1y": a whole number from 1 to 1200 and a unit letter (any case); none otherwise.
+std::optional<tenor> parse_tenor(const std::string& text);
+/// Years to the end of a tenor, ACT/365F: with a valuation date, from the calendar date it
+/// reaches (months and years by add_months); without one, months as twelfths and years as
+/// years, days and weeks over 365.
+double tenor_years(const tenor& t, const std::optional<date>& valuation_date);
 
 }  // namespace hedgeleaf
