@@ -7,6 +7,7 @@
 #pragma once
 
 #include "commands/json_read.hpp"
+#include "commands/market_reader.hpp"
 #include "contract/trade.hpp"
 
 #include <optional>
@@ -14,17 +15,9 @@
 
 namespace hedgeleaf {
 
-/// Reads times given as years or, with a valuation date, as dates (ACT/365F).
-struct years_reader {
-    std::optional<date> valuation_date;
-    /// Years from either `years_key` or `date_key` of `r` (exactly one of them).
-    double read_years(field_reader& r, const std::string& years_key, const std::string& date_key) const;
-    /// Years from a date string at `path`.
-    double years_from_date(const json& value, const std::string& path) const;
-};
-
 /// Read and validate a trade document. Throws input_error naming the field.
-trade read_trade(const json& document);
+/// `market_snapshot`: its market came from a snapshot file, which must give its as_of.
+trade read_trade(const json& document, bool market_snapshot = false);
 
 /// Read one option leg from an object (shared by `option`, `legs[i]` and structures);
 /// `signed_quantity`: a leg of `legs`, with its quantity and possibly stock.
