@@ -46,14 +46,14 @@ const json& list_at(const json& value, const std::string& field, const char* wha
 
 /// Strictly increasing: each its own message for a repeat and for a step back.
 void check_order(const std::vector<double>& xs, std::size_t i, const std::string& field, const std::string& prefix,
-                 const char* what, const char* unit) {
+                 const char* what, const char* plural, const char* unit) {
     if (i == 0) return;
     const std::string before = format_number(xs[i - 1]) + unit;
     if (xs[i] == xs[i - 1])
         fail(field, prefix + "repeats the " + what + " before it (" + before + "); give each " + what + " once");
     if (xs[i] < xs[i - 1])
-        fail(field, prefix + format_number(xs[i]) + unit + " comes after " + before + "; list the " + what +
-                        "s in increasing order");
+        fail(field, prefix + format_number(xs[i]) + unit + " comes after " + before + "; list the " + plural +
+                        " in increasing order");
 }
 
 std::vector<double> read_expiries(const json& list, const grid_places& at, const years_reader& times) {
@@ -66,7 +66,7 @@ std::vector<double> read_expiries(const json& list, const grid_places& at, const
                  at.expiry_at(i) + "must be after the valuation date, got " + format_number(t) + " years");
         check_bound(t <= max_expiry_years, at.expiry(i), at.expiry_at(i), t, "<=", max_expiry_years);
         out.push_back(t);
-        check_order(out, i, at.expiry(i), at.expiry_at(i), "expiry", " years");
+        check_order(out, i, at.expiry(i), at.expiry_at(i), "expiry", "expiries", " years");
     }
     return out;
 }
@@ -82,7 +82,7 @@ std::vector<double> read_strikes(const json& list, const grid_places& at, strike
         check_bound(k <= highest, at.strike(j), at.strike_at(j), k, "<=", highest,
                     percent ? " (percent: 90 = 90 %)" : "");
         out.push_back(k);
-        check_order(out, j, at.strike(j), at.strike_at(j), "strike", "");
+        check_order(out, j, at.strike(j), at.strike_at(j), "strike", "strikes", "");
     }
     return out;
 }
