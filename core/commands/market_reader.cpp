@@ -261,12 +261,9 @@ std::optional<date> as_of_date(const json& node, const std::string& path) {
     return parse_as_of(v.get<std::string>(), field);
 }
 
-market_data read_market(const json& node, const years_reader& times, const std::string& path, bool as_of_required) {
+market_data read_market(const json& node, const years_reader& times, const std::string& path) {
     field_reader r(node, path);
     market_data m;
-    if (as_of_required && !r.has("as_of")) {
-        r.raw("as_of");  // "is required but missing", with a did-you-mean
-    }
     if (const auto text = r.text_optional("as_of", max_as_of_chars)) {
         parse_as_of(*text, r.child("as_of"));
         m.as_of = *text;
@@ -290,6 +287,24 @@ market_data read_market(const json& node, const years_reader& times, const std::
     if (grid) read_smile(volatility, r.child("volatility"), times, m);
     r.finish();
     return m;
+}
+
+json with_market_snapshot(const json& document, const json& snapshot) {
+    if (!snapshot.is_object())
+        fail("market",
+             "a market snapshot must be an object {as_of, spot, volatility, rate, ...}, got " + describe(snapshot));
+    if (!snapshot.contains("as_of"))
+        fail("market.as_of",
+             "is required in a market snapshot: when the market was taken, an ISO 8601 date and "
+             "time such as 2026-12-03T16:30:00Z");
+    if (!document.is_object()) return document;  // the trade reader names what is wrong with it
+    if (document.contains("market"))
+        fail("market",
+             "the trade carries its own market and a market snapshot was given too; remove the trade's "
+             "market or leave out the snapshot (neither overrides the other)");
+    json out = document;
+    out["market"] = snapshot;
+    return out;
 }
 
 }  // namespace hedgeleaf

@@ -35,9 +35,14 @@ date parse_as_of(const std::string& text, const std::string& path);
 /// The date of the market's `as_of`, when `node` is an object that gives one (checked).
 std::optional<date> as_of_date(const json& node, const std::string& path);
 
-/// Read and check the market at `path`. `as_of_required`: a snapshot file must say when it
-/// was taken. Throws input_error naming the field (a grid's cell, a curve's point).
-market_data read_market(const json& node, const years_reader& times, const std::string& path = "market",
-                        bool as_of_required = false);
+/// Read and check the market at `path`. Throws input_error naming the field (a grid's cell,
+/// a curve's point).
+market_data read_market(const json& node, const years_reader& times, const std::string& path = "market");
+
+/// The trade `document` priced in the market `snapshot` (a market with its as_of, from its
+/// own file): the snapshot becomes the document's `market`. A trade that carries its own
+/// market is refused (neither overrides the other), as is a snapshot without as_of. Fields
+/// in the snapshot are then named market.<field>.
+json with_market_snapshot(const json& document, const json& snapshot);
 
 }  // namespace hedgeleaf

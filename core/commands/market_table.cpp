@@ -45,8 +45,8 @@ table_text split(const std::string& text, const table_source& source) {
         }
         while (row.size() > 1 && row.back().empty()) row.pop_back();  // a trailing separator
         cells += row.size();
-        if (static_cast<double>(cells) > max_table_cells)
-            fail(source.field, "the table has more than " + format_number(max_table_cells) + " cells");
+        if (cells > max_table_cells)
+            fail(source.field, "the table has more than " + std::to_string(max_table_cells) + " cells");
         out.rows.push_back(std::move(row));
         out.lines.push_back(line_no);
     }

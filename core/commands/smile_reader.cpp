@@ -105,6 +105,8 @@ std::vector<std::vector<double>> read_vols(const json& rows, const grid_places& 
     const std::string field = at.list("vols");
     if (!rows.is_array())
         fail(field, "must be a list of rows, one per expiry, each a list of volatilities, got " + describe(rows));
+    if (rows.size() > max_smile_expiries)
+        fail(field, "has " + std::to_string(rows.size()) + " rows, at most " + std::to_string(max_smile_expiries));
     if (rows.size() != g.expiries.size())
         fail(field, "has " + std::to_string(rows.size()) + " rows; the grid has " + std::to_string(g.expiries.size()) +
                         " expiries (one row of volatilities per expiry)");
@@ -112,6 +114,9 @@ std::vector<std::vector<double>> read_vols(const json& rows, const grid_places& 
     for (std::size_t i = 0; i < rows.size(); ++i) {
         const json& row = rows[i];
         if (!row.is_array()) fail(at.row(i), "must be a list of volatilities, one per strike, got " + describe(row));
+        if (row.size() > max_smile_strikes)
+            fail(at.row(i),
+                 "has " + std::to_string(row.size()) + " volatilities, at most " + std::to_string(max_smile_strikes));
         if (row.size() != g.strikes.size())
             fail(at.row(i), "has " + std::to_string(row.size()) + " volatilities; the grid has " +
                                 std::to_string(g.strikes.size()) +

@@ -296,14 +296,14 @@ void settle_volatility(trade& t) {
 
 }  // namespace
 
-trade read_trade(const json& document, bool market_snapshot) {
+trade read_trade(const json& document) {
     field_reader r(document, "");
     trade t;
     years_reader times;
     times.valuation_date =
         read_valuation_date(r, document.is_object() && document.contains("market") ? &document.at("market") : nullptr);
     t.valuation_date = times.valuation_date;
-    t.market = read_market(r.raw("market"), times, "market", market_snapshot);
+    t.market = read_market(r.raw("market"), times, "market");
     t.strike_tick = r.number_optional("strike_tick");
     if (t.strike_tick) {
         require_positive(*t.strike_tick, "strike_tick");

@@ -16,8 +16,7 @@
 namespace hedgeleaf {
 
 /// Read and validate a trade document. Throws input_error naming the field.
-/// `market_snapshot`: its market came from a snapshot file, which must give its as_of.
-trade read_trade(const json& document, bool market_snapshot = false);
+trade read_trade(const json& document);
 
 /// Read one option leg from an object (shared by `option`, `legs[i]` and structures);
 /// `signed_quantity`: a leg of `legs`, with its quantity and possibly stock.

@@ -44,7 +44,7 @@ inline const std::vector<std::string> rebalance_units = {"days", "weeks", "month
 inline const std::vector<std::string> strike_bases = {"percent_of_spot", "percent_of_forward", "absolute"};
 /// The keys of a strike written as an object: {"percent_of_spot": 95}, {"delta": -0.25}, ...
 inline const std::vector<std::string> strike_forms = {"percent_of_spot", "percent_of_forward", "delta"};
-/// `ladder.smile` and `profile.smile`: how the smile moves when spot moves.
+/// `ladder.smile`: how the smile moves when spot moves.
 inline const std::vector<std::string> smile_moves = {"sticky-strike", "sticky-moneyness"};
 /// Sections of the trade document each read by its own command.
 inline const std::vector<std::string> command_sections = {"quote", "hedge", "simulate", "solve", "ladder", "profile"};
@@ -95,7 +95,7 @@ inline constexpr std::size_t max_smile_expiries = 30;  ///< rows of a volatility
 inline constexpr std::size_t max_smile_strikes = 41;   ///< columns of a volatility grid
 inline constexpr std::size_t max_curve_points = 100;   ///< points of a rate, yield or borrow curve
 inline constexpr double max_strike_percent = 1000;     ///< a strike of ten times spot or forward
-inline constexpr double max_table_cells = 5000;        ///< cells of a pasted table (CSV or tab-separated)
+inline constexpr std::size_t max_table_cells = 5000;   ///< cells of a pasted table (CSV or tab-separated)
 inline constexpr std::size_t max_underlying_chars = 80;
 inline constexpr std::size_t max_as_of_chars = 40;
 inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs/performance.md)

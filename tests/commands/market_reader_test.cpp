@@ -2,6 +2,7 @@
 // their table text and the as_of time, one clear message per bad field.
 #include "commands/market_table.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/dispatch.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -163,4 +164,31 @@ TEST_CASE("the market's as_of is an ISO 8601 date-time and cannot follow the val
     doc["option"].erase("expiry_years");
     doc["option"]["expiry_date"] = "2027-12-02";
     CHECK(read_trade(doc).legs[0].expiry_years == 1.0);
+}
+
+TEST_CASE("a trade without a market is priced in a snapshot; giving both is an error", "[market]") {
+    // The module's path (run_command_text with market text) and the CLI's (--market) share
+    // with_market_snapshot.
+    const std::string trade = R"({"option": {"type": "call", "strike": 100, "expiry_date": "2027-12-02"}})";
+    const std::string snapshot =
+        R"({"as_of": "2026-12-02T16:30:00Z", "underlying": "Fictional Ferries", "spot": 100, "volatility": 0.2,
+            "rate": 0.03})";
+    const json ok = json::parse(run_command_text("price", trade, 1e18, snapshot));
+    REQUIRE(ok["ok"] == true);
+    CHECK(ok["result"]["market_as_of"] == "2026-12-02T16:30:00Z");
+    CHECK(ok["result"]["market"]["underlying"] == "Fictional Ferries");
+    // The same figures as the market written into the trade (the as_of's date is the valuation date).
+    json inline_doc = json::parse(trade);
+    inline_doc["market"] = json::parse(snapshot);
+    CHECK(run_command("price", inline_doc)["premium"] == ok["result"]["premium"]);
+
+    const json both = json::parse(run_command_text("price", inline_doc.dump(), 1e18, snapshot));
+    CHECK(both["error"]["field"] == "market");
+    const json undated =
+        json::parse(run_command_text("price", trade, 1e18, R"({"spot": 100, "volatility": 0.2, "rate": 0.03})"));
+    CHECK(undated["error"]["field"] == "market.as_of");
+    const json bad_cell = json::parse(run_command_text("price", trade, 1e18,
+                                                       R"({"as_of": "2026-12-02T16:30:00Z", "spot": 100, "rate": 0.03,
+            "volatility": {"expiries": [1], "strikes": [90, 110], "vols": [[0.2, -1]]}})"));
+    CHECK(bad_cell["error"]["field"] == "market.volatility.vols[0][1]");
 }
