@@ -3,6 +3,7 @@
 #include "commands/market_table.hpp"
 #include "commands/trade_reader.hpp"
 #include "dispatch/dispatch.hpp"
+#include "test_support.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -22,14 +23,6 @@ json with_market(const json& market_patch) {
 }
 json grid(const json& expiries, const json& strikes, const json& vols) {
     return json{{"volatility", {{"expiries", expiries}, {"strikes", strikes}, {"vols", vols}}}};
-}
-std::string message_of(const json& doc) {
-    try {
-        (void)read_trade(doc);
-    } catch (const input_error& e) {
-        return e.what();
-    }
-    return "(accepted)";
 }
 }  // namespace
 
