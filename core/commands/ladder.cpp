@@ -198,7 +198,7 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
                       "; a volatility shift moves the whole smile in parallel");
     }
     out["notes"] = notes;
-    out["caution"] = client_caution();
+    out["caution"] = client_caution(!t.market.is_plain());
     return out;
 }
 

@@ -168,7 +168,7 @@ json write_solve_result(const trade& t, const solve_settings& s, const solve_res
     out["columns"] = {"leg", "type", "strike", "expiry_years", "exercise", "quantity", "premium"};
     if (shows_market_detail(t) || s.one_leg) out["columns"].push_back("volatility");
     out["notes"] = r.notes;
-    out["caution"] = client_caution();
+    out["caution"] = client_caution(!t.market.is_plain());
     return out;
 }
 

@@ -260,5 +260,8 @@ TEST_CASE("ladders say how the smile moves with spot: sticky strike or sticky mo
     CHECK(sticky_moneyness ==
           Approx(value_with(t.market.volatility_at(100 * 100 / 110.0, 1).volatility, nullptr)).epsilon(1e-12));
     CHECK(sticky_moneyness > sticky_strike);  // the put moves up the skew with the smile
-    CHECK(run_command("ladder", d)["smile"]["moves"] == "sticky-strike");
+    const json out = run_command("ladder", d);
+    CHECK(out["smile"]["moves"] == "sticky-strike");
+    // The caution says what the model assumed of the smile, not "constant volatility".
+    CHECK(out["caution"].get<std::string>().find("at the volatility smile") != std::string::npos);
 }
