@@ -69,7 +69,7 @@ client_price price_for_client(const trade& t, const trade_result& priced, const 
 
 price_result run_price(const trade& t, const price_settings& settings) {
     price_result out;
-    out.priced = price_trade(t, bumped_greeks::on);
+    out.priced = price_trade(t, bumped_greeks::on, error_bound::on);
     if (settings.quote) out.quote = price_for_client(t, out.priced, *settings.quote);
     return out;
 }

@@ -332,6 +332,7 @@ hedge_schedule run_hedge(const trade& given, const hedge_settings& hs) {
     const bool on_lattice = hs.path.kind == path_kind::lattice;
     const std::vector<mark> marks = on_lattice ? lattice_marks(t, hs, out.notes) : price_marks(t, hs, out.notes);
     book_marks(t, hs, marks, out);
+    out.against_price = compare_with_price(t, out.totals.premium);
     const std::string note = on_lattice ? shared_lattice_note(given) : delta_volatility_note(given);
     if (!note.empty()) out.notes.push_back(note);
     return out;

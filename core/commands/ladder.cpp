@@ -3,6 +3,7 @@
 
 #include "analytics/leg_market.hpp"
 #include "commands/cautions.hpp"
+#include "commands/price.hpp"
 #include "commands/trade_reader.hpp"
 #include "numerics/lattice.hpp"
 
@@ -198,6 +199,8 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
                       "; a volatility shift moves the whole smile in parallel");
     }
     out["notes"] = notes;
+    add_price_comparison(out, result.against_price, "The ladder", "ladder.steps",
+                         effective_steps(t.lattice.method, s.steps));
     out["caution"] = client_caution(!t.market.is_plain());
     return out;
 }

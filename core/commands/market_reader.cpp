@@ -11,6 +11,15 @@ namespace hedgeleaf {
 
 namespace {
 
+/// A tenor when `text` reads as one (contract/dates.hpp), else none.
+std::optional<tenor> tenor_of(const std::string& text) {
+    try {
+        return parse_tenor(text, "");
+    } catch (const input_error&) {
+        return std::nullopt;
+    }
+}
+
 /// Where one point of a curve was written: its JSON path, or the table's field and line.
 struct point_place {
     std::string base;                // "market.rate.points" or "market.rate.table"
@@ -54,7 +63,7 @@ std::pair<double, double> read_point(const json& node, std::size_t i, const poin
     const std::string time_field = place.field(i, key);
     const json& when = p.raw(key);
     if (key == "years" && !when.is_number()) as_number(when, time_field);
-    if (key == "tenor" && !(when.is_string() && parse_tenor(when.get<std::string>())))
+    if (key == "tenor" && !(when.is_string() && tenor_of(when.get<std::string>())))
         fail(time_field, prefix + "must be a tenor such as 3m, 6m, 1y, 2w or 10d, got " + describe(when));
     if (key == "date" && !(when.is_string() && when.get_ref<const std::string&>().size() == 10))
         times.years_from_date(when, time_field);  // refuses it as a date
@@ -204,7 +213,10 @@ double years_reader::time_point(const json& value, const std::string& path, cons
     const std::string shape = "must be years (a number), a date YYYY-MM-DD or a tenor such as 3m, 6m, 1y, 2w, 10d";
     if (!value.is_string()) fail(path, prefix + shape + ", got " + describe(value));
     const std::string& text = value.get_ref<const std::string&>();
-    if (const auto t = parse_tenor(text)) return tenor_years(*t, valuation_date);
+    // A tenor falls on its date from the valuation date (modified following), else counts
+    // months as twelfths of a year (contract/dates.hpp).
+    if (const auto t = tenor_of(text))
+        return valuation_date ? year_fraction(*valuation_date, tenor_date(*valuation_date, *t)) : tenor_years(*t);
     if (text.size() == 10 && text[4] == '-' && text[7] == '-') {
         if (!valuation_date)
             fail(path, prefix + "the date \"" + text +
