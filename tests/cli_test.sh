@@ -22,6 +22,24 @@ check "missing file exits 2" '[ $code -eq 2 ]'
 err=$("$cli" nosuchcommand "$root/examples/american-put.json" 2>&1 >/dev/null); code=$?
 check "unknown command exits 2" '[ $code -eq 2 ]'
 
+# A trade priced in a market snapshot file (docs/market.md): results carry its as_of; a trade with
+# its own market as well is refused (neither overrides the other).
+snap="$root/examples/markets/quillmoor.json"
+out=$("$cli" price "$root/examples/markets/collar-trade.json" --market "$snap"); code=$?
+check "price --market exits 0" '[ $code -eq 0 ]'
+check "price --market carries as_of" 'echo "$out" | grep -q "\"market_as_of\": \"2026-12-02T16:30:00Z\""'
+"$cli" ladder "$root/examples/markets/collar-trade.json" --market "$snap" --table | grep -q "sticky-strike"
+check "ladder --market --table states the smile's move" '[ $? -eq 0 ]'
+err=$("$cli" price "$root/examples/american-put.json" --market "$snap" 2>&1 >/dev/null); code=$?
+check "both markets exit 2" '[ $code -eq 2 ]'
+check "both markets message" 'echo "$err" | grep -q "^market: the trade carries its own market and a market snapshot was given too"'
+err=$(echo '{"spot": 100, "volatility": 0.2, "rate": 0.03}' > "${TMPDIR:-/tmp}/hl_snap_$$.json"; "$cli" price "$root/examples/markets/collar-trade.json" --market "${TMPDIR:-/tmp}/hl_snap_$$.json" 2>&1 >/dev/null); code=$?
+rm -f "${TMPDIR:-/tmp}/hl_snap_$$.json"
+check "snapshot without as_of exits 2" '[ $code -eq 2 ]'
+check "snapshot without as_of message" 'echo "$err" | grep -q "^market.as_of: is required in a market snapshot"'
+err=$("$cli" price "$root/examples/markets/collar-trade.json" --market /nonexistent.json 2>&1 >/dev/null); code=$?
+check "missing snapshot exits 2" '[ $code -eq 2 ]'
+
 # hedge, simulate and tree (core/analytics/hedge, simulate, tree; core/commands for their JSON)
 ex="$root/examples/hedge-explicit-spots.json"
 out=$("$cli" hedge "$ex"); code=$?

@@ -8,6 +8,11 @@ root = pathlib.Path(sys.argv[2])
 cli = sys.argv[1]
 schema = json.loads((root / "schema/trade.schema.json").read_text())
 validator = jsonschema.Draft202012Validator(schema)
+# The market snapshot schema refers into the trade schema's market definition.
+market_schema = json.loads((root / "schema/market.schema.json").read_text())
+store = {schema["$id"]: schema, market_schema["$id"]: market_schema}
+market_validator = jsonschema.Draft202012Validator(
+    market_schema, resolver=jsonschema.RefResolver.from_schema(market_schema, store=store))
 passed = failed = 0
 
 def check(ok, what):
@@ -38,6 +43,28 @@ for doc in bad_docs:
     check(not validator.is_valid(doc), f"schema refuses {json.dumps(doc)}")
     run = subprocess.run([cli, "price", "-"], input=json.dumps(doc), capture_output=True, text=True)
     check(run.returncode == 2, f"CLI refuses {json.dumps(doc)}")
+
+# Market snapshots: each one in examples/markets validates, a trade without a market is priced
+# in it, and a snapshot the schema forbids (no as_of, a grid cell out of bounds) is refused.
+for path in sorted((root / "examples/markets").glob("*.json")):
+    doc = json.loads(path.read_text())
+    if "market" in doc or "spot" not in doc:
+        continue  # a trade to price in a snapshot
+    errors = list(market_validator.iter_errors(doc))
+    check(not errors, f"{path.name} against the market schema: {[e.message for e in errors[:3]]}")
+    trade = root / "examples/markets/collar-trade.json"
+    run = subprocess.run([cli, "price", str(trade), "--market", str(path)], capture_output=True, text=True)
+    check(run.returncode == 0, f"{trade.name} priced in {path.name}: {run.stderr.strip()}")
+snapshot = {"as_of": "2026-12-02T16:30:00Z", "spot": 100, "rate": 0.03,
+            "volatility": {"expiries": [1], "strikes": [90, 110], "vols": [[0.2, 0.21]]}}
+check(market_validator.is_valid(snapshot), "market schema takes a grid snapshot")
+bad_snapshots = [
+    {k: v for k, v in snapshot.items() if k != "as_of"},
+    {**snapshot, "volatility": {**snapshot["volatility"], "vols": [[0.2, 6]]}},
+    {**snapshot, "borrow": -0.01},
+]
+for doc in bad_snapshots:
+    check(not market_validator.is_valid(doc), f"market schema refuses {json.dumps(doc)}")
 
 print(f"schema: {passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)

@@ -66,10 +66,15 @@ def nodes_at(schema, path):
 def keywords_of(schema, node):
     """The keywords a field's schema states (merged over its branches; a `const` kind is not a bound)."""
     out = {}
+    types = []
     for b in branches(schema, node):
         for k in KEYWORDS:
-            if k in b:
+            if k == "type" and k in b:
+                types += [t for t in (b[k] if isinstance(b[k], list) else [b[k]]) if t not in types]
+            elif k in b:
                 out[k] = b[k]
+    if types:  # a field with several forms (a number or a grid): the types of all of them
+        out["type"] = types[0] if len(types) == 1 else types
     return out
 
 
@@ -95,6 +100,8 @@ def schema_fields(schema, node=None, path=""):
 
 
 def same(a, b):
+    if isinstance(a, list) and isinstance(b, str):  # one of a field's forms
+        return b in a
     if isinstance(a, list) and isinstance(b, list):
         return sorted(map(str, a)) == sorted(map(str, b))
     if isinstance(a, (int, float)) and isinstance(b, (int, float)) and not isinstance(a, bool):

@@ -1,9 +1,10 @@
 // hedgeleaf: the command-line front end over the same core as the page.
 //
-//   hedgeleaf <command> FILE|- [--table | --csv]
+//   hedgeleaf <command> FILE|- [--market SNAPSHOT] [--table | --csv]
 //   hedgeleaf --version | --vocabulary | --help
 //
 // Exit codes: 0 done, 2 bad input (one line on stderr naming the field), 1 other failure.
+#include "commands/market_reader.hpp"
 #include "dispatch/command_table.hpp"
 #include "dispatch/dispatch.hpp"
 #include "table.hpp"
@@ -20,7 +21,7 @@ namespace {
 using hedgeleaf::json;
 
 int usage(std::ostream& out, int code) {
-    out << "usage: hedgeleaf <command> FILE|- [--table | --csv]\n"
+    out << "usage: hedgeleaf <command> FILE|- [--market SNAPSHOT] [--table | --csv]\n"
            "commands:";
     std::size_t width = 0;
     for (const auto& d : hedgeleaf::command_table()) {
@@ -31,6 +32,8 @@ int usage(std::ostream& out, int code) {
     for (const auto& d : hedgeleaf::command_table())
         out << "  " << d.name << std::string(width + 2 - d.name.size(), ' ') << d.help << "\n";
     out << "  FILE is a trade document (JSON); - reads standard input.\n"
+           "  --market SNAPSHOT prices the trade in a market snapshot file (docs/market.md); the trade then\n"
+           "  carries no market of its own.\n"
            "  --table prints for a human, --csv prints the result's rows for a spreadsheet.\n"
            "  hedgeleaf --version prints the engine version.\n"
            "  hedgeleaf --vocabulary prints the words and limits the engine accepts (JSON).\n";
@@ -62,28 +65,37 @@ int main(int argc, char** argv) {
         return 0;
     }
     if (argc == 2 && (std::string(argv[1]) == "--help" || std::string(argv[1]) == "-h")) return usage(std::cout, 0);
-    if (argc < 3 || argc > 4) return usage(std::cerr, 2);
+    if (argc < 3 || argc > 6) return usage(std::cerr, 2);
     const std::string command = argv[1];
     const std::string path = argv[2];
     std::string format = "json";
-    if (argc == 4) {
-        const std::string flag = argv[3];
-        if (flag == "--table")
-            format = "table";
-        else if (flag == "--csv")
-            format = "csv";
-        else {
-            std::cerr << "hedgeleaf: unknown option " << flag << " (use --table or --csv)\n";
+    std::string market_path;
+    for (int i = 3; i < argc; ++i) {
+        const std::string flag = argv[i];
+        if ((flag == "--table" || flag == "--csv") && format == "json") {
+            format = flag.substr(2);
+        } else if (flag == "--market" && market_path.empty() && i + 1 < argc) {
+            market_path = argv[++i];
+        } else {
+            std::cerr << "hedgeleaf: unknown or repeated option " << flag
+                      << " (use --market SNAPSHOT and one of --table or --csv)\n";
             return 2;
         }
     }
-    std::string text;
+    std::string text, market_text;
     if (!read_input(path, text)) {
         std::cerr << "hedgeleaf: cannot read " << path << "\n";
         return 2;
     }
+    if (!market_path.empty() && (market_path == "-" || !read_input(market_path, market_text))) {
+        std::cerr << "hedgeleaf: cannot read the market snapshot " << market_path << "\n";
+        return 2;
+    }
     try {
-        const json result = hedgeleaf::run_command(command, hedgeleaf::parse_json_text(text));
+        json document = hedgeleaf::parse_json_text(text);
+        if (!market_path.empty())
+            document = hedgeleaf::with_market_snapshot(document, hedgeleaf::parse_json_text(market_text));
+        const json result = hedgeleaf::run_command(command, document);
         if (format == "table") {
             std::cout << hedgeleaf::cli::render_table(result);
         } else if (format == "csv") {

@@ -18,6 +18,12 @@ std::string run(const std::string& command, const std::string& trade_json) {
     return hedgeleaf::run_command_text(command, trade_json, hedgeleaf::page_work_budget);
 }
 
+/// The same with a market snapshot (JSON text, docs/market.md) for a trade without a market
+/// of its own; the result carries the snapshot's market_as_of.
+std::string run_in_market(const std::string& command, const std::string& trade_json, const std::string& market_json) {
+    return hedgeleaf::run_command_text(command, trade_json, hedgeleaf::page_work_budget, market_json);
+}
+
 /// Engine version printed on quote sheets.
 std::string version() { return hedgeleaf::engine_version(); }
 
@@ -35,6 +41,7 @@ std::string vocabulary() { return hedgeleaf::vocabulary().dump(); }
 
 EMSCRIPTEN_BINDINGS(hedgeleaf) {
     emscripten::function("run", &run);
+    emscripten::function("runInMarket", &run_in_market);
     emscripten::function("version", &version);
     emscripten::function("commands", &commands);
     emscripten::function("vocabulary", &vocabulary);

@@ -40,6 +40,13 @@ export interface HedgeleafModule {
    * no such budget.
    */
   run(command: CommandName, tradeJson: string): string;
+  /**
+   * The same for a trade without a market of its own, priced in a market snapshot
+   * (MarketSnapshot as JSON text, schema/market.schema.json): the snapshot becomes the
+   * trade's market (fields named market.<field> in messages); a trade that carries its own
+   * market is refused, as is a snapshot without as_of. Results carry market_as_of.
+   */
+  runInMarket(command: CommandName, tradeJson: string, marketJson: string): string;
   /** Engine version, e.g. "0.1.0" (also in every result as engine_version). */
   version(): string;
   /** The commands this build accepts, comma separated, e.g. "hedge,price,tree". */
@@ -116,21 +123,16 @@ export interface EngineError {
 /** Trade document (the file the CLI reads); the full format is schema/trade.schema.json. */
 export interface TradeDocument {
   valuation_date?: string;               // YYYY-MM-DD; lets other fields be dates
-  market: {
-    spot: number;                        // > 0
-    volatility: number;                  // decimal, > 0, <= 5
-    rate: number;                        // decimal, -1..1
-    carry_yield?: number;                // decimal, -1..1, default 0
-    dividends?: { date?: string; time_years?: number; amount: number }[];
-  };
+  market: Market;
   option?: OptionTerms;                  // exactly one of option, legs, structure
   legs?: (OptionTerms & { quantity: number })[] | { type: "stock"; quantity: number }[];
   structure?: {
     shape: "call-spread" | "put-spread" | "collar" | "risk-reversal" | "straddle" | "strangle" | "seagull" | "covered-call";
-    strikes: number[];                   // ascending
+    strikes: (number | StrikeTerms)[];   // ascending
     expiry_years?: number; expiry_date?: string; expiry_tenor?: string;  // exactly one
     exercise?: "european" | "american";
   };
+  strike_tick?: number;                  // > 0: derived and solved strikes round to a multiple of it
   quantity?: number;                     // > 0, default 1
   side?: "buy" | "sell";                 // the client's side, default buy
   lattice?: { method?: "leisen-reimer" | "crr" | "jarrow-rudd" | "tian"; steps?: number; extrapolate?: boolean };
@@ -138,9 +140,42 @@ export interface TradeDocument {
   [section: string]: unknown;
 }
 
+/** The market (docs/market.md); with as_of it is also a market snapshot file. */
+export interface Market {
+  as_of?: string;                        // ISO 8601 date-time, e.g. "2026-12-03T16:30:00Z"; required in a snapshot
+  underlying?: string;                   // the share's name, plain text, at most 80 characters
+  spot: number;                          // > 0
+  volatility: number | VolatilityGrid;   // decimal, > 0, <= 5; or a smile
+  rate: number | Curve;                  // decimal, -1..1, continuously compounded
+  carry_yield?: number | Curve;          // decimal, -1..1, default 0
+  borrow?: number | Curve;               // stock-loan fee, decimal, 0..1, default 0
+  dividends?: { date?: string; time_years?: number; amount: number }[];
+}
+
+/** A market snapshot file: a market that says when it was taken. */
+export type MarketSnapshot = Market & { as_of: string };
+
+/** Implied volatilities by expiry (rows) and strike (columns), decimals; or the same as table text. */
+export interface VolatilityGrid {
+  strike_basis?: "percent_of_spot" | "percent_of_forward" | "absolute";  // default percent_of_spot
+  expiries?: (number | string)[];        // increasing: years, "YYYY-MM-DD" or tenors "3m", "1y"; at most 30
+  strikes?: number[];                    // increasing, in strike_basis; at most 41
+  vols?: number[][];                     // vols[i][j]: expiry i, strike j
+  table?: string;                        // instead of the three lists: tab, semicolon or comma separated text
+}
+
+/** Continuously compounded zero rates (ACT/365F) at points in time, nearest first; or table text. */
+export interface Curve {
+  points?: { tenor?: string; date?: string; years?: number; rate: number }[];  // one time each; at most 100
+  table?: string;
+}
+
+/** A strike the way desks say it: exactly one key. */
+export type StrikeTerms = { percent_of_spot: number } | { percent_of_forward: number } | { delta: number };
+
 export interface OptionTerms {
   type: "call" | "put" | "digital-call" | "digital-put";
-  strike: number;
+  strike: number | StrikeTerms;                  // a price, or as a percentage or a delta
   expiry_years?: number; expiry_date?: string;   // exactly one of the three
   expiry_tenor?: string;                          // "1w", "3m", "6m", "1y", "18m" (docs/trade-file.md)
   exercise?: "european" | "american" | "bermudan";
@@ -160,7 +195,18 @@ export interface PriceResult {
   replication: { spot: number; shares: number; cash: number; value: number };  // per unit: shares*spot + cash = value
   position: { quantity: number; side: "buy" | "sell"; premium: number; greeks: Greeks };  // signed by side
   legs: { type: string; quantity: number; premium: number; greeks: Greeks; closed_form_premium: number;
-          error_estimate: number; strike?: number; expiry_years?: number; exercise?: string }[];
+          error_estimate: number; strike?: number; expiry_years?: number; exercise?: string;
+          /** With a smile, curves, borrow, derived strikes, strike_tick or as_of: */
+          strike_percent_of_spot?: number;
+          market?: { volatility: number; volatility_extrapolated: boolean; rate: number; carry_yield: number;
+                     borrow: number };     // the leg's volatility and the curves' averages to its expiry
+          strike_written?: { form: "percent_of_spot" | "percent_of_forward" | "delta"; value: number;
+                             before_rounding: number } }[];
+  /** With a smile, curves, borrow, derived strikes, strike_tick or as_of. */
+  market?: { as_of: string | null; underlying: string | null; smile: boolean; rates: string };
+  strike_tick?: number;
+  /** Every command's result, when the market has an as_of. */
+  market_as_of?: string;
   spot: number;
   expiry_years: number;
   notes: string[];                       // from the lattices: not extrapolated and why, fallbacks, rough Greeks

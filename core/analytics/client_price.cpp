@@ -34,12 +34,14 @@ client_price price_for_client(const trade& t, const trade_result& priced, const 
         offer = mid + margin * std::fabs(mid);
     } else if (margin > 0) {
         // A structure can be short volatility: the offer is the dearer of the two re-prices.
-        const auto at_vol = [&](double vol) {
+        // With a smile the whole smile moves by the margin (a parallel move).
+        const auto at_vol = [&](double shift) {
             trade moved = t;
-            moved.market.volatility = vol;
+            moved.market.volatility = t.market.volatility + shift;
+            if (t.market.smile) moved.market.smile_shift += shift;
             return price_trade(moved, bumped_greeks::off).premium;
         };
-        const double up = at_vol(t.market.volatility + margin), down = at_vol(t.market.volatility - margin);
+        const double up = at_vol(margin), down = at_vol(-margin);
         bid = std::min(up, down);
         offer = std::max(up, down);
     }

@@ -5,6 +5,7 @@
 // lattice path), then the accounting of the hedge portfolio from mark to mark.
 #include "analytics/hedge.hpp"
 
+#include "analytics/leg_market.hpp"
 #include "contract/errors.hpp"
 #include "numerics/closed_form.hpp"
 #include "numerics/lattice.hpp"
@@ -310,8 +311,9 @@ option_leg leg_at(const option_leg& leg, double years) {
     return out;
 }
 
-leg_mark mark_leg(const market_data& m, const option_leg& leg, lattice_method method, int steps) {
-    if (leg.type == payoff_kind::stock) return {m.spot, 1.0};
+leg_mark mark_leg(const market_data& market, const option_leg& leg, lattice_method method, int steps) {
+    if (leg.type == payoff_kind::stock) return {market.spot, 1.0};
+    const market_data m = leg_market(market, leg);
     if (leg.exercise == exercise_style::european) {
         const valuation v = closed_form(m, leg);
         return {v.premium, v.sensitivities.delta};
@@ -324,12 +326,15 @@ leg_mark mark_leg(const market_data& m, const option_leg& leg, lattice_method me
     return {p.premium, p.sensitivities.delta};
 }
 
-hedge_schedule run_hedge(const trade& t, const hedge_settings& hs) {
+hedge_schedule run_hedge(const trade& given, const hedge_settings& hs) {
     hedge_schedule out;
-    const std::vector<mark> marks =
-        hs.path.kind == path_kind::lattice ? lattice_marks(t, hs, out.notes) : price_marks(t, hs, out.notes);
+    const trade t = with_fixed_volatilities(given);  // each leg held at today's smile volatility
+    const bool on_lattice = hs.path.kind == path_kind::lattice;
+    const std::vector<mark> marks = on_lattice ? lattice_marks(t, hs, out.notes) : price_marks(t, hs, out.notes);
     book_marks(t, hs, marks, out);
     out.against_price = compare_with_price(t, out.totals.premium);
+    const std::string note = on_lattice ? shared_lattice_note(given) : delta_volatility_note(given);
+    if (!note.empty()) out.notes.push_back(note);
     return out;
 }
 

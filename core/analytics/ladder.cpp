@@ -1,6 +1,7 @@
 // Hedgeleaf analytics: scenario ladders (see ladder.hpp).
 #include "analytics/ladder.hpp"
 
+#include "analytics/leg_market.hpp"
 #include "contract/errors.hpp"
 #include "numerics/lattice.hpp"
 #include "numerics/lattice_price.hpp"
@@ -33,13 +34,8 @@ aged_trade age(const trade& t, const market_data& m, double h) {
         out.alive = t.legs;
         return out;
     }
-    out.market.dividends.clear();
-    for (dividend d : m.dividends)
-        if (d.years > h) {
-            d.years -= h;
-            out.market.dividends.push_back(d);
-        }
-    for (option_leg leg : t.legs) {
+    out.market = m.seen_at(h);  // dividends paid by then drop out; curves run from then
+    for (option_leg leg : with_fixed_volatilities(m, t.legs)) {
         if (leg.type != payoff_kind::stock && leg.expiry_years <= h + expiry_epsilon) {
             out.settled += leg.quantity * exercise_value(leg, m.spot);
             continue;
@@ -97,10 +93,14 @@ double scenario_work(std::size_t scenarios, std::size_t legs, int steps) {
     return static_cast<double>(scenarios) * static_cast<double>(legs) * 0.625 * steps * static_cast<double>(steps);
 }
 
-scenario_value value_scenario(const trade& t, const scenario& s, int steps) {
+scenario_value value_scenario(const trade& t, const scenario& s, int steps, smile_move move) {
     market_data m = t.market;
     m.spot = tidy_decimal(t.market.spot * (1 + s.spot_shift));  // the spot shown in the row
     m.volatility = t.market.volatility + s.vol_shift;
+    if (m.smile) {
+        m.smile_shift += s.vol_shift;
+        if (move == smile_move::sticky_moneyness) m.smile_spot = m.spot;
+    }
     if (!(m.spot > 0)) fail("", "spot shift " + format_number(s.spot_shift) + " leaves no positive spot");
     if (!(m.volatility > 0))
         fail("", "volatility shift " + format_number(s.vol_shift) + " leaves no positive volatility");
@@ -118,7 +118,10 @@ scenario_value value_scenario(const trade& t, const scenario& s, int steps) {
     scenario_value out;
     out.value = aged.settled;
     for (const auto& leg : aged.alive) {
-        const lattice_price p = price_leg(aged.market, leg, fast);
+        const market_data lm = leg_market(aged.market, leg);
+        if (!(lm.volatility > 0))
+            fail("", "volatility shift " + format_number(s.vol_shift) + " leaves a leg with no positive volatility");
+        const lattice_price p = price_leg(lm, leg, fast);
         out.value += leg.quantity * p.premium;
         out.delta += leg.quantity * p.sensitivities.delta;
         out.gamma += leg.quantity * p.sensitivities.gamma;
@@ -136,7 +139,7 @@ ladder_result run_ladder(const trade& t, const ladder_settings& settings) {
 
     const auto value_at = [&](const scenario& s) {
         try {
-            return value_scenario(t, s, settings.steps);
+            return value_scenario(t, s, settings.steps, settings.smile);
         } catch (const work_exhausted&) {
             throw;  // the budget, not this trial value
         } catch (const input_error& e) {

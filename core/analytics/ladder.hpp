@@ -23,6 +23,14 @@ struct scenario {
     double years_ahead = 0;  ///< time moved forward; legs expired by then are paid at their payoff
 };
 
+/// How a smile moves when spot moves (contract/limits.hpp: smile_moves, in this order).
+///   sticky_strike     each strike keeps its volatility: the smile stays where it is in price
+///                     (the default; common desk practice for short-dated equity scenarios);
+///   sticky_moneyness  the smile moves with spot: the volatility at strike K with spot S' is
+///                     today's volatility at strike K S / S'.
+/// A volatility shift moves the whole smile in parallel. Without a smile neither matters.
+enum class smile_move { sticky_strike, sticky_moneyness };
+
 /// Per-unit value and lattice Greeks of the trade in one scenario.
 struct scenario_value {
     double value = 0;
@@ -34,7 +42,10 @@ struct scenario_value {
 /// with `steps` lattice steps of the trade's method and Richardson extrapolation.
 /// Throws input_error (no field: the caller knows which input set the scenario)
 /// when the scenario leaves no valid market.
-scenario_value value_scenario(const trade& t, const scenario& s, int steps);
+/// Each leg is priced at its own volatility (analytics/leg_market.hpp); a scenario that moves
+/// time holds every leg at today's volatility.
+scenario_value value_scenario(const trade& t, const scenario& s, int steps,
+                              smile_move move = smile_move::sticky_strike);
 
 /// Node updates of pricing `scenarios` scenarios of `legs` legs at `steps` steps (the
 /// fine and coarse lattices of the full triangle), held to max_ladder_work.
@@ -53,6 +64,7 @@ struct ladder_settings {
     std::vector<double> vol_shifts;   ///< volatility and grid
     std::vector<long> days;           ///< time: calendar days ahead
     std::string axis_path;            ///< the field to change when a scenario cannot be priced
+    smile_move smile = smile_move::sticky_strike;
 };
 
 /// One row: the scenario and the trade's value there, per unit and for the position.

@@ -1,6 +1,8 @@
 // Hedgeleaf analytics: trade-level pricing (see pricing.hpp).
 #include "analytics/pricing.hpp"
 
+#include "analytics/leg_market.hpp"
+
 #include <cmath>
 
 namespace hedgeleaf {
@@ -11,8 +13,10 @@ trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estima
     for (const auto& leg : t.legs) {
         leg_result lr;
         lr.leg = leg;
-        lr.lattice = price_leg(t.market, leg, t.lattice, bumps, estimate);
-        lr.reference = closed_form(t.market, leg);
+        const market_data m = leg_market(t.market, leg);
+        lr.volatility = leg_volatility(t.market, leg);
+        lr.lattice = price_leg(m, leg, t.lattice, bumps, estimate);
+        lr.reference = closed_form(m, leg);
         out.premium += leg.quantity * lr.lattice.premium;
         out.sensitivities = out.sensitivities + leg.quantity * lr.lattice.sensitivities;
         out.reference.premium += leg.quantity * lr.reference.premium;

@@ -11,8 +11,9 @@ namespace hedgeleaf {
 
 struct leg_result {
     option_leg leg;
-    lattice_price lattice;  ///< per unit of the leg (quantity not applied)
-    valuation reference;    ///< closed-form European value, per unit of the leg
+    lattice_price lattice;   ///< per unit of the leg (quantity not applied)
+    valuation reference;     ///< closed-form European value, per unit of the leg
+    smile_point volatility;  ///< the volatility the leg was priced at, and whether it lies beyond the smile
 };
 
 /// Shares and cash that replicate the trade today: shares * spot + cash = value.
@@ -38,9 +39,11 @@ struct trade_result {
     std::vector<leg_result> legs;
 };
 
-/// Price every leg on its own lattice (each centred on its strike) and sum them; vega and
-/// rho by re-pricing when `bumps` is on (the price command), else left 0 (ladders, quotes);
-/// the error bound when `estimate` is on (the price command).
+/// Price every leg on its own lattice (each centred on its strike, at its own volatility:
+/// analytics/leg_market.hpp) and sum them; vega and rho by re-pricing when `bumps` is on (the
+/// price command), else left 0 (ladders, quotes); the error bound when `estimate` is on (the
+/// price command). With a smile, vega is per point of a parallel move of the whole smile and
+/// rho per point of a parallel move of the rate curve.
 trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estimate = error_bound::off);
 
 /// One trade, one premium: another card's value of the trade today (hedge schedule, ladder,

@@ -2,6 +2,7 @@
 #include "analytics/profile.hpp"
 
 #include "analytics/ladder.hpp"
+#include "analytics/leg_market.hpp"
 #include "analytics/pricing.hpp"
 #include "contract/errors.hpp"
 #include "numerics/closed_form.hpp"
@@ -165,6 +166,10 @@ void profile_notes(const trade& t, const profile_settings& s, profile_result& ou
             "a stock leg pays the share price at expiry; dividends received before then are not in the payoff");
     if (std::any_of(t.legs.begin(), t.legs.end(), is_digital))
         out.notes.push_back("a digital's payoff jumps at its strike: a break-even there is where the P&L changes sign");
+    if (t.market.smile)
+        out.notes.push_back(
+            "each leg is valued at the smile's volatility for its strike and expiry; value today at other spots "
+            "keeps each strike's volatility (sticky strike), and later legs keep today's volatility");
 }
 
 }  // namespace
@@ -184,6 +189,8 @@ double horizon_payoff(const trade& t, double s, double horizon_years) {
         market_data m = later;
         const double pv = m.dividend_pv(0, rest.expiry_years);
         m.spot = std::max(s, pv * (1 + 1e-12) + 1e-12);
+        if (t.market.smile || leg.volatility)
+            m.volatility = leg_volatility(t.market, leg).volatility;  // held at today's
         total += leg.quantity * closed_form(m, rest).premium;
     }
     return total;

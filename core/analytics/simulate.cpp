@@ -7,6 +7,7 @@
 // frequency; then the summaries and a histogram on shared edges.
 #include "analytics/simulate.hpp"
 
+#include "analytics/leg_market.hpp"
 #include "analytics/pnl_statistics.hpp"
 #include "analytics/replication.hpp"
 #include "contract/errors.hpp"
@@ -105,7 +106,8 @@ int delta_table_steps(const simulate_settings& st, const date_grid& dates) {
 
 // The leg's delta `from_years` on, `tau` years before its expiry, with the rate and the
 // carry averaged over that remaining life (the plain numbers when they are flat).
-euro_delta euro_delta_for(const market_data& m, const option_leg& leg, double from_years, double tau) {
+euro_delta euro_delta_for(const market_data& market, const option_leg& leg, double from_years, double tau) {
+    const market_data m = leg_market(market, leg);  // the leg's own volatility
     const double vol_t = m.volatility * std::sqrt(tau);
     const double r = m.rate.average(from_years, leg.expiry_years);
     const double q = m.carry_average(from_years, leg.expiry_years);
@@ -188,7 +190,7 @@ double opening_premium(const trade& t, const frequency_plan& first) {
         if (leg.type == payoff_kind::stock)
             premium += leg.quantity * m.spot;
         else if (leg.exercise == exercise_style::european)
-            premium += leg.quantity * closed_form(m, leg).premium;
+            premium += leg.quantity * closed_form(leg_market(m, leg), leg).premium;
         else
             premium += leg.quantity * first.levels[i][0].value[0];
     }
@@ -346,7 +348,8 @@ void derman_kamal_reference(const trade& t, const simulate_settings& st, simulat
                        (t.legs[0].type == payoff_kind::call || t.legs[0].type == payoff_kind::put) &&
                        t.legs[0].exercise == exercise_style::european;
     if (!out.derman_kamal) return;
-    const double vega = std::fabs(t.legs[0].quantity) * closed_form(t.market, t.legs[0]).sensitivities.vega;
+    const double vega =
+        std::fabs(t.legs[0].quantity) * closed_form(leg_market(t.market, t.legs[0]), t.legs[0]).sensitivities.vega;
     for (auto& s : out.frequencies) s.derman_kamal_sd = derman_kamal_sd(vega, st.volatility, s.rebalancings);
 }
 
@@ -356,8 +359,9 @@ double derman_kamal_sd(double vega, double sigma, int n) {
     return std::sqrt(M_PI / 4.0) * std::fabs(vega) * sigma / std::sqrt(static_cast<double>(n));
 }
 
-simulation run_simulation(const trade& t, const simulate_settings& st) {
+simulation run_simulation(const trade& given, const simulate_settings& st) {
     simulation out;
+    const trade t = with_fixed_volatilities(given);  // each leg held at today's smile volatility
     const date_grid dates = simulation_dates(t, st);
 
     // Delta method per leg: closed form if European, a lattice table otherwise.
@@ -398,6 +402,12 @@ simulation run_simulation(const trade& t, const simulate_settings& st) {
     fill_histograms(st, range, out);
     desk_figures(st, desk_pnl, out);
     derman_kamal_reference(t, st, out);
+    if (given.market.smile) {
+        out.notes.push_back(delta_volatility_note(given));
+        if (!out.closed_form_delta)
+            out.notes.push_back("American and Bermudan legs take value and delta from tables on one lattice; " +
+                                shared_lattice_note(given));
+    }
     return out;
 }
 

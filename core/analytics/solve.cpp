@@ -1,6 +1,8 @@
 // Hedgeleaf analytics: one unknown for a target (see solve.hpp).
 #include "analytics/solve.hpp"
 
+#include "analytics/leg_market.hpp"
+#include "analytics/strikes.hpp"
 #include "contract/errors.hpp"
 #include "numerics/closed_form.hpp"
 #include "numerics/lattice_price.hpp"
@@ -32,8 +34,9 @@ std::string pricing_label(const std::vector<option_leg>& legs) {
     return any_lattice ? "lattice" : "closed-form";
 }
 
-double leg_premium(const market_data& m, const option_leg& leg, const lattice_settings& settings) {
-    if (leg.type == payoff_kind::stock) return m.spot;
+double leg_premium(const market_data& market, const option_leg& leg, const lattice_settings& settings) {
+    if (leg.type == payoff_kind::stock) return market.spot;
+    const market_data m = leg_market(market, leg);
     if (!on_lattice(leg)) return closed_form(m, leg).premium;
     return price_leg(m, leg, settings).premium;
 }
@@ -66,7 +69,8 @@ double premium_or_fail(const search& s, double x) {
     } catch (const work_exhausted&) {
         throw;  // the budget, not this trial value
     } catch (const input_error& e) {
-        const bool near_lower = std::fabs(std::log(x / s.lower)) <= std::fabs(std::log(s.upper / x));
+        const bool near_lower = s.lower > 0 ? std::fabs(std::log(x / s.lower)) <= std::fabs(std::log(s.upper / x))
+                                            : x - s.lower <= s.upper - x;  // a smile's move may start below 0
         fail(near_lower ? s.lower_path : s.upper_path, "the lattice cannot price the trade at " + s.unknown + " " +
                                                            format_number(x) + " (" + e.what() +
                                                            "); narrow the search range");
@@ -94,7 +98,7 @@ root_result run_search(const search& s, double spot) {
 std::vector<solved_leg> price_legs(const market_data& m, const std::vector<option_leg>& legs,
                                    const lattice_settings& settings) {
     std::vector<solved_leg> out;
-    for (const auto& leg : legs) out.push_back({leg, leg_premium(m, leg, settings)});
+    for (const auto& leg : legs) out.push_back({leg, leg_premium(m, leg, settings), leg_volatility(m, leg).volatility});
     return out;
 }
 
@@ -134,9 +138,29 @@ std::optional<premium_range> option_premium_range(const trade& t) {
     return out;
 }
 
+// The market the volatility solve prices at `x`: the one volatility replaced, the whole smile
+// moved in parallel by x, or (one leg) unchanged while that leg takes x as its own.
+market_data volatility_market(const trade& t, const solve_settings& settings, double x) {
+    market_data m = t.market;
+    if (settings.one_leg) return m;
+    if (m.smile) {
+        m.smile_shift += x;
+        m.volatility += x;
+    } else {
+        m.volatility = x;
+    }
+    return m;
+}
+
+std::string volatility_unknown(const trade& t, const solve_settings& settings) {
+    if (settings.one_leg) return "legs[" + std::to_string(settings.leg) + "] volatility";
+    return t.market.smile ? "parallel move of the smile" : "volatility";
+}
+
 solve_result solve_volatility(const trade& t, const solve_settings& settings) {
     solve_result out;
-    search s = search_of(settings, "volatility");
+    out.solved_for = volatility_unknown(t, settings);
+    search s = search_of(settings, out.solved_for);
     if (const auto range = option_premium_range(t)) {
         const std::string kind = to_string(t.legs.front().exercise) + " " + to_string(t.legs.front().type);
         if (!(s.target > range->lower))
@@ -152,18 +176,37 @@ solve_result solve_volatility(const trade& t, const solve_settings& settings) {
             "the net premium of a structure or a digital need not rise with volatility; the solution "
             "found in the range is one of possibly several");
     }
-    s.premium_at = [&](double vol) {
-        market_data m = t.market;
-        m.volatility = vol;
-        return solver_net_premium(m, t.legs, t.lattice);
+    std::vector<option_leg> legs = t.legs;
+    s.premium_at = [&](double x) {
+        if (settings.one_leg) legs[settings.leg].volatility = x;
+        return solver_net_premium(volatility_market(t, settings, x), legs, t.lattice);
     };
     out.root = run_search(s, t.market.spot);
-    market_data solved = t.market;
-    solved.volatility = out.root.x;
-    out.notes.push_back("market.volatility in the file is not used; the solution replaces it");
+    if (settings.one_leg) {
+        legs[settings.leg].volatility = out.root.x;
+        out.notes.push_back("the solution is legs[" + std::to_string(settings.leg) +
+                            "]'s own volatility; the other legs keep theirs");
+    } else if (t.market.smile) {
+        out.notes.push_back(
+            "the solution is a parallel move of the whole smile, in volatility (0.01 = one point): every leg's "
+            "volatility moves by it (rows give each leg's volatility at the solution)");
+    } else {
+        out.notes.push_back("market.volatility in the file is not used; the solution replaces it");
+    }
     out.solution = out.root.x;
     out.target_premium = s.target;
-    out.legs = price_legs(solved, t.legs, t.lattice);
+    out.legs = price_legs(volatility_market(t, settings, out.root.x), legs, t.lattice);
+    return out;
+}
+
+// The solved strike on the strike_tick grid, and the cost left by rounding it.
+rounded_strike round_solved_strike(const trade& t, std::vector<option_leg> legs, std::size_t index, double target) {
+    rounded_strike out;
+    out.strike = round_to_tick(legs[index].strike, *t.strike_tick);
+    legs[index].strike = out.strike;
+    out.premium = solver_net_premium(t.market, legs, t.lattice);
+    out.residual = out.premium - target;
+    out.legs = price_legs(t.market, legs, t.lattice);
     return out;
 }
 
@@ -172,6 +215,7 @@ solve_result solve_strike(const trade& t, const solve_settings& settings) {
     const std::size_t index = settings.leg;
     const option_leg& chosen = t.legs[index];
     search s = search_of(settings, "strike of leg " + std::to_string(index));
+    out.solved_for = "legs[" + std::to_string(index) + "] strike";
     std::vector<option_leg> legs = t.legs;
     s.premium_at = [&](double strike) {
         legs[index].strike = strike;
@@ -192,9 +236,17 @@ solve_result solve_strike(const trade& t, const solve_settings& settings) {
                                 format_number(t.legs[j].strike) +
                                 ", unlike the trade as written; the legs no longer make the same shape");
     }
+    if (t.market.smile) out.notes.push_back("each trial strike is priced at the smile's volatility for that strike");
     out.solution = out.root.x;
     out.target_premium = s.target;
     out.legs = price_legs(t.market, legs, t.lattice);
+    if (t.strike_tick) {
+        out.rounded = round_solved_strike(t, legs, index, s.target);
+        out.notes.push_back("the solved strike rounds to " + format_number(out.rounded->strike) + " (strike_tick " +
+                            format_number(*t.strike_tick) + "); there the trade costs " +
+                            format_number(out.rounded->premium) + " per unit instead of " + format_number(s.target) +
+                            " (rounded.residual)");
+    }
     return out;
 }
 
@@ -255,9 +307,22 @@ double solver_net_premium(const market_data& market, const std::vector<option_le
     return total;
 }
 
-volatility_range default_volatility_range(const trade& t) {
+volatility_range default_volatility_range(const trade& t, std::optional<std::size_t> leg) {
     const bool any_lattice = std::any_of(t.legs.begin(), t.legs.end(), on_lattice);
-    return {any_lattice ? 0.01 : 1e-4, highest_volatility(t.final_expiry_years())};
+    const double floor = any_lattice ? 0.01 : 1e-4;
+    if (leg) return {floor, highest_volatility(t.legs[*leg].expiry_years)};
+    if (!t.market.smile) return {floor, highest_volatility(t.final_expiry_years())};
+    // The parallel move that keeps every leg between the floor and its lattice's limit.
+    volatility_range out{-1e300, 1e300};
+    for (const auto& l : t.legs) {
+        if (l.type == payoff_kind::stock) continue;
+        const double v = leg_volatility(t.market, l).volatility;
+        out.lower = std::max(out.lower, floor - v);
+        out.upper = std::min(out.upper, highest_volatility(l.expiry_years) - v);
+    }
+    out.lower = std::ceil(out.lower * 1e8) / 1e8;  // tidy bounds for the result
+    out.upper = std::floor(out.upper * 1e8) / 1e8;
+    return out;
 }
 
 solve_result run_solve(const trade& t, const solve_settings& settings) {

@@ -4,6 +4,8 @@
 namespace hedgeleaf {
 
 /// The caution shown wherever a price reaches a client (quote, solve, ladder, profile).
-const char* client_caution();
+/// `term_structures`: the market has a smile, curves or a borrow fee, and the caution says
+/// what the model assumed of them instead of "constant volatility and interest rates".
+const char* client_caution(bool term_structures = false);
 
 }  // namespace hedgeleaf

@@ -1,6 +1,7 @@
 // Hedgeleaf commands: the `ladder` section and the ladder command's result (see ladder.hpp).
 #include "commands/ladder.hpp"
 
+#include "analytics/leg_market.hpp"
 #include "commands/cautions.hpp"
 #include "commands/price.hpp"
 #include "commands/trade_reader.hpp"
@@ -113,7 +114,10 @@ ladder_settings read_ladder_settings(const json& document, const trade& t) {
     ladder_settings s;
     s.kind = enum_of<ladder_kind>(ladder_kinds, r.choice_or("kind", ladder_kinds, "spot"));
     s.steps = static_cast<int>(r.integer_or("steps", default_ladder_steps, 1, max_ladder_steps));
+    s.smile = enum_of<smile_move>(smile_moves, r.choice_or("smile", smile_moves, "sticky-strike"));
     const double vol = t.market.volatility;
+    // Every leg's volatility must stay priceable: with a smile, the lowest and the highest leg.
+    const volatility_span span = leg_volatility_span(t.market, t.legs);
     const double expiry_years = t.final_expiry_years();
     if (moves_spot(s.kind)) {
         s.spot_shifts =
@@ -122,9 +126,12 @@ ladder_settings read_ladder_settings(const json& document, const trade& t) {
     }
     if (moves_volatility(s.kind)) {
         const double highest = highest_volatility(expiry_years);  // the lattice's limit for this expiry
-        s.vol_shifts = read_axis(r, "vol", vol_axis, min_ladder_volatility - vol, highest - vol,
-                                 " (volatility " + format_number(vol) + " must stay within " +
-                                     format_number(min_ladder_volatility) + " .. " + format_number(highest) + ")");
+        const std::string vols =
+            t.market.smile ? "leg volatilities " + format_number(span.lowest) + " .. " + format_number(span.highest)
+                           : "volatility " + format_number(vol);
+        s.vol_shifts = read_axis(r, "vol", vol_axis, min_ladder_volatility - span.lowest, highest - span.highest,
+                                 " (" + vols + " must stay within " + format_number(min_ladder_volatility) + " .. " +
+                                     format_number(highest) + ")");
         if (s.kind == ladder_kind::volatility) s.axis_path = r.child("vol_from");
     }
     if (s.kind == ladder_kind::time) {
@@ -179,10 +186,22 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
         notes.push_back(
             "spot and volatility held; legs that have expired are paid at their payoff at today's spot; "
             "dividends paid by then drop out; premium is not carried");
+    if (t.market.smile) {
+        out["smile"] = {{"moves", word_of(smile_moves, s.smile)}, {"volatility_shift", "parallel"}};
+        notes.push_back(
+            s.kind == ladder_kind::time
+                ? "each leg is held at today's smile volatility for its strike and expiry as time passes"
+                : std::string("each leg is priced at the smile's volatility for its strike and expiry; ") +
+                      (s.smile == smile_move::sticky_strike
+                           ? "sticky strike: when spot moves each strike keeps its volatility"
+                           : "sticky moneyness: the smile moves with spot (strike K at spot S' takes today's "
+                             "volatility at K x spot / S')") +
+                      "; a volatility shift moves the whole smile in parallel");
+    }
     out["notes"] = notes;
     add_price_comparison(out, result.against_price, "The ladder", "ladder.steps",
                          effective_steps(t.lattice.method, s.steps));
-    out["caution"] = client_caution();
+    out["caution"] = client_caution(!t.market.is_plain());
     return out;
 }
 

@@ -1,6 +1,7 @@
 // Hedgeleaf commands: the price command (see price.hpp).
 #include "commands/price.hpp"
 
+#include "analytics/leg_market.hpp"
 #include "commands/quote.hpp"
 
 #include <algorithm>
@@ -16,9 +17,25 @@ json greeks_json(const greeks& g) {
     return json{{"delta", g.delta}, {"gamma", g.gamma}, {"theta", g.theta}, {"vega", g.vega}, {"rho", g.rho}};
 }
 
+namespace {
+
+// The market a leg was priced in: its volatility (and whether the smile was held flat beyond
+// its grid) and the curves' averages from today to its expiry, continuously compounded.
+json leg_market_json(const market_data& m, const leg_result& lr) {
+    const double t = lr.leg.expiry_years;
+    return json{{"volatility", lr.volatility.volatility},
+                {"volatility_extrapolated", lr.volatility.extrapolated()},
+                {"rate", m.rate.average(0, t)},
+                {"carry_yield", m.carry_yield.average(0, t)},
+                {"borrow", m.borrow.average(0, t)}};
+}
+
+}  // namespace
+
 json write_price_result(const trade& t, const price_settings& settings, const price_result& result) {
     const trade_result& r = result.priced;
     const double q = t.signed_quantity();
+    const bool detail = shows_market_detail(t);  // a plain trade keeps the result it always had
     json legs = json::array();
     for (const auto& lr : r.legs) {
         json leg{{"type", to_string(lr.leg.type)},
@@ -31,6 +48,15 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
             leg["strike"] = lr.leg.strike;
             leg["expiry_years"] = lr.leg.expiry_years;
             leg["exercise"] = to_string(lr.leg.exercise);
+            if (detail) {
+                leg["strike_percent_of_spot"] = 100 * lr.leg.strike / t.market.spot;
+                leg["market"] = leg_market_json(t.market, lr);
+                const strike_terms& given = lr.leg.strike_given;
+                if (given.form != strike_form::price)
+                    leg["strike_written"] = {{"form", strike_forms[static_cast<int>(given.form) - 1]},
+                                             {"value", given.value},
+                                             {"before_rounding", given.unrounded}};
+            }
         }
         legs.push_back(leg);
     }
@@ -65,7 +91,16 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
         for (const auto& note : lr.lattice.notes)
             if (std::find(notes.begin(), notes.end(), note) == notes.end()) notes.push_back(note);
     out["notes"] = notes;
-    if (result.quote) out["client_price"] = write_client_price(*settings.quote, *result.quote);
+    if (detail) {
+        out["market"] = {{"as_of", t.market.as_of.empty() ? json(nullptr) : json(t.market.as_of)},
+                         {"underlying", t.market.underlying.empty() ? json(nullptr) : json(t.market.underlying)},
+                         {"smile", t.market.smile != nullptr},
+                         {"rates",
+                          "leg rate, carry_yield and borrow: averages of the continuously compounded "
+                          "curves (ACT/365F) from today to the leg's expiry"}};
+        if (t.strike_tick) out["strike_tick"] = *t.strike_tick;
+    }
+    if (result.quote) out["client_price"] = write_client_price(*settings.quote, *result.quote, !t.market.is_plain());
     return out;
 }
 

@@ -74,7 +74,7 @@ json write_profile_result(const trade& t, const profile_settings& s, const profi
         out["position_min_pnl_at_expiry"] = optional_number(p.position_min_pnl);
     }
     out["notes"] = p.notes;
-    out["caution"] = client_caution();
+    out["caution"] = client_caution(!t.market.is_plain());
     return out;
 }
 

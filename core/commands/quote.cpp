@@ -97,7 +97,7 @@ std::optional<quote_terms> read_quote_terms(const json& document, const trade& t
     return q;
 }
 
-json write_client_price(const quote_terms& terms, const client_price& price) {
+json write_client_price(const quote_terms& terms, const client_price& price, bool term_structures) {
     return json{{"currency", terms.currency.empty() ? json(nullptr) : json(terms.currency)},
                 {"margin_type", word_of(margin_types, terms.margin_type)},
                 {"margin", terms.margin},
@@ -114,7 +114,7 @@ json write_client_price(const quote_terms& terms, const client_price& price) {
                 {"desk_margin_total", price.desk_margin_total},
                 {"client", terms.client ? json(*terms.client) : json(nullptr)},
                 {"notes", terms.notes ? json(*terms.notes) : json(nullptr)},
-                {"caution", client_caution()}};
+                {"caution", client_caution(term_structures)}};
 }
 
 }  // namespace hedgeleaf

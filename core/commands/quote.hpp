@@ -13,6 +13,6 @@ namespace hedgeleaf {
 std::optional<quote_terms> read_quote_terms(const json& document, const trade& t);
 
 /// The `client_price` object of the price result.
-json write_client_price(const quote_terms& terms, const client_price& price);
+json write_client_price(const quote_terms& terms, const client_price& price, bool term_structures = false);
 
 }  // namespace hedgeleaf

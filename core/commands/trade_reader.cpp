@@ -1,6 +1,8 @@
 // Hedgeleaf commands: reading and validating the trade document (see trade_reader.hpp).
 #include "commands/trade_reader.hpp"
 
+#include "analytics/leg_market.hpp"
+#include "analytics/strikes.hpp"
 #include "contract/structures.hpp"
 
 #include <algorithm>
@@ -9,49 +11,6 @@
 namespace hedgeleaf {
 
 namespace {
-
-market_data read_market(const json& node, const years_reader& times) {
-    field_reader r(node, "market");
-    market_data m;
-    m.spot = r.number("spot");
-    require_positive(m.spot, r.child("spot"));
-    require_at_most(m.spot, max_price_level, r.child("spot"));
-    m.volatility = r.number("volatility");
-    require_positive(m.volatility, r.child("volatility"));
-    require_at_most(m.volatility, max_volatility, r.child("volatility"));
-    // One number each for now: a flat curve (term structures are read in the market section's own reader).
-    const double rate = r.number("rate");
-    require_at_least(rate, -max_abs_rate, r.child("rate"));
-    require_at_most(rate, max_abs_rate, r.child("rate"));
-    m.rate = curve::flat(rate);
-    const double carry_yield = r.number_or("carry_yield", 0.0);
-    require_at_least(carry_yield, -max_abs_rate, r.child("carry_yield"));
-    require_at_most(carry_yield, max_abs_rate, r.child("carry_yield"));
-    m.carry_yield = curve::flat(carry_yield);
-    if (const json* divs = r.raw_optional("dividends")) {
-        const std::string path = r.child("dividends");
-        if (!divs->is_array()) fail(path, "must be a list of {time_years or date, amount}, got " + describe(*divs));
-        if (divs->size() > max_dividends)
-            fail(path, "has " + std::to_string(divs->size()) + " entries, at most " + std::to_string(max_dividends));
-        for (std::size_t i = 0; i < divs->size(); ++i) {
-            field_reader d((*divs)[i], index_path(path, i));
-            dividend div;
-            div.years = times.read_years(d, "time_years", "date");
-            require_positive(div.years, d.child(d.has("date") ? "date" : "time_years"));
-            div.amount = d.number("amount");
-            require_non_negative(div.amount, d.child("amount"));
-            if (!(div.amount < m.spot))
-                fail(d.child("amount"),
-                     "must be below market.spot " + format_number(m.spot) + ", got " + format_number(div.amount));
-            d.finish();
-            m.dividends.push_back(div);
-        }
-        std::sort(m.dividends.begin(), m.dividends.end(),
-                  [](const dividend& a, const dividend& b) { return a.years < b.years; });
-    }
-    r.finish();
-    return m;
-}
 
 lattice_settings read_lattice(const json* node) {
     lattice_settings s;
@@ -160,26 +119,63 @@ std::vector<double> read_exercise_schedule(field_reader& r, const years_reader& 
     return out;
 }
 
-}  // namespace
-
-double years_reader::years_from_date(const json& value, const std::string& path) const {
-    if (!value.is_string()) fail(path, "must be a date written YYYY-MM-DD, got " + describe(value));
-    const date d = parse_iso_date(value.get<std::string>(), path);
-    if (!valuation_date) fail(path, "a date needs valuation_date at the top of the trade (or give years instead)");
-    return year_fraction(*valuation_date, d);
-}
-double years_reader::read_years(field_reader& r, const std::string& years_key, const std::string& date_key) const {
-    const bool has_years = r.has(years_key);
-    const bool has_date = r.has(date_key);
-    if (has_years && has_date) fail(r.child(years_key), "give either " + years_key + " or " + date_key + ", not both");
-    if (!has_years && !has_date) {
-        r.raw_optional(years_key);
-        r.raw_optional(date_key);
-        fail(r.child(years_key), "is required (or give " + date_key + " as YYYY-MM-DD)");
+/// A strike as written: a price (105), or one of {"percent_of_spot": 95},
+/// {"percent_of_forward": 100} or {"delta": -0.25} (analytics/strikes.hpp). `type` is the
+/// option the strike belongs to (a delta's sign follows it).
+strike_terms read_strike_terms(const json& value, const std::string& path, payoff_kind type) {
+    strike_terms out;
+    if (!value.is_object()) {
+        out.value = as_number(value, path);
+        require_positive(out.value, path);
+        require_at_most(out.value, max_price_level, path);
+        out.unrounded = out.value;
+        return out;
     }
-    if (has_years) return r.number(years_key);
-    return years_from_date(r.raw(date_key), r.child(date_key));
+    field_reader r(value, path);
+    std::string key;
+    for (const auto& form : strike_forms)
+        if (r.has(form)) key = key.empty() ? form : "two";
+    if (key.empty() || key == "two") {
+        for (const auto& form : strike_forms) r.raw_optional(form);
+        r.finish();  // a misspelt form is named first
+        fail(path,
+             "write a strike as a price (105) or as one of {\"percent_of_spot\": 95}, "
+             "{\"percent_of_forward\": 100} or {\"delta\": -0.25}");
+    }
+    out.form = enum_of<strike_form>(strike_forms, key);
+    out.form = static_cast<strike_form>(static_cast<int>(out.form) + 1);  // after strike_form::price
+    const std::string field = r.child(key);
+    out.value = r.number(key);
+    r.finish();
+    if (out.form != strike_form::delta) {
+        require_positive(out.value, field);
+        require_at_most(out.value, max_strike_percent, field);
+        return out;
+    }
+    const bool call = type == payoff_kind::call, put = type == payoff_kind::put;
+    if (!call && !put)
+        fail(field, "a strike by delta is for calls and puts; give a digital's strike as a price or a percentage");
+    if (call && !(out.value > 0 && out.value < 1))
+        fail(field, "a call's delta lies between 0 and 1 (0.25 for a 25-delta call), got " + format_number(out.value));
+    if (put && !(out.value < 0 && out.value > -1))
+        fail(field, "a put's delta lies between -1 and 0 (-0.25 for a 25-delta put), got " + format_number(out.value));
+    return out;
 }
+
+/// The strike of a leg written as a percentage or a delta, rounded to the trade's strike_tick.
+void resolve_strike(const trade& t, option_leg& leg, const std::string& path) {
+    if (leg.type == payoff_kind::stock || leg.strike_given.form == strike_form::price) return;
+    const double k = strike_from_terms(t.market, leg, leg.strike_given, path);
+    leg.strike_given.unrounded = k;
+    leg.strike = t.strike_tick ? round_to_tick(k, *t.strike_tick) : k;
+    if (!(leg.strike > 0))
+        fail(path, "gives a strike of " + format_number(k) + ", which rounds to 0 with strike_tick " +
+                       format_number(*t.strike_tick) + "; use a smaller strike_tick");
+    if (!(leg.strike <= max_price_level))
+        fail(path, "gives a strike of " + format_number(k) + ", above " + format_number(max_price_level));
+}
+
+}  // namespace
 
 option_leg read_option_leg(field_reader& r, const years_reader& times, bool signed_quantity) {
     option_leg leg;
@@ -193,9 +189,8 @@ option_leg read_option_leg(field_reader& r, const years_reader& times, bool sign
         r.finish();
         return leg;
     }
-    leg.strike = r.number("strike");
-    require_positive(leg.strike, r.child("strike"));
-    require_at_most(leg.strike, max_price_level, r.child("strike"));
+    leg.strike_given = read_strike_terms(r.raw("strike"), r.child("strike"), leg.type);
+    leg.strike = leg.strike_given.form == strike_form::price ? leg.strike_given.value : 0.0;  // others: resolved later
     leg.expiry_years = read_expiry(r, times);
     leg.exercise = parse_exercise_style(r.choice_or("exercise", exercise_styles, "european"));
     leg.payout = read_payout(r, leg);
@@ -208,7 +203,7 @@ namespace {
 
 // A `structure` object {shape, strikes (ascending), expiry_years|expiry_date, exercise}
 // as signed legs (contract/structures.hpp).
-std::vector<option_leg> read_structure(const json& node, const years_reader& times) {
+std::vector<option_leg> read_structure(const json& node, const years_reader& times, const trade& t) {
     field_reader r(node, "structure");
     const std::string name = r.choice("shape", structure_shapes());
     const int strike_count = shape_strike_count(name);
@@ -219,16 +214,24 @@ std::vector<option_leg> read_structure(const json& node, const years_reader& tim
     if (static_cast<int>(list.size()) != strike_count)
         fail(path, "a " + name + " takes " + std::to_string(strike_count) + " strike" + (strike_count > 1 ? "s" : "") +
                        ", got " + std::to_string(list.size()));
-    std::vector<double> strikes;
-    for (std::size_t i = 0; i < list.size(); ++i) {
-        const double k = as_number(list[i], index_path(path, i));
-        require_positive(k, index_path(path, i));
-        require_at_most(k, max_price_level, index_path(path, i));
-        if (!strikes.empty() && !(k > strikes.back()))
-            fail(index_path(path, i), "strikes must be in ascending order, got " + format_number(k) + " after " +
-                                          format_number(strikes.back()));
-        strikes.push_back(k);
-    }
+    // Which option each strike belongs to (a delta's sign follows it): the shape's legs on
+    // placeholder strikes 1, 2, 3.
+    std::vector<double> places;
+    for (int i = 0; i < strike_count; ++i) places.push_back(i + 1);
+    const std::vector<option_leg> shape = structure_legs(name, places, single_leg(payoff_kind::call, 1, 1));
+    const auto type_of = [&](std::size_t i) {
+        std::vector<payoff_kind> types;
+        for (const auto& leg : shape)
+            if (leg.type != payoff_kind::stock && leg.strike == places[i]) types.push_back(leg.type);
+        if (list[i].is_object() && list[i].contains("delta") && types.size() > 1 && types[0] != types[1])
+            fail(index_path(path, i),
+                 "a delta names one option type, and this strike serves a call and a put; "
+                 "give it as a price or a percentage");
+        return types.front();
+    };
+    std::vector<strike_terms> given;
+    for (std::size_t i = 0; i < list.size(); ++i)
+        given.push_back(read_strike_terms(list[i], index_path(path, i), type_of(i)));
 
     // The option fields shared by every leg are read once through the leg reader,
     // with a dummy type and strike so the same checks and messages apply.
@@ -239,14 +242,35 @@ std::vector<option_leg> read_structure(const json& node, const years_reader& tim
         common["exercise"] == "bermudan")  // any type: read_option_leg names a non-string
         fail(r.child("exercise"), "structures are european or american; give bermudan options as legs");
     common["type"] = "call";
-    common["strike"] = strikes.front();
+    common["strike"] = 1;
     field_reader common_reader(common, "structure");
     const option_leg terms = read_option_leg(common_reader, times, false);
     r.finish();
-    return structure_legs(name, strikes, terms);
+
+    std::vector<double> strikes;
+    for (std::size_t i = 0; i < given.size(); ++i) {
+        option_leg leg = terms;
+        leg.type = type_of(i);
+        leg.strike = given[i].value;
+        leg.strike_given = given[i];
+        resolve_strike(t, leg, index_path(path, i));
+        given[i] = leg.strike_given;
+        const double k = leg.strike;
+        if (!strikes.empty() && !(k > strikes.back()))
+            fail(index_path(path, i), "strikes must be in ascending order, got " + format_number(k) +
+                                          (given[i].form == strike_form::price ? "" : " (as written here)") +
+                                          " after " + format_number(strikes.back()));
+        strikes.push_back(k);
+    }
+    std::vector<option_leg> legs = structure_legs(name, strikes, terms);
+    for (auto& leg : legs)
+        for (std::size_t i = 0; i < strikes.size(); ++i)
+            if (leg.type != payoff_kind::stock && leg.strike == strikes[i]) leg.strike_given = given[i];
+    return legs;
 }
 
-// Exactly one of `option`, `legs` (signed legs) or `structure` (a ready-made shape).
+// Exactly one of `option`, `legs` (signed legs) or `structure` (a ready-made shape); strikes
+// written as percentages or deltas resolved against the market.
 void read_contract(field_reader& r, const years_reader& times, trade& t) {
     const bool has_option = r.has("option");
     const bool has_legs = r.has("legs");
@@ -260,6 +284,7 @@ void read_contract(field_reader& r, const years_reader& times, trade& t) {
     if (has_option) {
         field_reader o(r.raw("option"), "option");
         t.legs.push_back(read_option_leg(o, times, false));
+        resolve_strike(t, t.legs.back(), "option.strike");
     } else if (has_legs) {
         const json& legs = r.raw("legs");
         if (!legs.is_array()) fail("legs", "must be a list of options, got " + describe(legs));
@@ -270,11 +295,39 @@ void read_contract(field_reader& r, const years_reader& times, trade& t) {
             field_reader l(legs[i], index_path("legs", i));
             t.legs.push_back(read_option_leg(l, times, true));
         }
+        for (std::size_t i = 0; i < t.legs.size(); ++i)
+            resolve_strike(t, t.legs[i], join_path(index_path("legs", i), "strike"));
         t.is_structure = true;
     } else {
-        t.legs = read_structure(r.raw("structure"), times);
+        t.legs = read_structure(r.raw("structure"), times, t);
         t.is_structure = true;
     }
+}
+
+// The valuation date: as written, else the date of the market's as_of; a market taken after
+// the valuation date is refused.
+std::optional<date> read_valuation_date(field_reader& r, const json* market) {
+    std::optional<date> out;
+    if (auto text = r.text_optional("valuation_date", max_date_chars)) out = parse_iso_date(*text, "valuation_date");
+    const std::optional<date> as_of = market ? as_of_date(*market, "market") : std::nullopt;
+    if (!as_of) return out;
+    if (!out) return as_of;
+    if (days_from_civil(*as_of) > days_from_civil(*out))
+        fail("market.as_of", "is " + to_iso(*as_of) + ", after valuation_date " + to_iso(*out) +
+                                 "; a market cannot be taken after the day it prices");
+    return out;
+}
+
+// With a smile every leg has its own volatility: each must fit the lattice over its own life,
+// and the market's one volatility becomes the shared lattice's (analytics/leg_market.hpp).
+void settle_volatility(trade& t) {
+    if (t.market.smile) {
+        for (const auto& leg : t.legs)
+            if (leg.type != payoff_kind::stock)
+                require_spread(leg_volatility(t.market, leg).volatility, leg.expiry_years, "market.volatility");
+        t.market.volatility = shared_volatility(t.market, t.legs);
+    }
+    require_spread(t.market.volatility, t.final_expiry_years(), "market.volatility");
 }
 
 }  // namespace
@@ -283,10 +336,15 @@ trade read_trade(const json& document) {
     field_reader r(document, "");
     trade t;
     years_reader times;
-    if (auto text = r.text_optional("valuation_date", max_date_chars))
-        times.valuation_date = parse_iso_date(*text, "valuation_date");
+    times.valuation_date =
+        read_valuation_date(r, document.is_object() && document.contains("market") ? &document.at("market") : nullptr);
     t.valuation_date = times.valuation_date;
-    t.market = read_market(r.raw("market"), times);
+    t.market = read_market(r.raw("market"), times, "market");
+    t.strike_tick = r.number_optional("strike_tick");
+    if (t.strike_tick) {
+        require_positive(*t.strike_tick, "strike_tick");
+        require_at_most(*t.strike_tick, t.market.spot, "strike_tick");
+    }
 
     read_contract(r, times, t);
     if (t.final_expiry_years() <= 0) fail("legs", "need at least one option leg (stock alone has no expiry)");
@@ -297,7 +355,7 @@ trade read_trade(const json& document) {
     t.client_sells = r.choice_or("side", sides, "buy") == "sell";
     t.lattice = read_lattice(r.raw_optional("lattice"));
 
-    require_spread(t.market.volatility, t.final_expiry_years(), "market.volatility");
+    settle_volatility(t);
 
     const double pv = t.market.dividend_pv(0, t.final_expiry_years());
     if (!(pv < t.market.spot))

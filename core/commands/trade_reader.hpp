@@ -7,21 +7,13 @@
 #pragma once
 
 #include "commands/json_read.hpp"
+#include "commands/market_reader.hpp"
 #include "contract/trade.hpp"
 
 #include <optional>
 #include <string>
 
 namespace hedgeleaf {
-
-/// Reads times given as years or, with a valuation date, as dates (ACT/365F).
-struct years_reader {
-    std::optional<date> valuation_date;
-    /// Years from either `years_key` or `date_key` of `r` (exactly one of them).
-    double read_years(field_reader& r, const std::string& years_key, const std::string& date_key) const;
-    /// Years from a date string at `path`.
-    double years_from_date(const json& value, const std::string& path) const;
-};
 
 /// Read and validate a trade document. Throws input_error naming the field.
 trade read_trade(const json& document);

@@ -41,11 +41,31 @@ void market_fields(json& f) {
     f["market.dividends"] = json{{"type", "array"}, {"maxItems", max_dividends}};
     f["market.dividends[].time_years"] = above(number_field(), 0);
     f["market.dividends[].amount"] = at_least(number_field(), 0);
+    f["market.as_of"] = json{{"type", "string"}, {"maxLength", max_as_of_chars}};
+    f["market.underlying"] = json{{"type", "string"}, {"maxLength", max_underlying_chars}};
+    f["market.borrow"] = by_default(between(number_field(), 0, max_abs_rate), 0);
+    // A volatility grid (market.volatility as an object; the number's bounds above).
+    f["market.volatility.strike_basis"] = by_default(one_of(strike_bases), "percent_of_spot");
+    f["market.volatility.expiries"] = list_of(1, max_smile_expiries);
+    f["market.volatility.strikes"] = list_of(1, max_smile_strikes);
+    f["market.volatility.strikes[]"] = above(number_field(), 0);
+    f["market.volatility.vols"] = list_of(1, max_smile_expiries);
+    f["market.volatility.vols[]"] = list_of(1, max_smile_strikes);
+    f["market.volatility.vols[][]"] = positive_up_to(max_volatility);
+    // Curves (rate, carry_yield and borrow as objects; the numbers' bounds above).
+    for (const char* name : {"rate", "carry_yield", "borrow"}) {
+        const std::string at = std::string("market.") + name + ".points";
+        f[at] = list_of(1, max_curve_points);
+        f[at + "[].years"] = positive_up_to(max_expiry_years);
+        f[at + "[].rate"] = between(number_field(), std::string(name) == "borrow" ? 0 : -max_abs_rate, max_abs_rate);
+    }
 }
 
 // The option fields of `option` and of every `legs` element.
 void option_fields(json& f, const std::string& at) {
     f[at + ".strike"] = positive_up_to(max_price_level);
+    f[at + ".strike.percent_of_spot"] = positive_up_to(max_strike_percent);
+    f[at + ".strike.percent_of_forward"] = positive_up_to(max_strike_percent);
     f[at + ".expiry_years"] = positive_up_to(max_expiry_years);
     f[at + ".expiry_tenor"] = json{{"type", "string"}, {"maxLength", max_tenor_chars}};
     f[at + ".exercise"] = by_default(one_of(exercise_styles), "european");
@@ -68,9 +88,12 @@ void trade_fields(json& f) {
     f["structure.shape"] = one_of(structure_shapes());
     f["structure.strikes"] = list_of(1, most_strikes);
     f["structure.strikes[]"] = positive_up_to(max_price_level);
+    f["structure.strikes[].percent_of_spot"] = positive_up_to(max_strike_percent);
+    f["structure.strikes[].percent_of_forward"] = positive_up_to(max_strike_percent);
     f["structure.expiry_years"] = positive_up_to(max_expiry_years);
     f["structure.expiry_tenor"] = json{{"type", "string"}, {"maxLength", max_tenor_chars}};
     f["structure.exercise"] = by_default(one_of(structure_exercise_styles), "european");
+    f["strike_tick"] = above(number_field(), 0);
     f["quantity"] = by_default(positive_up_to(max_quantity), 1);
     f["side"] = by_default(one_of(sides), "buy");
     f["lattice.method"] = by_default(one_of(lattice_methods), "leisen-reimer");
@@ -105,6 +128,7 @@ void ladder_fields(json& f) {
     f["ladder.vol_step"] = by_default(above(number_field(), 0), vol_axis.step);
     f["ladder.time_step_days"] = between(whole_field(), 1, max_ladder_days);
     f["ladder.time_to_days"] = between(whole_field(), 0, max_ladder_days);
+    f["ladder.smile"] = by_default(one_of(smile_moves), "sticky-strike");
     f["ladder.steps"] = by_default(between(whole_field(), 1, max_ladder_steps), default_ladder_steps);
 }
 
@@ -176,6 +200,9 @@ json lists() {
                 {"path_kinds", path_kinds},
                 {"stress_shapes", stress_shapes},
                 {"rebalance_units", rebalance_units},
+                {"strike_bases", strike_bases},
+                {"strike_forms", strike_forms},
+                {"smile_moves", smile_moves},
                 {"sections", command_sections}};
 }
 
@@ -196,7 +223,12 @@ json limits() {
                 {"path_rebalancings", max_path_rebalancings},
                 {"margin_fraction", max_margin_fraction},
                 {"volatility_margin", max_volatility_margin},
-                {"page_work_budget", page_work_budget}};
+                {"page_work_budget", page_work_budget},
+                {"smile_expiries", max_smile_expiries},
+                {"smile_strikes", max_smile_strikes},
+                {"curve_points", max_curve_points},
+                {"strike_percent", max_strike_percent},
+                {"table_cells", max_table_cells}};
 }
 
 }  // namespace

@@ -40,6 +40,12 @@ inline const std::vector<std::string> path_kinds = {"scenario", "spots", "lattic
 inline const std::vector<std::string> stress_shapes = {"rise", "fall", "gap-down"};
 /// `unit` of a rebalancing frequency.
 inline const std::vector<std::string> rebalance_units = {"days", "weeks", "months"};
+/// `market.volatility.strike_basis`: how a smile's strikes are written.
+inline const std::vector<std::string> strike_bases = {"percent_of_spot", "percent_of_forward", "absolute"};
+/// The keys of a strike written as an object: {"percent_of_spot": 95}, {"delta": -0.25}, ...
+inline const std::vector<std::string> strike_forms = {"percent_of_spot", "percent_of_forward", "delta"};
+/// `ladder.smile`: how the smile moves when spot moves.
+inline const std::vector<std::string> smile_moves = {"sticky-strike", "sticky-moneyness"};
 /// Sections of the trade document each read by its own command.
 inline const std::vector<std::string> command_sections = {"quote", "hedge", "simulate", "solve", "ladder", "profile"};
 // The structure shapes live in their table (contract/structures.hpp); the commands in
@@ -87,6 +93,16 @@ inline constexpr std::size_t max_dividends = 200;
 inline constexpr std::size_t max_exercise_dates = 2000;
 inline constexpr std::size_t max_legs = 12;
 inline constexpr int max_lattice_steps = 50000;
+
+// ---- smile, curves, strikes and the market snapshot -----------------------
+
+inline constexpr std::size_t max_smile_expiries = 30;  ///< rows of a volatility grid
+inline constexpr std::size_t max_smile_strikes = 41;   ///< columns of a volatility grid
+inline constexpr std::size_t max_curve_points = 100;   ///< points of a rate, yield or borrow curve
+inline constexpr double max_strike_percent = 1000;     ///< a strike of ten times spot or forward
+inline constexpr std::size_t max_table_cells = 5000;   ///< cells of a pasted table (CSV or tab-separated)
+inline constexpr std::size_t max_underlying_chars = 80;
+inline constexpr std::size_t max_as_of_chars = 40;
 inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs/performance.md)
 
 // ---- quote ---------------------------------------------------------------

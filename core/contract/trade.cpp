@@ -37,6 +37,25 @@ double market_data::forward_growth(double from_years, double to_years) const {
            (carry_yield.growth(from_years, to_years) * borrow.growth(from_years, to_years));
 }
 
+double market_data::forward(double years, double from_spot) const {
+    return (from_spot - dividend_pv(0, years)) * forward_growth(0, years);
+}
+
+smile_point market_data::volatility_at(double strike, double years) const {
+    if (!smile) return {volatility};
+    const smile_grid& g = smile->grid();
+    double x = strike;  // absolute strikes: fixed in price while the smile's spot is today's
+    if (g.basis == strike_basis::percent_of_spot)
+        x = 100 * strike / smile_spot;
+    else if (g.basis == strike_basis::percent_of_forward)
+        x = 100 * strike / forward(years, smile_spot);
+    else
+        x = strike * (g.spot / smile_spot);
+    smile_point p = smile->at(x, years);
+    p.volatility += smile_shift;
+    return p;
+}
+
 double highest_volatility(double years) {
     // rounded down to 4 decimals so that the limit is the number the messages show
     return years > 0 ? std::min(max_volatility, std::floor(max_spread / std::sqrt(years) * 1e4) / 1e4) : max_volatility;

@@ -10,7 +10,9 @@
 #include "contract/curve.hpp"
 #include "contract/dates.hpp"
 #include "contract/limits.hpp"
+#include "contract/smile.hpp"
 
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -30,11 +32,22 @@ struct dividend {
 
 struct market_data {
     double spot = 0;
-    double volatility = 0;  ///< decimal, annualised
-    curve rate;             ///< interest rate of the price currency
-    curve carry_yield;      ///< continuous dividend yield, or the foreign rate
-    curve borrow;           ///< stock-loan fee: lowers the share's forward like a yield
+    /// Decimal, annualised. Given as one number: every leg's volatility. With a smile: the one
+    /// volatility of a lattice shared by all legs (analytics/leg_market.hpp, shared_volatility).
+    double volatility = 0;
+    curve rate;         ///< interest rate of the price currency
+    curve carry_yield;  ///< continuous dividend yield, or the foreign rate
+    curve borrow;       ///< stock-loan fee: lowers the share's forward like a yield
     std::vector<dividend> dividends;
+    /// Implied volatilities by expiry and strike; none when `volatility` was given as a number.
+    std::shared_ptr<const volatility_smile> smile;
+    /// The spot the smile's strikes are measured from: today's spot (sticky strike); a scenario
+    /// that moves the smile with spot (sticky moneyness) sets its own spot here.
+    double smile_spot = 0;
+    /// A parallel move of the whole smile, in volatility (0.01 = one point): scenarios, margins.
+    double smile_shift = 0;
+    std::string as_of;       ///< when the market was taken, ISO 8601 date-time ("" = not given)
+    std::string underlying;  ///< the share's name, plain text ("" = not given)
 
     /// Present value at `from_years` of the cash dividends paid in (from_years, until_years].
     double dividend_pv(double from_years, double until_years) const;
@@ -49,6 +62,27 @@ struct market_data {
     market_data seen_at(double years) const;
     /// True when rate, carry_yield and borrow are each one number.
     bool flat_rates() const { return rate.is_flat() && carry_yield.is_flat() && borrow.is_flat(); }
+    /// One volatility, one rate, one yield and no borrow: the market of every trade file
+    /// written before smiles and curves (its results keep their old shape).
+    bool is_plain() const { return !smile && flat_rates() && borrow.is_zero(); }
+    /// The forward price for delivery `years` from now if spot were `from_spot`: spot net of
+    /// the cash dividends paid by then, grown at rate - carry_yield - borrow.
+    double forward(double years, double from_spot) const;
+    double forward(double years) const { return forward(years, spot); }
+    /// The volatility for `strike` at `years`: the smile's (at its own spot, plus its shift),
+    /// or `volatility` when there is no smile.
+    smile_point volatility_at(double strike, double years) const;
+};
+
+/// How a strike was written (contract/limits.hpp: strike_forms, after "price").
+enum class strike_form { price, percent_of_spot, percent_of_forward, delta };
+
+/// A strike as written: a price, a percentage of spot or of the forward to the leg's expiry,
+/// or a spot delta solved on the smile; derived strikes are rounded to the trade's strike_tick.
+struct strike_terms {
+    strike_form form = strike_form::price;
+    double value = 0;      ///< the number written (a price, a percentage, or a delta such as -0.25)
+    double unrounded = 0;  ///< the strike before rounding to strike_tick (a price: the strike itself)
 };
 
 /// One option (or share) position inside a trade.
@@ -60,6 +94,10 @@ struct option_leg {
     std::vector<double> exercise_years;  ///< Bermudan exercise dates (the expiry always may)
     double payout = 1;                   ///< cash paid by a digital
     double quantity = 1;                 ///< signed; + = client buys
+    strike_terms strike_given;           ///< how the strike was written
+    /// The leg's own volatility when it is fixed: solved for this leg alone, or held at today's
+    /// smile while time moves (schedules, time ladders). None: market_data::volatility_at.
+    std::optional<double> volatility;
 };
 
 /// A market without cash dividends, in one line (tests, benchmarks).
@@ -105,6 +143,7 @@ struct trade {
     double quantity = 1;           ///< number of units (structures) or options
     bool client_sells = false;     ///< side: "sell"
     lattice_settings lattice;
+    std::optional<double> strike_tick;  ///< derived and solved strikes round to a multiple of it
 
     /// +quantity for buy, -quantity for sell.
     double signed_quantity() const { return client_sells ? -quantity : quantity; }

@@ -36,13 +36,16 @@ json run_command(const std::string& command, const json& document, double work_b
     const command_descriptor& d = find_command(command);
     const trade t = read_trade(document);
     json result = d.execute(d, document, t, work_budget);
+    if (!t.market.as_of.empty()) result["market_as_of"] = t.market.as_of;
     result["engine_version"] = engine_version();
     return result;
 }
 
-std::string run_command_text(const std::string& command, const std::string& text, double work_budget) {
+std::string run_command_text(const std::string& command, const std::string& text, double work_budget,
+                             const std::string& market_text) {
     try {
-        const json doc = parse_json_text(text);
+        json doc = parse_json_text(text);
+        if (!market_text.empty()) doc = with_market_snapshot(doc, parse_json_text(market_text));
         return envelope_text(json{{"ok", true}, {"result", run_command(command, doc, work_budget)}});
     } catch (const work_exhausted& e) {
         return refusal("budget", e.field(), e.what());

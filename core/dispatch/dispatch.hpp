@@ -29,8 +29,11 @@ json run_command(const std::string& command, const json& document,
                  double work_budget = std::numeric_limits<double>::infinity());
 
 /// Text in, envelope text out; never throws. The module passes page_work_budget.
+/// `market_text`, when not empty: a market snapshot (commands/market_reader.hpp,
+/// with_market_snapshot) the trade is priced in; a result then carries market_as_of.
 std::string run_command_text(const std::string& command, const std::string& text,
-                             double work_budget = std::numeric_limits<double>::infinity());
+                             double work_budget = std::numeric_limits<double>::infinity(),
+                             const std::string& market_text = "");
 
 /// The up-front estimate of `command` on `document`, naming the field that sets its size.
 work_estimate estimate_work(const std::string& command, const json& document);

@@ -1,6 +1,7 @@
 // Tests for commands/trade_reader: reading the trade document, dates, and one message per bad field.
 #include "commands/trade_reader.hpp"
 #include "dispatch/dispatch.hpp"
+#include "test_support.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -16,14 +17,6 @@ json base() {
       "market": {"spot": 100, "volatility": 0.2, "rate": 0.03},
       "option": {"type": "call", "strike": 100, "expiry_years": 1}
     })");
-}
-std::string message_of(const json& doc) {
-    try {
-        (void)read_trade(doc);
-    } catch (const input_error& e) {
-        return e.what();
-    }
-    return "(accepted)";
 }
 }  // namespace
 

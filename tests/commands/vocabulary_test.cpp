@@ -45,6 +45,13 @@ std::pair<json, std::string> base_for(const std::string& path) {
     const auto starts = [&](const char* prefix) { return path.rfind(prefix, 0) == 0; };
     json doc{{"market", market}, {"option", call}, {"lattice", {{"steps", 101}}}};
     if (starts("market.dividends")) doc["market"]["dividends"] = json::array({{{"time_years", 0.5}, {"amount", 1}}});
+    if (starts("market.volatility."))
+        doc["market"]["volatility"] = {{"expiries", {1}}, {"strikes", {100}}, {"vols", json::array({{0.2}})}};
+    for (const char* curve : {"rate", "carry_yield", "borrow"})
+        if (starts((std::string("market.") + curve + ".points").c_str()))
+            doc["market"][curve] = {{"points", json::array({{{"years", 1}, {"rate", 0.01}}})}};
+    if (path == "option.strike.percent_of_forward") doc["option"]["strike"] = {{"percent_of_forward", 100}};
+    if (path == "option.strike.percent_of_spot") doc["option"]["strike"] = {{"percent_of_spot", 100}};
     if (starts("option.payout")) doc["option"]["type"] = "digital-call";
     if (starts("option.exercise_") || starts("legs[].exercise_")) doc["valuation_date"] = "2027-01-04";
     if (starts("option.exercise_")) doc["option"] = bermudan(doc["option"], path);
@@ -53,6 +60,7 @@ std::pair<json, std::string> base_for(const std::string& path) {
         json leg = call;
         leg["quantity"] = 1;
         if (starts("legs[].payout")) leg["type"] = "digital-call";
+        if (starts("legs[].strike.")) leg["strike"] = {{path.substr(std::string("legs[].strike.").size()), 100}};
         if (starts("legs[].exercise_")) leg = bermudan(leg, path);
         doc["legs"] = json::array({leg});
     }
@@ -111,31 +119,28 @@ std::pair<json, std::string> base_for(const std::string& path) {
 /// The path with "[]" as the first element: the field a message names.
 std::string concrete(const std::string& path) { return std::regex_replace(path, std::regex(R"(\[\])"), "[0]"); }
 
-/// Set `value` at `path` ("a.b[].c"), making objects and a first list element on the way.
+/// Set `value` at `path` ("a.b[].c", "a.b[][]"), making objects and first list elements on the way.
 void set_at(json& doc, const std::string& path, const json& value) {
     json* node = &doc;
     std::smatch m;
     std::string rest = path;
-    const std::regex step(R"(^([^.\[]+)(\[\])?\.?)");
+    const std::regex step(R"(^([^.\[]+)((?:\[\])*)\.?)");
     while (std::regex_search(rest, m, step)) {
-        json& child = (*node)[m[1].str()];
-        const bool list = m[2].matched;
+        json* child = &(*node)[m[1].str()];
+        const std::size_t lists = m[2].length() / 2;
         rest = m.suffix();
-        if (rest.empty() && !list) {
-            child = value;
+        for (std::size_t i = 0; i < lists; ++i) {
+            const bool inner = i + 1 < lists || !rest.empty();
+            if (!child->is_array() || child->empty())
+                *child = json::array({inner && i + 1 < lists ? json::array() : json::object()});
+            child = &(*child)[0];
+        }
+        if (rest.empty()) {
+            *child = value;
             return;
         }
-        if (list) {
-            if (!child.is_array() || child.empty()) child = json::array({json::object()});
-            if (rest.empty()) {
-                child[0] = value;
-                return;
-            }
-            node = &child[0];
-        } else {
-            if (!child.is_object()) child = json::object();
-            node = &child;
-        }
+        if (!child->is_object()) *child = json::object();
+        node = child;
     }
 }
 
