@@ -149,8 +149,11 @@ void linear_extremes(const trade& t, double cost, profile_result& out) {
 void profile_notes(const trade& t, const profile_settings& s, profile_result& out) {
     out.notes.push_back(
         "per unit for the buyer of the trade as written; position figures are times the signed quantity");
-    out.notes.push_back(s.finance_premium ? "P&L at expiry = payoff - premium carried to expiry at market.rate"
-                                          : "P&L at expiry = payoff - premium paid today (not carried to expiry)");
+    const std::string paid =
+        out.quote ? std::string(out.quote->client_buys ? "the client price (the offer)" : "the client price (the bid)")
+                  : std::string("premium");
+    out.notes.push_back(s.finance_premium ? "P&L at expiry = payoff - " + paid + " carried to expiry at market.rate"
+                                          : "P&L at expiry = payoff - " + paid + " paid today (not carried to expiry)");
     if (out.one_expiry) {
         out.notes.push_back("max/min P&L at expiry: null means unbounded");
     } else {
@@ -239,8 +242,11 @@ profile_result run_profile(const trade& t, const profile_settings& s) {
     out.horizon_years = first_expiry(t);
     out.one_expiry = one_expiry(t);
     // The premium is the price command's (the trade's own lattice settings).
-    out.premium = price_trade(t, bumped_greeks::off).premium;
-    out.cost_at_expiry = s.finance_premium ? out.premium * t.market.rate.growth(0, out.horizon_years) : out.premium;
+    const trade_result priced = price_trade(t, bumped_greeks::off);
+    out.premium = priced.premium;
+    if (s.quote) out.quote = price_for_client(t, priced, *s.quote);
+    const double paid = out.quote ? out.quote->per_unit : out.premium;
+    out.cost_at_expiry = s.finance_premium ? paid * t.market.rate.growth(0, out.horizon_years) : paid;
     profile_rows(t, s, out.cost_at_expiry, out);
     out.zero_pnl = find_break_evens(t, out.cost_at_expiry);
     if (out.one_expiry) linear_extremes(t, out.cost_at_expiry, out);

@@ -1,7 +1,8 @@
 // Hedgeleaf analytics: payoff at expiry and break-even points (the profile command).
 //
 // For a grid of spots the profile gives the trade's payoff at expiry, its P&L
-// after the premium, and its value today on a fast lattice. Break-even spots
+// after the premium (after the client price when the trade has a quote section:
+// the client's break-evens are the client's), and its value today on a fast lattice. Break-even spots
 // are the roots of the P&L at expiry, found exactly: between strikes the
 // payoff of options expiring together is linear, so each piece is searched
 // with the bracketing root finder and the last piece is solved in closed form.
@@ -11,7 +12,7 @@
 // then smooth between strikes and each piece is scanned for sign changes.
 #pragma once
 
-#include "contract/trade.hpp"
+#include "analytics/client_price.hpp"
 
 #include <optional>
 #include <string>
@@ -40,6 +41,7 @@ struct profile_settings {
     int points = default_profile_points;
     int steps = default_ladder_steps;
     bool finance_premium = false;
+    std::optional<quote_terms> quote;  ///< the trade's quote section: P&L after the client price
 };
 
 struct profile_row {
@@ -48,9 +50,10 @@ struct profile_row {
 };
 
 struct profile_result {
-    double premium = 0;         ///< the price command's premium (without bumps)
-    double cost_at_expiry = 0;  ///< the premium, carried to the horizon when financed
-    double horizon_years = 0;   ///< the first expiry
+    double premium = 0;                 ///< the price command's premium (without bumps)
+    std::optional<client_price> quote;  ///< with a quote section: the P&L is after this price
+    double cost_at_expiry = 0;          ///< the price paid (client price or premium), carried when financed
+    double horizon_years = 0;           ///< the first expiry
     std::vector<profile_row> rows;
     break_evens zero_pnl;
     bool one_expiry = true;  ///< every leg ends at the horizon: the payoff is piecewise linear

@@ -54,7 +54,8 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
         {"spot", t.market.spot},
         {"expiry_years", t.final_expiry_years()},
     };
-    if (result.quote) out["client_price"] = write_client_price(*settings.quote, *result.quote);
+    if (result.quote)
+        out["client_price"] = write_client_price(t, *settings.quote, *result.quote, *result.client, result.outcomes);
     return out;
 }
 
