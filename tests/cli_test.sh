@@ -75,5 +75,39 @@ one_bad ladder "{$m,\"ladder\":{\"kind\":\"spot\",\"spot_step\":-0.01}}" 'ladder
 one_bad profile "{$m,\"profile\":{\"points\":1}}" 'profile.points: must be between 2 and 501, got 1'
 one_bad price "{$m,\"quote\":{\"currency\":\"eur\"}}" 'quote.currency: must be an ISO 4217 currency code of three capital letters (e.g. EUR, USD, GBP), got string "eur"'
 
+# compare (core/analytics/comparison, core/commands/compare): a comparison file, or several trade files
+ex="$root/examples/protect-a-holding.json"
+out=$("$cli" compare "$ex"); code=$?
+check "compare exits 0" '[ $code -eq 0 ]'
+check "compare prints three rows" '[ $(echo "$out" | /usr/bin/python3 -c "import json,sys; print(len(json.load(sys.stdin)[\"rows\"]))") -eq 3 ]'
+out=$("$cli" compare "$ex" --table); code=$?
+check "compare --table exits 0" '[ $code -eq 0 ]'
+check "compare --table shows each label and the caution" 'echo "$out" | grep -q "Put spread 34.00 / 29.00" && echo "$out" | grep -q "Zero-cost collar" && echo "$out" | grep -q "^caution .*Indicative only"'
+check "compare --table leaves out the chart points" '! echo "$out" | grep -q "curve"'
+out=$("$cli" compare "$ex" --csv); code=$?
+check "compare --csv exits 0" '[ $code -eq 0 ]'
+check "compare --csv header" '[ "$(echo "$out" | head -1 | cut -d, -f1-5)" = "label,client_side,quantity,client_price,client_price_total" ]'
+check "compare --csv has a line per alternative" '[ $(echo "$out" | wc -l) -eq 4 ]'
+tmp=$(mktemp -d)
+/usr/bin/python3 -c "
+import json, sys
+doc = json.load(open(sys.argv[1]))
+for i, t in enumerate(doc['comparison']['alternatives']):
+    json.dump(t, open(f'{sys.argv[2]}/alt{i}.json', 'w'))
+" "$ex" "$tmp"
+many=$("$cli" compare "$tmp/alt0.json" "$tmp/alt1.json" "$tmp/alt2.json" --csv); code=$?
+check "compare of three trade files exits 0" '[ $code -eq 0 ]'
+check "three trade files compare as the comparison file does" '[ "$many" = "$("$cli" compare "$ex" --csv)" ]'
+/usr/bin/python3 -c "
+import json, sys
+t = json.load(open(sys.argv[1])); t['market']['volatility'] = -0.2; json.dump(t, open(sys.argv[1], 'w'))
+" "$tmp/alt1.json"
+err=$("$cli" compare "$tmp/alt0.json" "$tmp/alt1.json" 2>&1 >/dev/null); code=$?
+check "a bad trade file exits 2" '[ $code -eq 2 ]'
+check "the refusal names the file and the field" '[ "$err" = "$tmp/alt1.json: market.volatility: must be > 0, got -0.2" ]'
+err=$("$cli" price "$tmp/alt0.json" "$tmp/alt2.json" 2>&1 >/dev/null); code=$?
+check "price of two files exits 2" '[ $code -eq 2 ]'
+rm -rf "$tmp"
+
 echo "cli: $passes passed, $fails failed"
 [ $fails -eq 0 ]

@@ -97,9 +97,13 @@ std::optional<std::string> read_indicative_until(field_reader& r, const trade& t
              "+01:00 optional), got \"" +
                  *text + "\"");
     };
-    if (text->size() < 10) bad();
-    const date day = parse_iso_date(text->substr(0, 10), path);
-    if (!valid_time_part(text->substr(10))) bad();
+    if (text->size() < 10 || !valid_time_part(text->substr(10))) bad();
+    date day{};
+    try {
+        day = parse_iso_date(text->substr(0, 10), path);
+    } catch (const input_error&) {
+        bad();
+    }
     if (t.valuation_date && days_from_civil(day) < days_from_civil(*t.valuation_date))
         fail(path, "must not be before valuation_date " + to_iso(*t.valuation_date) + ", got \"" + *text + "\"");
     return text;

@@ -24,6 +24,15 @@ void check_budget(const command_descriptor& self, work_estimate w, double budget
     check_work_budget(w, budget);
 }
 
+/// The one trade of a document; a comparison (several trades) is refused by name.
+trade trade_of_document(const json& document) {
+    if (document.is_object() && document.contains(comparison_key))
+        fail(comparison_key,
+             "a comparison of several trades is read by the compare command; this command takes one "
+             "trade document");
+    return read_trade(document);
+}
+
 /// The two type-erased entries of a descriptor, from a command's typed steps on one trade:
 ///   Settings read(const json& document, const trade&);
 ///   work_estimate estimate(const trade&) or estimate(const trade&, const Settings&);
@@ -37,7 +46,7 @@ struct steps {
     static constexpr bool needs_settings = !std::is_invocable_v<decltype(estimate), const trade&>;
 
     static work_estimate estimate_of(const json& document) {
-        const trade t = read_trade(document);
+        const trade t = trade_of_document(document);
         if constexpr (needs_settings)
             return estimate(t, read(document, t));
         else
@@ -45,7 +54,7 @@ struct steps {
     }
 
     static json execute(const command_descriptor& self, const json& document, double budget) {
-        const trade t = read_trade(document);
+        const trade t = trade_of_document(document);
         const bool budgeted = std::isfinite(budget);
         if constexpr (!needs_settings)
             if (budgeted) check_budget(self, estimate(t), budget);
