@@ -1,22 +1,35 @@
 // Hedgeleaf benchmark: the one-file page in headless Chromium.
 //
-//   node bench/page_bench.mjs [PAGE]     (default dist/hedgeleaf.html)
+//   node bench/page_bench.mjs [PAGE] [--rates 1,4] [--contexts 5]   (default dist/hedgeleaf.html)
 //
-// Prints the file size, the cold open of the file to the first premium shown
-// (fresh browser context each time, offline, from file://) and the time of a
-// full recompute after an edit of spot: from the end of the page's 250 ms input
-// debounce to the last change the recompute makes to the page (premium,
-// sensitivities, profit chart, hedge schedule, spot ladder (opened first), print
-// sheet). Uses Debian's
+// For each CPU rate (1 = this machine; 4 = the page's main thread slowed 4x
+// through the DevTools protocol, Emulation.setCPUThrottlingRate, as a slow
+// laptop would run it; Chromium slows pages only, so the engine workers keep
+// their speed) it prints the cold open of the file to the first premium shown
+// (fresh browser context each time, offline, from file://), the time until the
+// opened page settles, and the time of a full recompute after an edit of spot:
+// from the end of the page's 250 ms input debounce to the last change the
+// recompute makes to the page (premium, sensitivities, profit chart, hedge
+// schedule, spot ladder (opened first), print sheet). Also the machine's load
+// average, since other work on the cores moves every figure. Uses Debian's
 // Chromium through playwright-core from web/node_modules (tests/browser/harness.mjs).
 import { statSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 import { launchChromium } from '../tests/browser/harness.mjs';
 
 const root = dirname(dirname(fileURLToPath(import.meta.url)));
-const pagePath = resolve(process.argv[2] ?? join(root, 'dist/hedgeleaf.html'));
+const flag = (name, fallback) => {
+  const i = process.argv.indexOf(name);
+  return i > 0 ? process.argv[i + 1] : fallback;
+};
+const positional = process.argv.slice(2).find((arg, i, all) => !arg.startsWith('--') && !all[i - 1]?.startsWith('--'));
+const pagePath = resolve(positional ?? join(root, 'dist/hedgeleaf.html'));
+const rates = flag('--rates', '1,4').split(',').map(Number);
+const contexts = Number(flag('--contexts', '5'));
+const budgets = { 1: { open: 500, recompute: 16 }, 4: { open: 1500, recompute: 50 } };
 const debounceMs = 250;
 const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
 
@@ -38,7 +51,7 @@ function recorder() {
 
 const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
 
-async function settle(page, quietMs = 1500, timeoutMs = 30000) {
+async function settle(page, quietMs = 1500, timeoutMs = 60000) {
   const end = Date.now() + timeoutMs;
   for (;;) {
     const idle = await page.evaluate(() => performance.now() - (window.__bench.changes.at(-1) ?? 0));
@@ -54,92 +67,157 @@ const quantile = (xs, q) => {
 };
 const median = (xs) => quantile(xs, 0.5);
 
+/**
+ * Run in the page: what packing the engine costs when the page opens. Median of 5 of
+ * unpacking the page's engine (base64 of gzip, as web/src/engine.js does) against
+ * decoding the same WebAssembly as the plain base64 the module file carries.
+ */
+async function unpackingCost() {
+  const decode = (text) =>
+    typeof Uint8Array.fromBase64 === 'function'
+      ? Uint8Array.fromBase64(text)
+      : Uint8Array.from(atob(text), (c) => c.charCodeAt(0));
+  const packed = document.getElementById('engine-wasm')?.textContent.trim();
+  if (!packed) return null; // a page that carries its engine unpacked
+  const unpack = async () =>
+    new Uint8Array(
+      await new Response(new Response(decode(packed)).body.pipeThrough(new DecompressionStream('gzip'))).arrayBuffer(),
+    );
+  const wasm = await unpack();
+  let plain = '';
+  for (let i = 0; i < wasm.length; i += 0x8000) plain += String.fromCharCode(...wasm.subarray(i, i + 0x8000));
+  plain = btoa(plain);
+  const time = async (fn) => {
+    const xs = [];
+    for (let k = 0; k < 5; k++) {
+      const t = performance.now();
+      await fn();
+      xs.push(performance.now() - t);
+    }
+    return xs.sort((a, b) => a - b)[2];
+  };
+  return {
+    packedChars: packed.length,
+    plainChars: plain.length,
+    unpack: await time(unpack),
+    decodePlain: await time(() => decode(plain)),
+  };
+}
+
+/** Open the page in `contexts` fresh contexts at CPU `rate` and time the open and four spot edits in each. */
+async function measure(browser, url, rate) {
+  const figures = { opens: [], settled: [], recomputes: [], firstUpdates: [] };
+  for (let run = 0; run < contexts; run++) {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    await context.setOffline(true);
+    await context.addInitScript(recorder);
+    const page = await context.newPage();
+    if (rate !== 1) {
+      const cdp = await context.newCDPSession(page);
+      await cdp.send('Emulation.setCPUThrottlingRate', { rate });
+    }
+    await page.goto(url);
+    for (let i = 0; i < 600; i++) {
+      const t = await page.evaluate(() => window.__bench.firstPremium);
+      if (t !== null) {
+        figures.opens.push(t);
+        break;
+      }
+      await sleep(50);
+    }
+    await settle(page);
+    figures.settled.push(await page.evaluate(() => window.__bench.changes.at(-1)));
+    if (run === 0) figures.unpacking = await page.evaluate(unpackingCost);
+    // The spot ladder is folded at first: open it, so the timed recompute includes it.
+    await page.evaluate(() => {
+      const card = document.getElementById('ladder-card');
+      if (!card || card.hidden) throw new Error('the page has no spot ladder card');
+      card.open = true;
+    });
+    await page.waitForSelector('#ladder-output table', { timeout: 10000 });
+    await settle(page);
+    // Edit spot as a user would (an input event), then time the recompute it starts;
+    // four edits per context (up, down, up, down), the first right after the open.
+    for (let edit = 0; edit < editsPerContext; edit++) {
+      const premiumBefore = await page.evaluate(() => document.querySelector('[data-result="premium"]').dataset.value);
+      const edited = await page.evaluate(
+        (factor) => {
+          const input = document.querySelector('[data-path="market.spot"]');
+          if (!input) return null;
+          const value = Number(String(input.value).replace(/,/g, ''));
+          input.value = String(Math.round(value * factor * 100) / 100);
+          const t = performance.now();
+          input.dispatchEvent(new Event('input', { bubbles: true }));
+          return t;
+        },
+        edit % 2 ? 1 / 1.01 : 1.01,
+      );
+      if (edited === null) throw new Error('no input for market.spot on the page');
+      await sleep(debounceMs * rate + 100);
+      await settle(page, 600);
+      const timing = await page.evaluate(
+        ({ edited, debounce, before }) => {
+          const after = window.__bench.changes.filter((t) => t > edited + debounce);
+          const premium = document.querySelector('[data-result="premium"]').dataset.value;
+          return {
+            last: after.at(-1) - edited - debounce,
+            first: after[0] - edited - debounce,
+            changed: premium !== before,
+          };
+        },
+        { edited, debounce: debounceMs, before: premiumBefore },
+      );
+      if (!timing.changed) throw new Error('the premium did not change after the spot edit');
+      figures.recomputes.push(timing.last);
+      figures.firstUpdates.push(timing.first);
+    }
+    await context.close();
+  }
+  return figures;
+}
+
+function report(rate, { opens, settled, recomputes, firstUpdates, unpacking }) {
+  const budget = budgets[rate];
+  const within = (figure, limit) => (limit ? `; budget ${limit} ms, ${figure < limit ? 'met' : 'NOT met'}` : '');
+  const ms = (x, digits = 0) => `${x.toFixed(digits)} ms`;
+  console.log(`## CPU ${rate === 1 ? 'at full speed (1x)' : `slowed ${rate}x (main thread, DevTools protocol)`}`);
+  if (process.env.PAGE_BENCH_ALL) console.log(recomputes.map((x) => x.toFixed(1)).join(' '));
+  console.log(
+    `cold open from file:// to the first premium shown: median ${ms(median(opens))}, best ${ms(Math.min(...opens))}, ` +
+      `worst ${ms(Math.max(...opens))} (${opens.length} fresh contexts${within(median(opens), budget?.open)})`,
+  );
+  console.log(`page settled after opening (last change): median ${ms(median(settled))}`);
+  const kib = (chars) => `${(chars / 1024).toFixed(0)} KiB`;
+  if (unpacking)
+    console.log(
+      `unpacking the engine (${kib(unpacking.packedChars)} of base64 gzip): ${ms(unpacking.unpack, 1)}; ` +
+        `decoding it as the module file's plain base64 (${kib(unpacking.plainChars)}) would take ${ms(unpacking.decodePlain, 1)}`,
+    );
+  console.log(
+    `full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
+      `${ms(median(firstUpdates), 1)}, last change median ${ms(median(recomputes), 1)}, ` +
+      `90th percentile ${ms(quantile(recomputes, 0.9), 1)}, best ${ms(Math.min(...recomputes), 1)} ` +
+      `(${recomputes.length} edits in ${opens.length} contexts${within(quantile(recomputes, 0.9), budget?.recompute)})`,
+  );
+}
+
 async function main() {
   const size = statSync(pagePath).size;
   const url = pathToFileURL(pagePath).href;
+  const load = () =>
+    loadavg()
+      .map((x) => x.toFixed(2))
+      .join(' ');
+  console.log(`# Page (bench/page_bench.mjs): ${pagePath}`);
+  console.log(`file size: ${size} bytes (${(size / 1024 / 1024).toFixed(2)} MiB; budget 1 MiB)`);
+  console.log(`load average before: ${load()} (1, 5, 15 min)`);
   const browser = await launchChromium();
   try {
-    const opens = [];
-    const recomputes = [];
-    const firstUpdates = [];
-    for (let run = 0; run < 5; run++) {
-      const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-      await context.setOffline(true);
-      await context.addInitScript(recorder);
-      const page = await context.newPage();
-      await page.goto(url);
-      for (let i = 0; i < 300; i++) {
-        const t = await page.evaluate(() => window.__bench.firstPremium);
-        if (t !== null) {
-          opens.push(t);
-          break;
-        }
-        await sleep(50);
-      }
-      await settle(page);
-      // The spot ladder is folded at first: open it, so the timed recompute includes it.
-      await page.evaluate(() => {
-        const card = document.getElementById('ladder-card');
-        if (!card || card.hidden) throw new Error('the page has no spot ladder card');
-        card.open = true;
-      });
-      await page.waitForSelector('#ladder-output table', { timeout: 10000 });
-      await settle(page);
-      // Edit spot as a user would (an input event), then time the recompute it starts;
-      // four edits per context (up, down, up, down), the first right after the open.
-      for (let edit = 0; edit < editsPerContext; edit++) {
-        const premiumBefore = await page.evaluate(
-          () => document.querySelector('[data-result="premium"]').dataset.value,
-        );
-        const edited = await page.evaluate(
-          (factor) => {
-            const input = document.querySelector('[data-path="market.spot"]');
-            if (!input) return null;
-            const value = Number(String(input.value).replace(/,/g, ''));
-            input.value = String(Math.round(value * factor * 100) / 100);
-            const t = performance.now();
-            input.dispatchEvent(new Event('input', { bubbles: true }));
-            return t;
-          },
-          edit % 2 ? 1 / 1.01 : 1.01,
-        );
-        if (edited === null) throw new Error('no input for market.spot on the page');
-        await sleep(debounceMs + 100);
-        await settle(page, 600);
-        const timing = await page.evaluate(
-          ({ edited, debounce, before }) => {
-            const after = window.__bench.changes.filter((t) => t > edited + debounce);
-            const premium = document.querySelector('[data-result="premium"]').dataset.value;
-            return {
-              last: after.at(-1) - edited - debounce,
-              first: after[0] - edited - debounce,
-              changed: premium !== before,
-            };
-          },
-          { edited, debounce: debounceMs, before: premiumBefore },
-        );
-        if (!timing.changed) throw new Error('the premium did not change after the spot edit');
-        recomputes.push(timing.last);
-        firstUpdates.push(timing.first);
-      }
-      await context.close();
-    }
-    if (process.env.PAGE_BENCH_ALL) console.log(recomputes.map((x) => x.toFixed(1)).join(' '));
-    console.log(`# Page (bench/page_bench.mjs): ${pagePath}`);
-    console.log(`file size: ${size} bytes (${(size / 1024 / 1024).toFixed(2)} MiB; budget 1.5 MiB)`);
-    console.log(
-      `cold open from file:// to the first premium shown: median ${median(opens).toFixed(0)} ms, ` +
-        `best ${Math.min(...opens).toFixed(0)} ms (${opens.length} fresh contexts; budget 500 ms)`,
-    );
-    console.log(
-      `full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
-        `${median(firstUpdates).toFixed(1)} ms, last change median ${median(recomputes).toFixed(1)} ms, ` +
-        `90th percentile ${quantile(recomputes, 0.9).toFixed(1)} ms, best ${Math.min(...recomputes).toFixed(1)} ms ` +
-        `(${recomputes.length} edits in ${opens.length} contexts; budget 16 ms)`,
-    );
+    for (const rate of rates) report(rate, await measure(browser, url, rate));
   } finally {
     await browser.close();
   }
+  console.log(`load average after: ${load()}`);
 }
 
 main().catch((error) => {

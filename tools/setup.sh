@@ -13,7 +13,10 @@ jobs=2
 say() { printf '\n== %s\n' "$*"; }
 
 install_packages() {
+    # The browser tests drive three engines: chromium; firefox-esr (WebDriver BiDi);
+    # WebKitGTK's MiniBrowser (webkit2gtk-driver brings it and WebKitWebDriver) under xvfb.
     local wanted=(cmake g++ make emscripten nlohmann-json3-dev catch2 libboost-dev chromium
+                  firefox-esr webkit2gtk-driver xvfb
                   clang libclang-rt-14-dev clang-format python3 python3-scipy python3-mpmath python3-jsonschema)
     local missing=()
     for p in "${wanted[@]}"; do dpkg -s "$p" >/dev/null 2>&1 || missing+=("$p"); done
@@ -27,7 +30,7 @@ install_packages() {
         DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq "${missing[@]}"
     fi
     if [ -f web/package.json ] && ! npm_packages_current; then
-        say "installing npm packages (browser tests, JavaScript formatter and linter)"
+        say "installing npm packages (browser drivers, axe-core, JavaScript formatter and linter)"
         (cd web && npm ci --no-audit --no-fund --loglevel=error)
     fi
 }
@@ -88,6 +91,25 @@ sanitize_and_fuzz() {
     say "fuzz build and run took $((SECONDS - start)) s"
 }
 
+# The browser tests, engine by engine, each with its time (CI: 2 cores, 15 minutes for
+# everything). The core scenarios (tests/browser/scenarios.mjs) run on all three; the
+# other files of tests/browser/ are Chromium's.
+browser_tests() {
+    local engine start files
+    for engine in chromium firefox webkit; do
+        start=$SECONDS
+        say "browser tests: $engine"
+        files=(tests/browser/"$engine".engine.test.mjs)
+        if [ "$engine" = chromium ]; then
+            for f in tests/browser/*.test.mjs; do
+                case "$f" in *.engine.test.mjs) ;; *) files+=("$f") ;; esac
+            done
+        fi
+        node --test "${files[@]}"
+        say "$engine browser tests took $((SECONDS - start)) s"
+    done
+}
+
 install_packages
 case "$mode" in
     main)
@@ -106,8 +128,7 @@ case "$mode" in
         build_page
         say "module tests (node)"
         node --test tests/node/
-        say "browser tests (headless Chromium)"
-        node --test tests/browser/
+        browser_tests
         ;;
     *)
         echo "usage: bash tools/setup.sh main|test" >&2

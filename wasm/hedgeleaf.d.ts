@@ -1,8 +1,10 @@
 // Hedgeleaf module: the JavaScript-facing contract of build/wasm/hedgeleaf.js.
 //
-// One file (the wasm is inlined, -sSINGLE_FILE=1) loaded unchanged by the page,
-// its Web Workers and the Node tests. It needs no eval (CSP: 'wasm-unsafe-eval'
-// is enough) and no file system or network.
+// One file (the wasm is inlined, -sSINGLE_FILE=1) loaded by the Node tests; the
+// page carries the same file with its wasm packed beside it (web/build.mjs) and
+// hands the module the compiled wasm through `instantiateWasm`, so the module
+// never fetches its own data: URL. It needs no eval (CSP: 'wasm-unsafe-eval' is
+// enough) and no file system or network.
 //
 // Usage (web/src/engine.js wraps this behind one memoised promise):
 //   const module = await createHedgeleaf({ onAbort });
@@ -15,6 +17,14 @@ export default function createHedgeleaf(options?: {
   onAbort?: (what: unknown) => void;
   print?: (text: string) => void;
   printErr?: (text: string) => void;
+  /**
+   * Instantiate the wasm here instead of from the copy inside the file (Emscripten's
+   * hook): call `receive` with the instance made from `imports`, and return {}.
+   */
+  instantiateWasm?: (
+    imports: WebAssembly.Imports,
+    receive: (instance: WebAssembly.Instance) => void,
+  ) => object;
 }): Promise<HedgeleafModule>;
 
 export interface HedgeleafModule {

@@ -77,13 +77,10 @@ const bad = (patch) => {
 };
 
 test(
-  'the page inlines exactly this module file',
+  "the page lists this module file's commands (shipped_engine.test.mjs checks the module it carries)",
   { skip: !existsSync(pagePath) && 'dist/hedgeleaf.html not built' },
   () => {
     const page = readFileSync(pagePath, 'utf8');
-    const inlined = /<script id="engine-js">([\s\S]*?)<\/script>/.exec(page);
-    assert.ok(inlined, 'no engine-js script in the page');
-    assert.equal(inlined[1], readFileSync(modulePath, 'utf8'));
     assert.match(
       page,
       new RegExp(`<script type="text/plain" id="engine-commands">${engine.commands.join(',')}</script>`),

@@ -179,6 +179,6 @@ test(
     assert.ok(!/\sstyle="/.test(html), 'no inline style attributes (CSP would block them)');
     assert.ok(!/\son[a-z]+="/.test(html), 'no inline event handlers');
     assert.ok(!/(src|href)="(https?:)?\/\//.test(html), 'nothing loads from the network');
-    assert.ok(Buffer.byteLength(html) < 1.5 * 1024 * 1024, 'under 1.5 MB');
+    assert.ok(Buffer.byteLength(html) < 1024 * 1024, 'under 1 MiB');
   },
 );

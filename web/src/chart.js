@@ -1,8 +1,10 @@
 // Hedgeleaf page: small line charts drawn as SVG (no library).
 //
 // Colours come from classes in style.css (CSP allows no inline styles); text
-// is set with textContent only.
-import { make, makeSvg } from './dom.js';
+// is set with textContent only. The drawing is hidden from screen readers; its
+// text alternative is the legend and a folded table of the figures it plots
+// (chartData), inside the host, which is labelled (role "figure").
+import { fillTable, make, makeSvg, scrollRegion } from './dom.js';
 import { formatNumber } from './format.js';
 
 /** About `count` round tick values covering [lo, hi]. */
@@ -43,8 +45,10 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     focusable: 'false',
     'aria-hidden': 'true',
   });
-  host.replaceChildren(svg);
-  if (xs.length === 0 || ys.length === 0) return;
+  if (xs.length === 0 || ys.length === 0) {
+    host.replaceChildren(svg);
+    return;
+  }
   let [x0, x1] = [Math.min(...xs), Math.max(...xs)];
   let [y0, y1] = [Math.min(...ys, 0), Math.max(...ys, 0)];
   if (x1 === x0) [x0, x1] = [x0 - 1, x1 + 1];
@@ -115,10 +119,53 @@ export function drawChart(host, { series, marks = [], xLabel = '', yLabel = '', 
     svg.append(g);
   }
   const items = [
-    ...series.filter((x) => x.label).map((s) => make('span', { className: `legend-item ${s.kind}`, text: s.label })),
-    ...marks
-      .filter((m) => m.legend)
-      .map((m) => make('span', { className: `legend-item mark ${m.kind}`, text: m.legend })),
+    ...series.filter((s) => s.label).map((s) => [`legend-item ${s.kind}`, s.label]),
+    ...marks.filter((m) => m.legend).map((m) => [`legend-item mark ${m.kind}`, m.legend]),
   ];
-  host.append(make('p', { className: 'chart-legend' }, items));
+  // a recompute replaces the drawing only; the legend (when unchanged) and the table stay
+  const old = host.querySelector(':scope > svg');
+  let legend = host.querySelector(':scope > .chart-legend');
+  const data = host.querySelector(':scope > details.chart-data') ?? make('details', { className: 'chart-data' });
+  if (!old || !legend) host.replaceChildren(svg, (legend = make('p', { className: 'chart-legend' })), data);
+  else old.replaceWith(svg);
+  const key = JSON.stringify(items);
+  if (legend.itemsKey !== key) {
+    legend.replaceChildren(...items.map(([className, text]) => make('span', { className, text })));
+    legend.itemsKey = key;
+  }
+  chartData(data, { series, marks, xLabel, name: host.getAttribute('aria-label') || yLabel });
+}
+
+/** Up to 4 decimals below 10, else 2: as the page's tables show such figures. */
+const figure = (v) => (Number.isFinite(v) ? formatNumber(v, Math.abs(v) < 10 ? 4 : 2) : '–');
+
+/**
+ * The chart's figures as a table in a folded <details> (`details`, reused): one row per
+ * x, one column per series, the marks in the caption. `name` names the chart (its
+ * scrolling table is a region of that name). The table is filled (in place) only while
+ * the details are open, so that a recompute does not write figures nobody sees.
+ */
+function chartData(details, figures) {
+  details.figures = figures;
+  if (!details.firstChild) {
+    details.append(
+      make('summary', { text: 'The figures in this chart' }),
+      scrollRegion(`Figures: ${figures.name}`, make('table', { className: 'figures' })),
+    );
+    details.addEventListener('toggle', () => details.open && fillChartData(details));
+  }
+  if (details.open) fillChartData(details);
+  return details;
+}
+
+function fillChartData(details) {
+  const { series, marks, xLabel } = details.figures;
+  const plotted = series.filter((s) => s.points.length);
+  const xs = [...new Set(plotted.flatMap((s) => s.points.map((p) => p[0])))].sort((a, b) => a - b);
+  const byX = plotted.map((s) => new Map(s.points));
+  const rows = xs.map((x) => [figure(x), ...byX.map((m) => (m.has(x) ? figure(m.get(x)) : ''))]);
+  const table = details.querySelector('table');
+  const caption = marks.length ? `Marked: ${marks.map((m) => m.label).join('; ')}` : 'Chart figures';
+  fillTable(table, [xLabel || 'x', ...plotted.map((s) => s.label || s.kind)], rows, caption);
+  if (table.caption.textContent !== caption) table.caption.textContent = caption;
 }

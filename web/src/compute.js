@@ -1,10 +1,12 @@
 // Hedgeleaf page: engine calls on a Web Worker, one at a time, cancellable.
 //
-// A channel owns one worker built from a Blob of the inlined module script plus
-// the worker code (no network, no eval; CSP worker-src blob:). cancel()
-// terminates the worker mid-run; the next call starts a fresh one. Where a
-// worker cannot start, calls run on the main thread through the same loader.
-import { EngineError, loadEngine } from './engine.js';
+// A channel owns one worker built from a Blob of the module's JavaScript plus
+// the worker code (no network, no eval; CSP worker-src blob:); the first worker
+// compiles the engine's WebAssembly and every later one is handed that compiled
+// module, so it is compiled once. cancel() terminates the worker mid-run; the next call
+// starts a fresh one. Where a worker cannot start, calls run on the main thread
+// through the same loader.
+import { EngineError, loadEngine, unpackEngine } from './engine.js';
 
 /** Raised for calls cut short by cancel(). */
 export class Cancelled extends Error {
@@ -25,61 +27,132 @@ export function started(promise) {
 }
 
 /**
- * Workers built from the page's inlined engine module followed by the worker code
- * (one Blob, made once: no network, no eval). Returns a function that starts one.
+ * Workers built from the page's module script followed by the worker code (one
+ * Blob, made once: no network, no eval), and the engine's WebAssembly for them.
+ * `packed` is the page's packed WebAssembly (engine.js unpackEngine). The first
+ * worker unpacks and compiles it itself, at once, while this thread draws the page,
+ * and hands the compiled module back; every later worker gets that module (a
+ * worker made before it exists, or in a browser that will not pass a module to a
+ * worker, compiles its own). Returns {make: () => Worker, mainThread: () =>
+ * Promise<{factory, wasm}>} (the engine where no worker can start).
  */
-export function workerMaker(engineText, workerText) {
+export function engineWorkers(engineText, workerText, packed) {
+  /** Give `worker` the compiled module; false where this browser cannot pass one to a worker. */
+  const handOver = (worker, compiled) => {
+    try {
+      worker.postMessage({ engine: compiled });
+      return true;
+    } catch {
+      return false;
+    }
+  };
   const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
-  return () => new Worker(url, { name: 'hedgeleaf-engine' });
+  let module = null;
+  const keep = (event) => {
+    if (!event.data.compiled) return;
+    event.stopImmediatePropagation(); // for here, not for the worker's channel
+    module ??= event.data.compiled;
+  };
+  function make() {
+    const worker = new Worker(url, { name: 'hedgeleaf-engine' });
+    if (module && handOver(worker, module)) return worker;
+    worker.addEventListener('message', keep);
+    worker.postMessage({ unpack: packed });
+    return worker;
+  }
+  async function mainThread() {
+    module ??= (await unpackEngine(packed)).module;
+    return { factory: globalThis.createHedgeleaf, wasm: module };
+  }
+  return { make, mainThread };
 }
 
 export class EngineChannel {
-  /** @param {() => Worker} makeWorker  @param {() => Function} mainThreadFactory */
+  /**
+   * @param {() => Worker} makeWorker
+   * @param {() => Promise<{factory: Function, wasm: WebAssembly.Module}>} mainThreadFactory the engine for the main thread
+   */
   constructor(makeWorker, mainThreadFactory) {
     this.makeWorker = makeWorker;
     this.mainThreadFactory = mainThreadFactory;
+    this.held = null;
     this.worker = null;
     this.pending = new Map();
     this.nextId = 1;
     this.inline = false;
     this.proven = false;
+    /** Settles when this channel has answered its first call. */
+    this.answered = new Promise((resolve) => {
+      this.markAnswered = resolve;
+    });
+  }
+
+  /**
+   * Post no call before `promise` settles (calls made meanwhile wait for it), so that
+   * another channel's first result comes first. Returns this channel.
+   */
+  holdUntil(promise) {
+    const held = promise.then(
+      () => {},
+      () => {},
+    );
+    this.held = held;
+    held.then(() => {
+      if (this.held === held) this.held = null;
+    });
+    return this;
+  }
+
+  /**
+   * Start the worker now, if none runs, so that it loads the engine before the first call
+   * comes (calls start one anyway). False where no worker can start: calls run here.
+   */
+  start() {
+    if (this.worker) return true;
+    if (this.inline) return false;
+    try {
+      this.worker = this.makeWorker();
+    } catch {
+      // no worker here (a browser that refuses them from this page): run on the main thread
+      this.inline = true;
+      return false;
+    }
+    this.worker.onmessage = (event) => {
+      this.proven = true;
+      if (event.data.problem) console.error(`Hedgeleaf engine worker: ${event.data.problem}`);
+      else this.settle(event.data);
+    };
+    this.worker.onerror = (event) => {
+      event.preventDefault();
+      if (!this.proven) {
+        // the browser would not start a worker from this page: run here instead
+        const waiting = [...this.pending.values()];
+        this.pending.clear();
+        this.worker.terminate();
+        this.worker = null;
+        this.inline = true;
+        for (const entry of waiting) this.callInline(entry.command, entry.trade).then(entry.resolve, entry.reject);
+        return;
+      }
+      this.fail(new Error(`the engine worker failed: ${event.message || 'unknown error'}`));
+    };
+    return true;
   }
 
   /** Run one command; resolves with its result, rejects with EngineError, Cancelled or Error. */
   call(command, trade) {
-    if (this.inline) return this.callInline(command, trade);
-    if (!this.worker) {
-      try {
-        this.worker = this.makeWorker();
-      } catch {
-        // no worker here (a browser that refuses them from this page): run on the main thread
-        this.inline = true;
-        return this.callInline(command, trade);
-      }
-      this.worker.onmessage = (event) => {
-        this.proven = true;
-        this.settle(event.data);
-      };
-      this.worker.onerror = (event) => {
-        event.preventDefault();
-        if (!this.proven) {
-          // the browser would not start a worker from this page: run here instead
-          const waiting = [...this.pending.values()];
-          this.pending.clear();
-          this.worker.terminate();
-          this.worker = null;
-          this.inline = true;
-          for (const entry of waiting) this.callInline(entry.command, entry.trade).then(entry.resolve, entry.reject);
-          return;
-        }
-        this.fail(new Error(`the engine worker failed: ${event.message || 'unknown error'}`));
-      };
-    }
+    if (this.held) return this.held.then(() => this.call(command, trade));
+    if (!this.start()) return this.callInline(command, trade);
     const id = this.nextId++;
     return new Promise((resolve, reject) => {
       this.pending.set(id, { resolve, reject, command, trade });
       this.worker.postMessage({ id, command, trade });
     });
+  }
+
+  /** Have the worker, if one runs, optimise the engine's code now (worker.js), ahead of the user's edits. */
+  warmUp() {
+    if (this.worker && !this.held) this.worker.postMessage({ warmUp: true });
   }
 
   /** True while a call is running on the worker. */
@@ -93,10 +166,14 @@ export class EngineChannel {
   }
 
   settle(message) {
+    this.markAnswered();
     const entry = this.pending.get(message.id);
     if (!entry) return;
     this.pending.delete(message.id);
-    if (message.error) entry.reject(new EngineError(message.error.field, message.error.message, message.error.detail));
+    if (message.error)
+      entry.reject(
+        new EngineError(message.error.field, message.error.message, message.error.detail, message.error.kind),
+      );
     else if (message.fatal) {
       entry.reject(new Error(message.fatal));
       this.fail(new Error(message.fatal)); // an aborted runtime is dead: start afresh next time
@@ -112,8 +189,13 @@ export class EngineChannel {
   }
 
   async callInline(command, trade) {
-    const engine = await loadEngine(this.mainThreadFactory());
+    const { factory, wasm } = await this.mainThreadFactory();
+    const engine = await loadEngine(factory, wasm);
     await new Promise((resolve) => setTimeout(resolve, 0)); // let the page paint first
-    return engine.run(command, trade);
+    try {
+      return engine.run(command, trade);
+    } finally {
+      this.markAnswered();
+    }
   }
 }

@@ -14,6 +14,7 @@ import {
   fillTable,
   make,
   optionList,
+  scrollRegion,
   select,
   setText,
 } from './dom.js';
@@ -173,7 +174,7 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
       table = make('table', { className: 'figures', dataset: { result: 'ladder' } });
       output.replaceChildren(
         make('p', { className: 'hint' }),
-        make('div', { className: 'table-scroll' }, [table]),
+        scrollRegion('Scenario table', table),
         make('p', { className: 'hint' }),
       );
     }

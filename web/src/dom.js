@@ -102,6 +102,14 @@ export function setText(node, text) {
   }
 }
 
+/**
+ * A box that scrolls `table` inside its card: a region named `label`, reachable with the
+ * Tab key (tabindex 0), so that a keyboard can scroll it too.
+ */
+export function scrollRegion(label, table) {
+  return make('div', { className: 'table-scroll', tabIndex: 0, role: 'region', 'aria-label': label }, [table]);
+}
+
 /** A table row: the first cell heads it (`th`), the rest are data cells. */
 export function tableRow(cells) {
   return make(

@@ -7,10 +7,11 @@
 // (messages.js). terms.js draws the terms form; saving.js moves the trade in
 // and out of the page; the cards (hedge.js, simulate.js, desk.js) get what they
 // use passed in here.
-import { EngineChannel, workerMaker } from './compute.js';
+import { EngineChannel, engineWorkers } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
+import { formatNumber } from './format.js';
 import { hedgePanel } from './hedge.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
 import { fillProfileRange } from './profile.js';
@@ -25,13 +26,21 @@ import { workStore } from './work.js';
 const scope = document.querySelector('main'); // the terms form and every card
 const state = pageState(commandsFrom(byId('engine-commands').textContent));
 
-// Two engines on two workers: `live` prices, `desk` runs the profile, hedge schedule,
-// ladder and solve for the same edit at the same time, so the slowest of them, not
-// their sum, sets how long a recompute takes. The simulation has a worker of its own.
-const makeWorker = workerMaker(byId('engine-js').textContent, byId('worker-js').textContent);
-const mainThreadFactory = () => globalThis.createHedgeleaf;
+// The engine's WebAssembly is compiled once, by the first worker, and every later
+// worker gets the compiled module (compute.js engineWorkers). Two engines on two
+// workers: `live` prices, `desk` runs the profile, hedge schedule, ladder and solve
+// for the same edit at the same time, so the slowest of them, not their sum, sets
+// how long a recompute takes. The simulation has a worker of its own.
+const workers = engineWorkers(
+  byId('engine-js').textContent,
+  byId('worker-js').textContent,
+  byId('engine-wasm').textContent,
+);
+const makeWorker = workers.make;
+const mainThreadFactory = workers.mainThread;
 const live = new EngineChannel(makeWorker, mainThreadFactory);
 const desk = new EngineChannel(makeWorker, mainThreadFactory);
+live.start(); // the engine loads on its worker while this thread builds the page
 
 /** Error lines for every bound input, pointed at the fields they write now. */
 const bindControls = () => syncErrorPaths(scope, state.doc);
@@ -78,8 +87,29 @@ async function start() {
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
   const first = await openingTrade(state, work, live);
   state.doc = first.doc;
-  for (const card of cards) card.setup();
-  fillForm();
+  // The price is asked for first, before the form is drawn, so that the engine worker
+  // prices while this thread builds the page. The cards' calls wait for the price (on a
+  // slow laptop they would compete with it for the cores: they show soon after it); the
+  // cards below the terms, off screen at first, are built once the first figures are in
+  // (at once when figures kept from before a reload are shown); the engine warms up last.
+  const setUpCards = () => {
+    for (const card of cards) card.setup();
+    fillProfileRange(state.doc);
+    bindControls();
+  };
+  desk.holdUntil(live.answered);
+  cycle.recompute().finally(() => {
+    if (!first.figures) setUpCards();
+    desk.warmUp();
+  });
+  if (first.figures) setUpCards();
+  terms.fill();
+  fillProfileRange(state.doc);
+  bindControls();
+  // The browser's number formats take some 30 ms to make the first time: make the two
+  // the figures use now, while the engine prices, not after.
+  formatNumber(0, 2);
+  formatNumber(0, 4);
   listenForEdits({
     scope,
     state,
@@ -106,7 +136,6 @@ async function start() {
     () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price),
   );
   document.body.classList.add('ready');
-  cycle.recompute();
 }
 
 start();

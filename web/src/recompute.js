@@ -109,9 +109,11 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     if (!current()) return;
     // The profile, schedule and ladder usually follow within a few milliseconds: wait for
     // them (up to 12 ms) so that the page shows the whole recompute in one go, one layout
-    // and no half-updated state; a slower one (a big lattice) comes in on its own later.
+    // and no half-updated state; a slower one (a big lattice), or one held back until the
+    // price is in (on opening, main.js), comes in on its own later.
     const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
-    if (following.length) await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 12))]);
+    if (following.length && !desk.held)
+      await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 12))]);
     if (!current()) return;
     notBusy();
     clearErrors();

@@ -8,7 +8,7 @@
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, EngineChannel } from './compute.js';
-import { boundFields, button, errorLine, fieldRow, fillTable, make } from './dom.js';
+import { boundFields, button, errorLine, fieldRow, fillTable, make, scrollRegion } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart, inputText } from './format.js';
 
@@ -202,11 +202,11 @@ export function simulatePanel({
     }));
     const chart = make('div', {
       className: 'chart',
-      role: 'img',
+      role: 'figure',
       'aria-label': 'Distribution of the hedging P&L per unit',
     });
     output.replaceChildren(
-      make('div', { className: 'table-scroll' }, [table]),
+      scrollRegion('Simulation results', table),
       chart,
       make('p', {
         className: 'hint',

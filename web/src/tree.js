@@ -72,7 +72,8 @@ export function drawTree(host, tree, moves, pick, digits = 2) {
       class: `node${on ? ' on-path' : ''}${node.event === 'early' ? ' exercise' : ''}`,
       tabindex: -1,
       role: 'button',
-      'aria-label': `Step ${node.step}, spot ${formatNumber(node.spot, digits)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}`,
+      // the name holds the text the node shows, its spot, as it reads
+      'aria-label': `Step ${node.step}: spot ${formatNumber(node.spot, digits)}, value ${formatNumber(node.value, 2)}${node.event === 'early' ? ', exercised early' : ''}`,
     });
     g.append(makeSvg('circle', { cx: x(node.step), cy: y(node.step, node.index), r: 6 }));
     g.append(
@@ -82,14 +83,6 @@ export function drawTree(host, tree, moves, pick, digits = 2) {
         formatNumber(node.spot, digits),
       ),
     );
-    if (on)
-      g.append(
-        makeSvg(
-          'text',
-          { x: x(node.step), y: y(node.step, node.index) + 17, 'text-anchor': 'middle', class: 'value' },
-          `V ${formatNumber(node.value, 2)}`,
-        ),
-      );
     if (node.step > 0) {
       const choose = () => pick(routeThrough(moves, node.step, node.index));
       g.addEventListener('click', choose);
@@ -101,6 +94,15 @@ export function drawTree(host, tree, moves, pick, digits = 2) {
       });
     }
     root.append(g);
+    // beside the node, not in it: a button's name must hold the text it shows (its spot)
+    if (on)
+      root.append(
+        makeSvg(
+          'text',
+          { x: x(node.step), y: y(node.step, node.index) + 17, 'text-anchor': 'middle', class: 'node-value' },
+          `V ${formatNumber(node.value, 2)}`,
+        ),
+      );
   }
   host.replaceChildren(root, legend(tree));
 }

@@ -1,17 +1,32 @@
 // Hedgeleaf page: the Web Worker that runs engine commands off the main thread.
 //
-// The page builds this worker from a Blob holding the inlined module script
+// The page builds this worker from a Blob holding the module's JavaScript
 // (which defines createHedgeleaf) followed by this code, so the worker needs
-// no network and no eval. Messages in: {id, command, trade}; out: {id, result}
-// or {id, error: {field, message}} or {id, fatal} when the engine cannot run.
-import { EngineError, loadEngine } from './engine.js';
+// no network and no eval. Messages in, first: {engine}, the engine's compiled
+// WebAssembly.Module, or {unpack}, the page's packed WebAssembly, which this
+// worker unpacks and compiles itself and then hands back as {compiled} for the
+// page's other workers; then {id, command, trade} (a call may come before its
+// engine is ready: it waits) and {warmUp: true}. Out: {id, result} or
+// {id, error: {field, message}} or {id, fatal} when the engine cannot run, and
+// {problem} for a security-policy violation here, which the page reports on
+// its own console (where people and automation look; a worker's console is
+// often hidden).
+import { EngineError, loadEngine, unpackEngine } from './engine.js';
 
-// V8 first runs WebAssembly in its baseline tier and compiles a function
-// optimised only after it has run for a while; a long call stays on the code it
-// started with. So once the first results are back, price a few small trades
-// (some 20 ms in all) so that the lattice kernels are optimised before the
-// user's first edit. All four commands share the kernel, so a worker asked for
-// any of them warms them all; a worker that only simulates (its own card) does not.
+let haveEngine;
+let noEngine;
+const engineGiven = new Promise((resolve, reject) => {
+  haveEngine = resolve;
+  noEngine = reject;
+});
+engineGiven.catch(() => {}); // each call reports it
+
+// V8 and WebKit first run WebAssembly in a baseline tier and optimise a function
+// only after it has run for a while; a long call stays on the code it started
+// with. So once the page has shown its first figures it asks one worker to price
+// a few small trades (some 20 ms in all), so that the lattice kernels are
+// optimised before the user's first edit. The workers share one compiled module,
+// so the optimised code serves them all.
 const warmUpTrades = [
   {
     market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
@@ -25,40 +40,59 @@ const warmUpTrades = [
   },
 ];
 const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
-let warmUp = null;
 
-function scheduleWarmUp(engine, command) {
-  if (warmUp || !warmUpCommands.includes(command)) return;
-  warmUp = setTimeout(() => {
-    for (const name of warmUpCommands) {
-      if (!engine.commands.includes(name)) continue;
-      for (const trade of warmUpTrades) {
-        try {
-          engine.run(name, trade);
-        } catch {
-          // a refusal here changes nothing for the user: warming up is best effort
-        }
+function warmUp(engine) {
+  for (const name of warmUpCommands) {
+    if (!engine.commands.includes(name)) continue;
+    for (const trade of warmUpTrades) {
+      try {
+        engine.run(name, trade);
+      } catch {
+        // a refusal here changes nothing for the user: warming up is best effort
       }
     }
-  }, 30);
+  }
 }
+
+self.addEventListener('securitypolicyviolation', (event) => {
+  self.postMessage({ problem: `${event.violatedDirective} refused ${String(event.blockedURI).slice(0, 80)}` });
+});
 
 /* global createHedgeleaf */
 self.onmessage = async (event) => {
-  const { id, command, trade } = event.data;
+  const { id, command, trade, engine: wasm, unpack } = event.data;
+  if (wasm) {
+    haveEngine(wasm);
+    return;
+  }
+  if (unpack) {
+    unpackEngine(unpack).then(({ module }) => {
+      haveEngine(module);
+      loadEngine(createHedgeleaf, module).catch(() => {}); // ready before the first call; a call reports a failure
+      try {
+        self.postMessage({ compiled: module });
+      } catch {
+        // a browser that cannot pass the module on: the other workers compile their own
+      }
+    }, noEngine);
+    return;
+  }
   let engine;
   try {
-    engine = await loadEngine(createHedgeleaf);
+    engine = await loadEngine(createHedgeleaf, await engineGiven);
   } catch (err) {
-    self.postMessage({ id, fatal: String(err.message || err) });
+    if (id) self.postMessage({ id, fatal: String(err.message || err) });
+    return;
+  }
+  if (event.data.warmUp) {
+    warmUp(engine);
     return;
   }
   try {
     self.postMessage({ id, result: engine.run(command, trade), version: engine.version, commands: engine.commands });
   } catch (err) {
     if (err instanceof EngineError)
-      self.postMessage({ id, error: { field: err.field, message: err.message, detail: err.detail } });
+      self.postMessage({ id, error: { field: err.field, message: err.message, detail: err.detail, kind: err.kind } });
     else self.postMessage({ id, fatal: String(err.message || err) });
   }
-  scheduleWarmUp(engine, command);
 };
