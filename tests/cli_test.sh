@@ -77,17 +77,18 @@ one_bad price "{$m,\"quote\":{\"currency\":\"eur\"}}" 'quote.currency: must be a
 
 # compare (core/analytics/comparison, core/commands/compare): a comparison file, or several trade files
 ex="$root/examples/protect-a-holding.json"
-out=$("$cli" compare "$ex"); code=$?
-check "compare exits 0" '[ $code -eq 0 ]'
-check "compare prints three rows" '[ $(echo "$out" | /usr/bin/python3 -c "import json,sys; print(len(json.load(sys.stdin)[\"rows\"]))") -eq 3 ]'
-out=$("$cli" compare "$ex" --table); code=$?
-check "compare --table exits 0" '[ $code -eq 0 ]'
-check "compare --table shows each label and the caution" 'echo "$out" | grep -q "Put spread 34.00 / 29.00" && echo "$out" | grep -q "Zero-cost collar" && echo "$out" | grep -q "^caution .*Indicative only"'
-check "compare --table leaves out the chart points" '! echo "$out" | grep -q "curve"'
-out=$("$cli" compare "$ex" --csv); code=$?
-check "compare --csv exits 0" '[ $code -eq 0 ]'
-check "compare --csv header" '[ "$(echo "$out" | head -1 | cut -d, -f1-5)" = "label,client_side,quantity,client_price,client_price_total" ]'
-check "compare --csv has a line per alternative" '[ $(echo "$out" | wc -l) -eq 4 ]'
+for form in json table csv; do
+    flag=$([ $form = json ] || echo "--$form")
+    "$cli" compare "$ex" $flag > "/tmp/compare.$$.$form"
+    check "compare ${flag:-(JSON)} exits 0" "[ $? -eq 0 ]"
+done
+rows=$(/usr/bin/python3 -c 'import json,sys; print(len(json.load(open(sys.argv[1]))["rows"]))' "/tmp/compare.$$.json")
+check "compare prints three rows" '[ "$rows" -eq 3 ]'
+table=$(cat "/tmp/compare.$$.table"); csv=$(cat "/tmp/compare.$$.csv"); rm -f /tmp/compare.$$.*
+check "compare --table shows each label and the caution" 'echo "$table" | grep -q "Put spread 34.00 / 29.00" && echo "$table" | grep -q "Zero-cost collar" && echo "$table" | grep -q "^caution .*Indicative only"'
+check "compare --table leaves out the chart points" '! echo "$table" | grep -q "curve"'
+check "compare --csv header" '[ "$(echo "$csv" | head -1 | cut -d, -f1-5)" = "label,client_side,quantity,client_price,client_price_total" ]'
+check "compare --csv has a line per alternative" '[ $(echo "$csv" | wc -l) -eq 4 ]'
 tmp=$(mktemp -d)
 /usr/bin/python3 -c "
 import json, sys

@@ -39,22 +39,6 @@ double pnl_at(const position_at_price& p, double spot, double horizon_years) {
     return horizon_payoff(p.legs, spot, horizon_years) - p.cost;
 }
 
-double earliest_expiry(const trade& t) {
-    double h = t.final_expiry_years();
-    for (const auto& leg : t.legs)
-        if (leg.type != payoff_kind::stock) h = std::min(h, leg.expiry_years);
-    return h;
-}
-
-std::vector<double> strikes_of(const trade& t) {
-    std::vector<double> k;
-    for (const auto& leg : t.legs)
-        if (leg.type != payoff_kind::stock) k.push_back(leg.strike);
-    std::sort(k.begin(), k.end());
-    k.erase(std::unique(k.begin(), k.end()), k.end());
-    return k;
-}
-
 /// The slope of the payoff at expiry on the piece between strikes that holds `spot`
 /// (not a strike): calls above their strike, puts below theirs, and shares everywhere
 /// move with spot; a digital only jumps.
@@ -132,10 +116,10 @@ void best_and_worst(const position_at_price& p, double horizon_years, const std:
 
 client_outcomes outcomes_for_client(const trade& t, const client_price& price, double holding_shares) {
     client_outcomes out;
-    out.horizon_years = earliest_expiry(t);
-    out.one_expiry = t.final_expiry_years() <= out.horizon_years + 1e-9;
+    out.horizon_years = first_expiry(t);
+    out.one_expiry = one_expiry(t);
     out.holding_per_unit = holding_shares / t.quantity;
-    out.kinks = strikes_of(t);
+    out.kinks = sorted_strikes(t);
     const position_at_price alone = client_position(t, price, 0);
     out.alone = find_break_evens(alone.legs, alone.cost);
     const position_at_price whole = client_position(t, price, out.holding_per_unit);

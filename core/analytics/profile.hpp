@@ -25,6 +25,13 @@ namespace hedgeleaf {
 /// then pay their payoff; later legs are valued in closed form.
 double horizon_payoff(const trade& t, double s, double horizon_years);
 
+/// The first expiry of the trade's option legs (the final expiry for shares alone).
+double first_expiry(const trade& t);
+/// Every option leg expires at the first expiry: the payoff there is piecewise linear.
+bool one_expiry(const trade& t);
+/// The option legs' strikes, ascending, each once.
+std::vector<double> sorted_strikes(const trade& t);
+
 /// Where the P&L at the horizon (payoff minus `cost`) is zero.
 struct break_evens {
     std::vector<double> points;                     ///< isolated break-even spots, ascending

@@ -67,8 +67,7 @@ test('a refusal names the field inside the comparison', () => {
   assert.throws(
     () => engine.run('compare', JSON.stringify(bad)),
     (err) =>
-      err instanceof EngineError &&
-      err.message === 'comparison.alternatives[2].quote.margin: must be >= 0, got -1',
+      err instanceof EngineError && err.message === 'comparison.alternatives[2].quote.margin: must be >= 0, got -1',
   );
 });
 
