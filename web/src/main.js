@@ -82,6 +82,29 @@ function fillForm() {
   bindControls();
 }
 
+/**
+ * The printed sheet is the client's unless the internal switch is on; the choice is the desk's
+ * and is remembered in this browser (never in the trade file, so a shared trade prints client-safe).
+ */
+function wireInternalSwitch() {
+  const store = browserStore('localStorage');
+  const key = 'hedgeleaf.sheet.internal';
+  const box = byId('sheet-internal');
+  try {
+    box.checked = store?.getItem(key) === 'on';
+  } catch {
+    box.checked = false;
+  }
+  box.addEventListener('change', () => {
+    try {
+      store?.setItem(key, box.checked ? 'on' : 'off');
+    } catch {
+      // storage switched off or full: the switch still applies to this page
+    }
+    if (state.price) cycle.refreshSheet(structuredClone(state.doc), state.price);
+  });
+}
+
 async function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
@@ -130,6 +153,7 @@ async function start() {
   if (first.keep) files.keep(); // a link's trade is kept at once, not only once edited
   if (first.figures) cycle.showKept(first.figures);
   if (first.fresh && !first.message) recent.offerLatest();
+  wireInternalSwitch();
   byId('action-print').addEventListener('click', () => window.print());
   window.addEventListener(
     'beforeprint',
