@@ -220,6 +220,30 @@ test('the print view is the client sheet, with the cautions; client text stays t
   await page.close();
 });
 
+test('a two-way quote shows the bid and the offer; shares held never change the client price', async () => {
+  const trade = JSON.parse(exampleText);
+  trade.quote = { currency: 'EUR', margin: 0.1, tick: 0.01, two_way: true, holding: { shares: 25000 } };
+  const cli = (await cliResult(JSON.stringify(trade))).client_price;
+  const page = await open(linkTo(JSON.stringify(trade)));
+  const shown = await until(page, () => {
+    const node = document.querySelector('[data-result="bid-offer"]');
+    return node && !node.closest('[hidden]') && node.textContent !== '–' && node.textContent;
+  });
+  assert.equal(shown, `${cli.bid.per_unit.toFixed(4)} / ${cli.offer.per_unit.toFixed(4)}`);
+  const price = await page.getAttribute('[data-result="client-price"]', 'data-value');
+  assert.equal(Number(price), cli.offer.per_unit, 'the client buys at the offer');
+  delete trade.quote.holding;
+  assert.equal(
+    (await cliResult(JSON.stringify(trade))).client_price.per_unit,
+    cli.per_unit,
+    'the holding is not priced',
+  );
+  // the break-even on screen is the client's: strike - offer (the engine's, at the client price)
+  const evens = await until(page, () => document.querySelector('[data-result="break-even"]')?.dataset.values);
+  assert.ok(Math.abs(JSON.parse(evens)[0] - (46 - cli.offer.per_unit)) < 1e-9, `break-even ${evens}`);
+  await page.close();
+});
+
 test('a hedge along a path picked on the tree; a long simulation cancels, a short one reports', async () => {
   const page = await open();
   await page.check('input[name="hedge-kind"][value="lattice"]');

@@ -135,6 +135,11 @@ function writeFigures(doc, r, set) {
 
   const cp = r.client_price;
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
+  for (const node of document.querySelectorAll('.two-way')) node.hidden = !cp?.two_way;
+  if (cp?.two_way) {
+    const side = (x) => formatNumber(x, perUnitDigitsOf(x));
+    set('bid-offer', `${side(cp.bid.per_unit)} / ${side(cp.offer.per_unit)}`, cp.offer.per_unit);
+  }
   if (cp) {
     set(
       'client-price',
