@@ -244,6 +244,35 @@ test('a two-way quote shows the bid and the offer; shares held never change the 
   await page.close();
 });
 
+test('Show to client: larger type, the client price first, the desk figures hidden, remembered', async () => {
+  const trade = JSON.parse(exampleText);
+  trade.quote = { currency: 'EUR', margin: 0.1, tick: 0.01 };
+  const cli = (await cliResult(JSON.stringify(trade))).client_price;
+  const page = await open(linkTo(JSON.stringify(trade)));
+  const visible = (selector) => page.locator(selector).first().isVisible();
+  assert.ok(await visible('[data-result="premium"]'), 'the desk sees the model value');
+  const fontBefore = await page.evaluate(() => parseFloat(getComputedStyle(document.body).fontSize));
+  await page.check('#present-view');
+  for (const deskOnly of ['[data-result="premium"]', '[data-result="desk-margin-total"]', '[data-result="delta"]'])
+    assert.ok(!(await visible(deskOnly)), `${deskOnly} is hidden on the shared screen`);
+  const headline = page.locator('.headline-client [data-result="client-price"]');
+  assert.ok(await headline.isVisible());
+  assert.equal((await headline.textContent()).trim(), `${cli.per_unit.toFixed(4)} EUR`);
+  assert.ok(await visible('#profile-chart'), 'the chart stays');
+  const fontAfter = await page.evaluate(() => parseFloat(getComputedStyle(document.body).fontSize));
+  assert.ok(fontAfter > fontBefore * 1.2, `larger type: ${fontBefore} -> ${fontAfter}`);
+  // the chart comes before the terms
+  const [chartTop, termsTop] = await page.evaluate(() =>
+    ['profile-chart', 'terms'].map((id) => document.getElementById(id).getBoundingClientRect().top),
+  );
+  assert.ok(chartTop < termsTop, 'the chart first');
+  await page.reload();
+  await until(page, () => document.body.classList.contains('presenting'));
+  await page.uncheck('#present-view');
+  assert.ok(await visible('[data-result="premium"]'));
+  await page.close();
+});
+
 test('a hedge along a path picked on the tree; a long simulation cancels, a short one reports', async () => {
   const page = await open();
   await page.check('input[name="hedge-kind"][value="lattice"]');

@@ -87,9 +87,15 @@ function fillForm() {
  * and is remembered in this browser (never in the trade file, so a shared trade prints client-safe).
  */
 function wireInternalSwitch() {
+  rememberedSwitch('sheet-internal', 'hedgeleaf.sheet.internal', () => {
+    if (state.price) cycle.refreshSheet(structuredClone(state.doc), state.price);
+  });
+}
+
+/** A checkbox the desk sets once for this browser (never in the trade file); `apply` runs on every change. */
+function rememberedSwitch(id, key, apply) {
   const store = browserStore('localStorage');
-  const key = 'hedgeleaf.sheet.internal';
-  const box = byId('sheet-internal');
+  const box = byId(id);
   try {
     box.checked = store?.getItem(key) === 'on';
   } catch {
@@ -101,8 +107,14 @@ function wireInternalSwitch() {
     } catch {
       // storage switched off or full: the switch still applies to this page
     }
-    if (state.price) cycle.refreshSheet(structuredClone(state.doc), state.price);
+    apply(box.checked);
   });
+  apply(box.checked);
+}
+
+/** Show to client: the presentation view (larger type, the desk's figures hidden), remembered. */
+function wirePresentSwitch() {
+  rememberedSwitch('present-view', 'hedgeleaf.view.present', (on) => document.body.classList.toggle('presenting', on));
 }
 
 async function start() {
@@ -154,6 +166,7 @@ async function start() {
   if (first.figures) cycle.showKept(first.figures);
   if (first.fresh && !first.message) recent.offerLatest();
   wireInternalSwitch();
+  wirePresentSwitch();
   byId('action-print').addEventListener('click', () => window.print());
   window.addEventListener(
     'beforeprint',
