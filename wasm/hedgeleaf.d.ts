@@ -128,7 +128,7 @@ export interface TradeDocument {
   structure?: {
     shape: "call-spread" | "put-spread" | "collar" | "risk-reversal" | "straddle" | "strangle" | "seagull" | "covered-call";
     strikes: number[];                   // ascending
-    expiry_years?: number; expiry_date?: string;
+    expiry_years?: number; expiry_date?: string; expiry_tenor?: string;  // exactly one
     exercise?: "european" | "american";
   };
   quantity?: number;                     // > 0, default 1
@@ -141,7 +141,8 @@ export interface TradeDocument {
 export interface OptionTerms {
   type: "call" | "put" | "digital-call" | "digital-put";
   strike: number;
-  expiry_years?: number; expiry_date?: string;   // exactly one
+  expiry_years?: number; expiry_date?: string;   // exactly one of the three
+  expiry_tenor?: string;                          // "1w", "3m", "6m", "1y", "18m" (docs/trade-file.md)
   exercise?: "european" | "american" | "bermudan";
   exercise_dates?: string[]; exercise_years?: number[];  // bermudan only
   payout?: number;                                // digitals only, default 1
@@ -162,6 +163,7 @@ export interface PriceResult {
           error_estimate: number; strike?: number; expiry_years?: number; exercise?: string }[];
   spot: number;
   expiry_years: number;
+  notes: string[];                       // from the lattices: not extrapolated and why, fallbacks, rough Greeks
   engine_version: string;
   /** Present when the trade has a `quote` section (currency required). */
   client_price?: {
@@ -202,6 +204,8 @@ export interface HedgeResult {
             total_shares_traded: number; total_costs: number; end_event: string };
   desk: { shares_at_start: number; shares_at_end: number; pnl: number };
   notes: string[];
+  price_premium: number;                 // the price command's premium for the same trade
+  difference_from_price: number;         // totals.premium - price_premium (a note says so when visible)
 }
 
 /** "tree": the lattice nodes for the tree view and, for a lattice path, the path. */
@@ -209,6 +213,8 @@ export interface TreeResult {
   nodes: { step: number; index: number; spot: number; value: number; shares: number; cash: number;
            event: "none" | "early" | "expiry" }[];
   up: number; down: number; p_up: number; dt_years: number; to_step: number;
+  price_premium: number;                 // the price command's premium for the same trade
+  difference_from_price: number;         // the root's value - price_premium (a note says so when visible)
 }
 
 /** "simulate": discrete-hedging P&L over many paths (the trade's `simulate` section). */

@@ -163,7 +163,7 @@ std::vector<double> default_outcome_spots(double spot) {
 
 price_result run_price(const trade& t, const price_settings& settings) {
     price_result out;
-    out.priced = price_trade(t, bumped_greeks::on);
+    out.priced = price_trade(t, bumped_greeks::on, error_bound::on);
     if (!settings.quote) return out;
     out.quote = price_for_client(t, out.priced, *settings.quote);
     out.client = outcomes_for_client(t, *out.quote, settings.quote->holding_shares);

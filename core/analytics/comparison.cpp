@@ -65,7 +65,7 @@ std::vector<double> chart_spots(const std::vector<alternative>& alternatives, co
 
 alternative_figures figures_of(const alternative& a) {
     alternative_figures f;
-    f.priced.priced = price_trade(a.t, bumped_greeks::on);
+    f.priced.priced = price_trade(a.t, bumped_greeks::on, error_bound::on);
     f.terms = a.quote.value_or(quote_terms{});
     f.price = price_for_client(a.t, f.priced.priced, f.terms);
     if (a.quote) f.priced.quote = f.price;

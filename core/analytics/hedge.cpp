@@ -329,6 +329,7 @@ hedge_schedule run_hedge(const trade& t, const hedge_settings& hs) {
     const std::vector<mark> marks =
         hs.path.kind == path_kind::lattice ? lattice_marks(t, hs, out.notes) : price_marks(t, hs, out.notes);
     book_marks(t, hs, marks, out);
+    out.against_price = compare_with_price(t, out.totals.premium);
     return out;
 }
 

@@ -106,6 +106,7 @@ struct hedge_schedule {
     std::vector<hedge_row> rows;
     hedge_totals totals;
     std::vector<std::string> notes;
+    premium_comparison against_price;  ///< the starting value beside the price command's premium
 };
 
 /// The schedule of `t` under `settings`.

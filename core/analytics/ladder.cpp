@@ -147,6 +147,7 @@ ladder_result run_ladder(const trade& t, const ladder_settings& settings) {
     };
     ladder_result out;
     out.today = value_at({});
+    out.against_price = compare_with_price(t, out.today.value);
     for (std::size_t i = 0; i < scenarios.size(); ++i) {
         ladder_row row = row_of(t, scenarios[i], value_at(scenarios[i]), out.today);
         if (settings.kind == ladder_kind::time) row.days = settings.days[i];

@@ -8,6 +8,7 @@
 // 21 x 11 grid is quick enough to recompute while the user types.
 #pragma once
 
+#include "analytics/pricing.hpp"
 #include "contract/trade.hpp"
 
 #include <string>
@@ -67,7 +68,8 @@ struct ladder_row {
 
 struct ladder_result {
     scenario_value today;
-    std::vector<ladder_row> rows;  ///< a grid: spot shift by spot shift, volatility shifts within
+    premium_comparison against_price;  ///< today's value beside the price command's premium
+    std::vector<ladder_row> rows;      ///< a grid: spot shift by spot shift, volatility shifts within
 };
 
 /// Value every scenario of the ladder; refuses a grid of more than max_grid_cells cells

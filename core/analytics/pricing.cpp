@@ -5,13 +5,13 @@
 
 namespace hedgeleaf {
 
-trade_result price_trade(const trade& t, bumped_greeks bumps) {
+trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estimate) {
     trade_result out;
     out.method = t.lattice.method;
     for (const auto& leg : t.legs) {
         leg_result lr;
         lr.leg = leg;
-        lr.lattice = price_leg(t.market, leg, t.lattice, bumps);
+        lr.lattice = price_leg(t.market, leg, t.lattice, bumps, estimate);
         lr.reference = closed_form(t.market, leg);
         out.premium += leg.quantity * lr.lattice.premium;
         out.sensitivities = out.sensitivities + leg.quantity * lr.lattice.sensitivities;
@@ -32,6 +32,10 @@ trade_result price_trade(const trade& t, bumped_greeks bumps) {
     out.replication.shares = out.sensitivities.delta;
     out.replication.cash = out.premium - out.sensitivities.delta * t.market.spot;
     return out;
+}
+
+premium_comparison compare_with_price(const trade& t, double card_premium) {
+    return {price_trade(t, bumped_greeks::off).premium, card_premium};
 }
 
 }  // namespace hedgeleaf

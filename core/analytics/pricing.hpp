@@ -39,7 +39,18 @@ struct trade_result {
 };
 
 /// Price every leg on its own lattice (each centred on its strike) and sum them; vega and
-/// rho by re-pricing when `bumps` is on (the price command), else left 0 (ladders, quotes).
-trade_result price_trade(const trade& t, bumped_greeks bumps);
+/// rho by re-pricing when `bumps` is on (the price command), else left 0 (ladders, quotes);
+/// the error bound when `estimate` is on (the price command).
+trade_result price_trade(const trade& t, bumped_greeks bumps, error_bound estimate = error_bound::off);
+
+/// One trade, one premium: another card's value of the trade today (hedge schedule, ladder,
+/// tree: each on its own, often coarser, lattice) beside the price command's premium.
+struct premium_comparison {
+    double price_premium = 0;  ///< the price command's premium (the trade's lattice settings)
+    double card_premium = 0;   ///< the card's own value of the trade today, same spot
+    double difference() const { return card_premium - price_premium; }
+};
+/// Price `t` as the price command does (without bumps or error bound) beside `card_premium`.
+premium_comparison compare_with_price(const trade& t, double card_premium);
 
 }  // namespace hedgeleaf

@@ -31,10 +31,10 @@ void induce_leg(const trade_lattice& lat, std::size_t k, Visit&& visit) {
     for (int j = 0; j <= m; ++j)
         row[j] = stock ? lat.diffusing(m, j) + pv_m : exercise_value(leg, lat.diffusing(m, j) + pv_m);
     visit(m, row, event);
-    const double pu = lat.step.discount * lat.step.p_up;
-    const double pd = lat.step.discount * (1 - lat.step.p_up);
     const std::vector<char>& allowed = lat.allowed[k];
     for (int n = m - 1; n >= 0; --n) {
+        const double pu = lat.step(n).discount * lat.step(n).p_up;
+        const double pd = lat.step(n).discount * (1 - lat.step(n).p_up);
         const bool may_exercise = allowed[static_cast<std::size_t>(n)] != 0;
         const double pv = stock || may_exercise ? lat.dividends_after(n) : 0.0;
         for (int j = 0; j <= n; ++j) {
@@ -67,7 +67,7 @@ void leg_hedge(const trade_lattice& lat, std::size_t k, int n, int j, double v_d
     const double x_down = v_down + (stock ? inc : 0.0);
     const double s_up = lat.spot(n + 1, j + 1), s_down = lat.spot(n + 1, j);
     shares = (x_up - x_down) / (s_up - s_down);
-    cash = (x_up - shares * (s_up + inc)) * lat.step.discount;
+    cash = (x_up - shares * (s_up + inc)) * lat.step(n).discount;
 }
 
 // Per leg and level of a path: the value on the path, its event, and the two children of the path node.
@@ -102,30 +102,63 @@ std::string to_string(node_event e) {
     return word_of(words, e);
 }
 
+namespace {
+
+// The grid of the trade's lattice: a step boundary on every event when `n_steps` allows it.
+time_grid trade_grid(const trade& t, int n_steps, std::vector<std::string>& notes) {
+    const double T = t.final_expiry_years();
+    std::vector<double> events;
+    for (const auto& leg : t.legs) {
+        if (leg.type == payoff_kind::stock) continue;
+        events.push_back(leg.expiry_years);
+        const std::vector<double> own = leg_events(t.market, leg);
+        events.insert(events.end(), own.begin(), own.end());
+    }
+    time_grid grid = make_time_grid(T, n_steps, events);
+    if (grid.steps == n_steps) return grid;
+    notes.push_back("the trade's expiries, exercise and dividend dates need " + std::to_string(grid.segments) +
+                    " pieces of the lattice, more than its " + std::to_string(n_steps) +
+                    " steps: the steps are equal and such dates fall on the nearest step (give at least " +
+                    std::to_string(grid.segments) + " steps to put each on its own step)");
+    return make_time_grid(T, n_steps, {});
+}
+
+}  // namespace
+
 trade_lattice::trade_lattice(const trade& t, int n_steps) : source(&t), steps(n_steps) {
     const double T = t.final_expiry_years();
-    step = make_step(t.lattice.method, t.market, centre_strike(t), T, steps);
+    const time_grid grid = trade_grid(t, n_steps, notes);
+    geometry = make_geometry(t.lattice.method, t.market, centre_strike(t), grid);
     s0 = diffusing_spot(t.market, T);
-    if (t.lattice.method == lattice_method::leisen_reimer && steps % 2 == 0)
+    if (grid.uniform && t.lattice.method == lattice_method::leisen_reimer && steps % 2 == 0)
         notes.push_back("a leisen-reimer lattice is centred for an odd number of steps; with " + std::to_string(steps) +
                         " its values are rougher (use " + std::to_string(steps + 1) + " steps or lattice.method crr)");
+    if (!grid.uniform)
+        notes.push_back(
+            "the steps differ in length so that every expiry, exercise and dividend date falls on a step: " +
+            std::to_string(grid.segments) + " pieces of equal steps, the same spacing of log spot for " +
+            "every method (up and down vary by step)");
     for (std::size_t k = 0; k < t.legs.size(); ++k) {
         const option_leg& leg = t.legs[k];
         int m = steps;
         if (leg.type != payoff_kind::stock) {
-            m = static_cast<int>(std::clamp<long>(std::lround(leg.expiry_years / step.dt), 1, steps));
-            if (std::fabs(m * step.dt - leg.expiry_years) > 1e-9 * T)
+            m = std::clamp(grid.nearest_step(leg.expiry_years), 1, steps);
+            if (std::fabs(years_at(m) - leg.expiry_years) > 1e-9 * T)
                 notes.push_back("legs[" + std::to_string(k) + "] expires at " + format_number(leg.expiry_years) +
                                 " years, between lattice steps; it pays at step " + std::to_string(m) + " (" +
-                                format_number(m * step.dt) + " years)");
+                                format_number(years_at(m)) + " years)");
         }
         last_step.push_back(m);
-        allowed.push_back(exercise_steps(leg, m, step.dt));
+        std::vector<char> rows = exercise_steps(leg, grid);
+        rows.resize(static_cast<std::size_t>(m) + 1);
+        rows[static_cast<std::size_t>(m)] = 1;
+        allowed.push_back(rows);
     }
 }
 
 double trade_lattice::diffusing(int n, int j) const {
-    return s0 * std::exp(j * std::log(step.up) + (n - j) * std::log(step.down));
+    if (!geometry.constant) return s0 * std::exp(geometry.offset(n) + j * geometry.log_ratio);
+    return s0 * std::exp(j * std::log(geometry.step.up) + (n - j) * std::log(geometry.step.down));
 }
 
 double trade_lattice::dividends_after(int n) const {
@@ -134,9 +167,11 @@ double trade_lattice::dividends_after(int n) const {
 
 double trade_lattice::income(int n, int j) const {
     const market_data& m = source->market;
-    // The lattice's steps use the rate averaged to the final expiry (numerics/lattice.cpp).
-    const double growth_r = std::exp(m.rate.average(0, years_at(steps)) * step.dt);
-    double inc = diffusing(n, j) * (growth_r - step.growth);  // carry yield earned on S*
+    // A lattice of one step repeated uses the rate averaged to the final expiry
+    // (numerics/lattice.cpp); one whose steps differ, each step's own.
+    const double growth_r = geometry.constant ? std::exp(m.rate.average(0, years_at(steps)) * step(n).dt)
+                                              : m.rate.growth(years_at(n), years_at(n + 1));
+    double inc = diffusing(n, j) * (growth_r - step(n).growth);  // carry yield earned on S*
     if (!m.dividends.empty()) inc += m.dividend_pv(years_at(n), years_at(n + 1)) * growth_r;
     return inc;
 }
@@ -240,7 +275,7 @@ std::vector<path_step> walk_path(const trade_lattice& lat, const std::vector<int
         if (!any_alive || n == length) break;
         const int j_next = index[n + 1];
         income_before = node.income;
-        carried = node.shares * (lat.spot(n + 1, j_next) + node.income) + node.cash / lat.step.discount;
+        carried = node.shares * (lat.spot(n + 1, j_next) + node.income) + node.cash / lat.step(n).discount;
     }
     return out;
 }

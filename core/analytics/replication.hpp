@@ -1,11 +1,15 @@
 // Hedgeleaf analytics: the replicating portfolio on one lattice for a whole trade.
 //
 // Every leg is valued on the same recombining lattice, which runs from the
-// valuation date to the trade's final expiry (numerics/lattice.hpp's make_step, on the
-// diffusing spot S* = spot - PV of cash dividends up to the final expiry). A leg
-// that expires earlier pays its payoff at the step nearest its expiry and is
-// gone afterwards; an American or Bermudan leg pays its exercise value at a node
-// where the holder does better exercising than waiting.
+// valuation date to the trade's final expiry (numerics/lattice.hpp's make_geometry, on the
+// diffusing spot S* = spot - PV of cash dividends up to the final expiry). Its time grid
+// puts a step boundary on every earlier leg expiry, Bermudan exercise date and, with an
+// American leg, every dividend's ex-date and the day before (numerics/time_grid.hpp),
+// when the steps asked for are at least the pieces this needs; with fewer steps the grid
+// is uniform and such a date falls on the nearest step (a note says so). A leg that
+// expires earlier pays its payoff at its expiry step and is gone afterwards; an American
+// or Bermudan leg pays its exercise value at a node where the holder does better
+// exercising than waiting.
 //
 // At node (n, j) (step n, j up moves) the portfolio of `shares` Δ and `cash` B
 //   Δ = (X_up - X_down) / (S_up - S_down),   B = (X_up - Δ (S_up + income)) e^(-r dt)
@@ -46,7 +50,7 @@ struct tree_node {
 /// The shared lattice of a trade: geometry and per-leg timing.
 struct trade_lattice {
     const trade* source = nullptr;
-    lattice_step step;
+    lattice_geometry geometry;
     int steps = 0;
     double s0 = 0;                           ///< diffusing spot S* at valuation
     std::vector<int> last_step;              ///< per leg: its expiry step (stock legs: steps)
@@ -56,7 +60,9 @@ struct trade_lattice {
     /// Build the lattice of `t` with `steps` steps (exactly; no odd-count bump).
     trade_lattice(const trade& t, int steps);
     /// Years from valuation to step n.
-    double years_at(int n) const { return n * step.dt; }
+    double years_at(int n) const { return geometry.time(n); }
+    /// Step n (from level n to n + 1).
+    const lattice_step& step(int n) const { return geometry.at(n); }
     double diffusing(int n, int j) const;
     /// PV at step n of the cash dividends still to come (to the final expiry).
     double dividends_after(int n) const;

@@ -10,9 +10,6 @@
 
 namespace hedgeleaf {
 
-/// Times closer than this (years; far below a second) are the same date.
-inline constexpr double time_tolerance_years = 1e-9;
-
 enum class rebalance_unit { days, weeks, months };  // the order of contract/limits.hpp's rebalance_units
 
 /// When the hedge is rebalanced.

@@ -39,6 +39,7 @@ struct euro_delta {
 struct table_level {
     std::vector<double> value, delta;
     int n = 0;
+    double offset = 0;  // log(S*(n, 0) / S*_0) on a lattice whose steps differ
 };
 
 struct leg_date {
@@ -151,8 +152,7 @@ frequency_plan plan_frequency(const trade& t, const std::vector<schedule_date>& 
                                   });
                 ld.table = static_cast<int>(plan.levels[i].size());
                 plan.levels[i].push_back(table_level{});
-                plan.levels[i].back().n =
-                    std::min(static_cast<int>(std::lround(ds[k].years / lat->step.dt)), lat->last_step[i] - 1);
+                plan.levels[i].back().n = std::min(lat->geometry.grid.nearest_step(ds[k].years), lat->last_step[i] - 1);
             }
         }
         plan.legs.push_back(std::move(lds));
@@ -169,6 +169,7 @@ void fill_levels(const trade& t, const trade_lattice& lat, std::vector<frequency
         for (auto& plan : plans)
             for (auto& level : plan.levels[i]) {
                 const int n = level.n;
+                level.offset = lat.geometry.offset(n);
                 level.value = table.value[n];
                 level.delta.resize(static_cast<std::size_t>(n) + 1);
                 for (int j = 0; j <= n; ++j)
@@ -196,14 +197,16 @@ double opening_premium(const trade& t, const frequency_plan& first) {
 
 // Value and delta of a table leg at diffusing spot s_star, linear in node position.
 struct table_reader {
-    double log_s0 = 0, log_u = 0, log_d = 0;
+    double log_s0 = 0, log_u = 0, log_d = 0;  // log_u - log_d: the lattice's spacing L
+    bool varying = false;                     // steps differ: each level carries its offset
     double operator()(const table_level& level, double log_s_star, bool want_value, double& value) const {
         const int n = level.n;
         if (n == 0) {
             value = level.value[0];
             return level.delta[0];
         }
-        double x = (log_s_star - log_s0 - n * log_d) / (log_u - log_d);
+        double x = varying ? (log_s_star - log_s0 - level.offset) / (log_u - log_d)
+                           : (log_s_star - log_s0 - n * log_d) / (log_u - log_d);
         x = std::clamp(x, 0.0, static_cast<double>(n));
         const int j = std::min(static_cast<int>(x), n - 1);
         const double w = x - j;
@@ -373,8 +376,13 @@ simulation run_simulation(const trade& t, const simulate_settings& st) {
 
     table_reader from_table;
     from_table.log_s0 = std::log(diffusing_spot(t.market, t.final_expiry_years()));
-    from_table.log_u = lat ? std::log(lat->step.up) : 0.0;
-    from_table.log_d = lat ? std::log(lat->step.down) : 0.0;
+    if (lat && lat->geometry.constant) {
+        from_table.log_u = std::log(lat->geometry.step.up);
+        from_table.log_d = std::log(lat->geometry.step.down);
+    } else if (lat) {
+        from_table.varying = true;
+        from_table.log_u = lat->geometry.log_ratio;
+    }
 
     out.frequencies.resize(plans.size());
     std::vector<std::vector<double>> desk_pnl(plans.size());

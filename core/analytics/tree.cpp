@@ -50,10 +50,12 @@ tree_result run_tree(const trade& t, const tree_settings& settings) {
     tree_result out;
     out.steps = tree_steps(settings);
     const trade_lattice lat(t, out.steps);
-    out.step = lat.step;
+    out.geometry = lat.geometry;
     out.notes = lat.notes;
     choose_window(settings.tree, out.steps, out);
     out.nodes = tree_window(lat, out.from_step, out.to_step);
+    const double root = out.from_step == 0 ? out.nodes.front().value : tree_window(lat, 0, 0).front().value;
+    out.against_price = compare_with_price(t, root);
     if (settings.lattice_path) out.path = walk_path(lat, settings.moves);
     return out;
 }

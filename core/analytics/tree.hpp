@@ -2,6 +2,7 @@
 // lattice hedge path, the replication along that path.
 #pragma once
 
+#include "analytics/pricing.hpp"
 #include "analytics/replication.hpp"
 
 #include <string>
@@ -25,11 +26,12 @@ struct tree_settings {
 
 struct tree_result {
     int steps = 0;
-    lattice_step step;
+    lattice_geometry geometry;       ///< the trade's lattice (step: the one step, or the longest of steps that differ)
     int from_step = 0, to_step = 0;  ///< the levels listed
     std::vector<tree_node> nodes;    ///< levels from_step..to_step, j ascending
     std::vector<path_step> path;     ///< the walk along the moves (lattice path only)
     std::vector<std::string> notes;
+    premium_comparison against_price;  ///< the root's value beside the price command's premium
 };
 
 /// Build the lattice, pick the window (at most max_tree_nodes nodes) and walk the path.

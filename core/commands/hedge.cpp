@@ -1,6 +1,7 @@
 // Hedgeleaf commands: the `hedge` section and the hedge command's result (see hedge.hpp).
 #include "commands/hedge.hpp"
 
+#include "commands/price.hpp"
 #include "commands/table_columns.hpp"
 #include "commands/trade_reader.hpp"
 
@@ -336,7 +337,7 @@ json desk_json(const trade& t, const hedge_schedule& s) {
 }  // namespace
 
 json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_schedule& s) {
-    return json{
+    json out{
         {"rows", row_objects(hedge_columns(), s.rows)},
         {"columns", column_names(hedge_columns())},
         {"table_columns", table_columns_of(t, s.totals)},
@@ -357,6 +358,11 @@ json write_hedge_result(const trade& t, const hedge_settings& hs, const hedge_sc
          "Indicative only, not an offer or advice. Model assumptions: lognormal spot, constant volatility and rate, "
          "no gaps between dates; real hedges differ. Follow the firm's and the jurisdiction's sales rules."},
     };
+    const bool on_path = hs.path.kind == path_kind::lattice;
+    add_price_comparison(out, s.against_price, "The hedge schedule",
+                         on_path ? "hedge.path.moves" : "hedge.lattice_steps",
+                         on_path ? static_cast<int>(hs.path.moves.size()) : hs.lattice_steps);
+    return out;
 }
 
 }  // namespace hedgeleaf

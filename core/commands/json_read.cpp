@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <functional>
 
 namespace hedgeleaf {
 
@@ -69,9 +70,14 @@ double as_number(const json& value, const std::string& path) {
 
 field_reader::field_reader(const json& object, std::string path) : object_(object), path_(std::move(path)) {
     if (!object_.is_object()) fail(path_, "must be an object {...}, got " + describe(object_));
+    // One rule for null (docs/trade-file.md): it is never a value. A field is given or left out.
+    for (auto it = object_.begin(); it != object_.end(); ++it)
+        if (it->is_null())
+            fail(child(it.key().size() > 60 ? shorten(it.key(), 60) + "..." : it.key()),
+                 "is null; leave the field out to use its default, or give a value");
 }
 
-bool field_reader::has(const std::string& key) const { return object_.contains(key) && !object_.at(key).is_null(); }
+bool field_reader::has(const std::string& key) const { return object_.contains(key); }
 
 const json& field_reader::raw(const std::string& key) {
     seen_.insert(key);
@@ -191,6 +197,57 @@ void field_reader::finish() const {
     }
 }
 
+namespace {
+
+// Where the parser is in the document, for naming a key given twice: one frame per open
+// object (its keys so far and the key being read) or list (the index of the element).
+class key_tracker {
+public:
+    /// False (and the path in `repeated`) when an object names the same key twice.
+    bool operator()(int, json::parse_event_t event, json& parsed) {
+        switch (event) {
+            case json::parse_event_t::object_start: frames_.push_back({false, 0, {}, ""}); break;
+            case json::parse_event_t::array_start: frames_.push_back({true, 0, {}, ""}); break;
+            case json::parse_event_t::key: {
+                frame& f = frames_.back();
+                f.key = parsed.get<std::string>();
+                if (!f.keys.insert(f.key).second && repeated.empty()) repeated = path();
+                break;
+            }
+            case json::parse_event_t::object_end:
+            case json::parse_event_t::array_end:
+                frames_.pop_back();
+                next_element();
+                break;
+            case json::parse_event_t::value: next_element(); break;
+        }
+        return true;
+    }
+    std::string repeated;  ///< path of the first key given twice, or ""
+
+private:
+    struct frame {
+        bool list;
+        std::size_t index;
+        std::set<std::string> keys;
+        std::string key;
+    };
+    void next_element() {
+        if (!frames_.empty() && frames_.back().list) ++frames_.back().index;
+    }
+    std::string path() const {
+        std::string out;
+        for (const frame& f : frames_) {
+            const std::string key = f.key.size() > 60 ? shorten(f.key, 60) + "..." : f.key;
+            out = f.list ? index_path(out, f.index) : join_path(out, key);
+        }
+        return out;
+    }
+    std::vector<frame> frames_;
+};
+
+}  // namespace
+
 json parse_json_text(const std::string& text) {
     if (text.size() > max_document_bytes)
         fail("", "the trade document is " + std::to_string(text.size()) + " bytes, at most " +
@@ -221,7 +278,12 @@ json parse_json_text(const std::string& text) {
             --depth;
         }
     }
-    json doc = json::parse(text, nullptr, false);
+    key_tracker keys;
+    json doc = json::parse(text, std::ref(keys), false);
+    if (!doc.is_discarded() && !keys.repeated.empty())
+        fail(keys.repeated,
+             "is given twice in the same object; give each field once (RFC 8259 section 4, RFC 7493 "
+             "section 2.3: names within an object must be unique)");
     if (doc.is_discarded()) {
         try {
             const json unused = json::parse(text);

@@ -2,6 +2,7 @@
 #include "commands/ladder.hpp"
 
 #include "commands/cautions.hpp"
+#include "commands/price.hpp"
 #include "commands/trade_reader.hpp"
 #include "numerics/lattice.hpp"
 
@@ -179,6 +180,8 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
             "spot and volatility held; legs that have expired are paid at their payoff at today's spot; "
             "dividends paid by then drop out; premium is not carried");
     out["notes"] = notes;
+    add_price_comparison(out, result.against_price, "The ladder", "ladder.steps",
+                         effective_steps(t.lattice.method, s.steps));
     out["caution"] = client_caution();
     return out;
 }

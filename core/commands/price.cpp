@@ -3,6 +3,11 @@
 
 #include "commands/quote.hpp"
 
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <string>
+
 namespace hedgeleaf {
 
 price_settings read_price_settings(const json& document, const trade& t) { return {read_quote_terms(document, t)}; }
@@ -54,9 +59,32 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
         {"spot", t.market.spot},
         {"expiry_years", t.final_expiry_years()},
     };
+    // What the lattices say (not extrapolated and why, a fallback, rough Greeks), each line once.
+    json notes = json::array();
+    for (const auto& lr : r.legs)
+        for (const auto& note : lr.lattice.notes)
+            if (std::find(notes.begin(), notes.end(), note) == notes.end()) notes.push_back(note);
+    out["notes"] = notes;
     if (result.quote)
         out["client_price"] = write_client_price(t, *settings.quote, *result.quote, *result.client, result.outcomes);
     return out;
+}
+
+void add_price_comparison(json& out, const premium_comparison& c, const std::string& card,
+                          const std::string& steps_field, int steps) {
+    out["price_premium"] = c.price_premium;
+    out["difference_from_price"] = c.difference();
+    if (!(std::fabs(c.difference()) >= 5e-5 * std::max(1.0, std::fabs(c.price_premium)))) return;
+    if (!out.contains("notes") || !out["notes"].is_array()) out["notes"] = json::array();
+    const auto shown = [](double x) {  // six significant digits: the note is read, not computed with
+        char buf[32];
+        std::snprintf(buf, sizeof buf, "%.6g", x);
+        return std::string(buf);
+    };
+    out["notes"].push_back(card + " values the trade today at " + shown(c.card_premium) + " on its " +
+                           std::to_string(steps) + "-step lattice (" + steps_field + "), " +
+                           shown(std::fabs(c.difference())) + (c.difference() > 0 ? " above" : " below") +
+                           " the price command's premium " + shown(c.price_premium) + "; more steps bring it closer");
 }
 
 }  // namespace hedgeleaf

@@ -65,8 +65,44 @@ lattice_settings read_lattice(const json* node) {
     return s;
 }
 
-// The expiry, in years (or a date after the valuation date), at most max_expiry_years.
+// expiry_tenor: the tenor itself first (its own message), then that it comes alone.
+double read_expiry_tenor(field_reader& r, const years_reader& times) {
+    const std::string path = r.child("expiry_tenor");
+    const json& given = r.raw("expiry_tenor");
+    if (!given.is_string()) fail(path, "must be a tenor such as 6m (text), got " + describe(given));
+    const tenor t = parse_tenor(given.get<std::string>(), path);
+    for (const char* other : {"expiry_years", "expiry_date"})
+        if (r.has(other)) {
+            r.raw(other);
+            fail(path, std::string("give one of expiry_years, expiry_date or expiry_tenor, not ") + other + " as well");
+        }
+    if (!times.valuation_date) {
+        const double years = tenor_years(t);
+        require_at_most(years, max_expiry_years, path);
+        return years;
+    }
+    const date& today = *times.valuation_date;
+    const date expiry = tenor_date(today, t);
+    const double years = year_fraction(today, expiry);
+    // 1d from a Friday the 30th lands on Saturday the 31st, which modified following rolls back.
+    if (!(years > 0))
+        fail(path, to_string(t) + " from valuation_date " + to_iso(today) + " rolls back to " + to_iso(expiry) +
+                       " (modified following); give expiry_date instead");
+    require_at_most(years, max_expiry_years, path);
+    return years;
+}
+
+// The expiry: exactly one of expiry_years, expiry_date (after the valuation date) or
+// expiry_tenor ("6m": contract/dates.hpp's tenor_date from the valuation date, ACT/365F; without
+// a valuation date months / 12), at most max_expiry_years.
 double read_expiry(field_reader& r, const years_reader& times) {
+    if (r.has("expiry_tenor")) return read_expiry_tenor(r, times);
+    r.raw_optional("expiry_tenor");
+    if (!r.has("expiry_years") && !r.has("expiry_date")) {
+        r.raw_optional("expiry_years");
+        r.raw_optional("expiry_date");
+        fail(r.child("expiry_years"), "is required (or give expiry_date as YYYY-MM-DD, or expiry_tenor such as 6m)");
+    }
     const bool by_date = r.has("expiry_date");
     const double years = times.read_years(r, "expiry_years", "expiry_date");
     const std::string expiry_path = r.child(by_date ? "expiry_date" : "expiry_years");
@@ -197,7 +233,7 @@ std::vector<option_leg> read_structure(const json& node, const years_reader& tim
     // The option fields shared by every leg are read once through the leg reader,
     // with a dummy type and strike so the same checks and messages apply.
     json common = json::object();
-    for (const char* key : {"expiry_years", "expiry_date", "exercise"})
+    for (const char* key : {"expiry_years", "expiry_date", "expiry_tenor", "exercise"})
         if (r.has(key)) common[key] = r.raw(key);
     if (common.contains("exercise") &&
         common["exercise"] == "bermudan")  // any type: read_option_leg names a non-string

@@ -2,12 +2,13 @@
 #include "commands/tree.hpp"
 
 #include "commands/hedge.hpp"
+#include "commands/price.hpp"
 
 namespace hedgeleaf {
 
 namespace {
-json node_json(const tree_node& node, double dt) {
-    return json{{"step", node.step},     {"index", node.index}, {"time_years", node.step * dt},
+json node_json(const tree_node& node, const lattice_geometry& geo) {
+    return json{{"step", node.step},     {"index", node.index}, {"time_years", geo.time(node.step)},
                 {"spot", node.spot},     {"value", node.value}, {"paid", node.paid},
                 {"shares", node.shares}, {"cash", node.cash},   {"event", to_string(node.event)},
                 {"check", node.check()}};
@@ -20,15 +21,15 @@ tree_settings read_tree_settings(const json& document, const trade& t) {
 }
 
 json write_tree_result(const trade& t, const tree_settings& settings, const tree_result& result) {
-    const double dt = result.step.dt;
+    const lattice_geometry& geo = result.geometry;
     json nodes = json::array();
-    for (const auto& node : result.nodes) nodes.push_back(node_json(node, dt));
+    for (const auto& node : result.nodes) nodes.push_back(node_json(node, geo));
 
     json path = nullptr;
     if (settings.lattice_path) {
         json rows = json::array();
         for (const auto& ps : result.path) {
-            json row = node_json(ps.node, dt);
+            json row = node_json(ps.node, geo);
             row["carried"] = ps.carried;
             row["error"] = ps.carried - ps.node.value;
             rows.push_back(row);
@@ -36,14 +37,14 @@ json write_tree_result(const trade& t, const tree_settings& settings, const tree
         path = json{{"moves", moves_text(settings.moves)}, {"rows", rows}};
     }
     const double q = t.signed_quantity();
-    return json{
+    json out{
         {"steps", result.steps},
         {"method", to_string(t.lattice.method)},
-        {"dt_years", result.step.dt},
-        {"up", result.step.up},
-        {"down", result.step.down},
-        {"p_up", result.step.p_up},
-        {"discount", result.step.discount},
+        {"dt_years", geo.step.dt},
+        {"up", geo.step.up},
+        {"down", geo.step.down},
+        {"p_up", geo.step.p_up},
+        {"discount", geo.step.discount},
         {"from_step", result.from_step},
         {"to_step", result.to_step},
         {"nodes", nodes},
@@ -57,6 +58,8 @@ json write_tree_result(const trade& t, const tree_settings& settings, const tree
          "times these shares and cash."},
         {"notes", result.notes},
     };
+    add_price_comparison(out, result.against_price, "The tree", "hedge.tree.steps", result.steps);
+    return out;
 }
 
 }  // namespace hedgeleaf

@@ -47,6 +47,7 @@ void market_fields(json& f) {
 void option_fields(json& f, const std::string& at) {
     f[at + ".strike"] = positive_up_to(max_price_level);
     f[at + ".expiry_years"] = positive_up_to(max_expiry_years);
+    f[at + ".expiry_tenor"] = json{{"type", "string"}, {"maxLength", max_tenor_chars}};
     f[at + ".exercise"] = by_default(one_of(exercise_styles), "european");
     f[at + ".exercise_dates"] = list_of(1, max_exercise_dates);
     f[at + ".exercise_years"] = list_of(1, max_exercise_dates);
@@ -68,6 +69,7 @@ void trade_fields(json& f) {
     f["structure.strikes"] = list_of(1, most_strikes);
     f["structure.strikes[]"] = positive_up_to(max_price_level);
     f["structure.expiry_years"] = positive_up_to(max_expiry_years);
+    f["structure.expiry_tenor"] = json{{"type", "string"}, {"maxLength", max_tenor_chars}};
     f["structure.exercise"] = by_default(one_of(structure_exercise_styles), "european");
     f["quantity"] = by_default(positive_up_to(max_quantity), 1);
     f["side"] = by_default(one_of(sides), "buy");

@@ -95,4 +95,56 @@ date next_business_day(const date& d) {
     return out;
 }
 
+date modified_following(const date& d) {
+    const date forward = next_business_day(d);
+    if (forward.month == d.month) return forward;
+    date back = d;
+    while (!is_business_day(back)) back = add_days(back, -1);
+    return back;
+}
+
+tenor parse_tenor(const std::string& text, const std::string& field) {
+    const auto bad = [&](const std::string& why) {
+        const std::string shown = text.size() > 40 ? shorten(text, 40) + "..." : text;
+        fail(field, why + ", got \"" + shown + "\"");
+    };
+    const std::string units = "dwmy";
+    if (text.size() < 2 || text.size() > max_tenor_chars)
+        bad("must be a tenor of 2 to " + std::to_string(max_tenor_chars) +
+            " characters, a count and d, w, m or y, such as 1w, 3m, 6m, 1y or 18m");
+    const char last = static_cast<char>(text.back() | 0x20);  // lower case
+    const std::size_t unit = units.find(last);
+    if (unit == std::string::npos) bad("must end in d, w, m or y (days, weeks, months, years), as in 6m");
+    long count = 0;
+    for (std::size_t i = 0; i + 1 < text.size(); ++i) {
+        if (text[i] < '0' || text[i] > '9') bad("must be a whole number of d, w, m or y, as in 6m or 18m");
+        count = count * 10 + (text[i] - '0');
+    }
+    if (count < 1 || count > max_tenor_count)
+        bad("must count 1 to " + std::to_string(max_tenor_count) + " days, weeks, months or years");
+    return tenor{static_cast<int>(count), static_cast<tenor_unit>(unit)};
+}
+
+std::string to_string(const tenor& t) { return std::to_string(t.count) + "dwmy"[static_cast<int>(t.unit)]; }
+
+date tenor_date(const date& valuation, const tenor& t) {
+    switch (t.unit) {
+        case tenor_unit::days: return modified_following(add_days(valuation, t.count));
+        case tenor_unit::weeks: return modified_following(add_days(valuation, 7L * t.count));
+        case tenor_unit::months: return modified_following(add_months(valuation, t.count));
+        case tenor_unit::years: return modified_following(add_months(valuation, 12 * t.count));
+    }
+    return valuation;
+}
+
+double tenor_years(const tenor& t) {
+    switch (t.unit) {
+        case tenor_unit::days: return t.count / 365.0;
+        case tenor_unit::weeks: return 7.0 * t.count / 365.0;
+        case tenor_unit::months: return t.count / 12.0;
+        case tenor_unit::years: return static_cast<double>(t.count);
+    }
+    return 0;
+}
+
 }  // namespace hedgeleaf

@@ -67,6 +67,8 @@ inline constexpr int max_document_depth = 64;               ///< nesting of obje
 inline constexpr std::size_t max_date_chars = 40;           ///< valuation_date text, before it is parsed
 inline constexpr int min_year = 1900;                       ///< dates are years 1900..2200
 inline constexpr int max_year = 2200;
+inline constexpr int max_tenor_count = 18250;      ///< "18250d": fifty years of days
+inline constexpr std::size_t max_tenor_chars = 6;  ///< "18250d"
 
 // ---- market and trade ----------------------------------------------------
 
@@ -79,6 +81,9 @@ inline constexpr double max_volatility = 5.0;   ///< 500 % a year
 /// margin (it is 283 % a year over 5 years, or 63 % over 100).
 inline constexpr double max_spread = 20.0;
 inline constexpr double max_expiry_years = 50.0;
+/// Times closer than this (years; far below a second) are the same date: schedule dates,
+/// exercise and dividend dates on a lattice's time grid.
+inline constexpr double time_tolerance_years = 1e-9;
 inline constexpr double max_quantity = 1e12;  ///< units of a trade, of a leg, of a lot
 inline constexpr std::size_t max_dividends = 200;
 inline constexpr std::size_t max_exercise_dates = 2000;

@@ -111,16 +111,113 @@ lattice_step make_step(lattice_method method, const market_data& m, double strik
     return st;
 }
 
-std::vector<char> exercise_steps(const option_leg& leg, int steps, double dt) {
+namespace {
+
+// The piecewise construction of lattice.hpp: fixed spacing L, each step's probability from its
+// variance and its down factor from its forward. p_n (1 - p_n) L^2 = sigma^2 dt_n with
+// L^2 = 4 sigma^2 max dt gives p_n = (1 +- sqrt(1 - dt_n / max dt)) / 2, free of sigma.
+lattice_geometry piecewise_geometry(const market_data& m, const time_grid& grid) {
+    lattice_geometry g;
+    g.grid = grid;
+    g.constant = false;
+    const int n_steps = grid.steps;
+    double longest = 0;
+    for (int n = 0; n < n_steps; ++n) longest = std::max(longest, grid.time(n + 1) - grid.time(n));
+    const double L = 2 * m.volatility * std::sqrt(longest);
+    const double e_l = std::expm1(L);
+    g.log_ratio = L;
+    g.per_step.resize(static_cast<std::size_t>(n_steps));
+    g.offsets.resize(static_cast<std::size_t>(n_steps) + 1);
+    double offset = 0;
+    for (int n = 0; n < n_steps; ++n) {
+        lattice_step& st = g.per_step[static_cast<std::size_t>(n)];
+        st.dt = grid.time(n + 1) - grid.time(n);
+        st.growth = m.forward_growth(grid.time(n), grid.time(n + 1));
+        st.discount = m.rate.discount(grid.time(n), grid.time(n + 1));
+        // Both roots match the step's variance; their third moments have opposite signs.
+        // Taking them in turn cancels the skew of the sum pair by pair: with one root only,
+        // steps a little shorter than the longest (p well away from 1/2) would leave an
+        // error falling only like 1 / sqrt(N).
+        const double root = std::sqrt(std::max(0.0, 1 - st.dt / longest));
+        st.p_up = 0.5 * (1 + (n % 2 == 0 ? root : -root));
+        const double log_down = std::log(st.growth) - std::log1p(st.p_up * e_l);
+        st.down = std::exp(log_down);
+        st.up = std::exp(log_down + L);
+        g.offsets[static_cast<std::size_t>(n)] = offset;
+        offset += log_down;
+        if (st.dt == longest) g.step = st;
+    }
+    g.offsets[static_cast<std::size_t>(n_steps)] = offset;
+    return g;
+}
+
+// Equal steps under rate curves (DESIGN: per-step growth and discount): the method's step
+// for the rates averaged over the life sets the spacing; each step then takes its own growth
+// g_n and discount. Cox-Ross-Rubinstein keeps up and down and moves p_n = (g_n - d)/(u - d),
+// which must stay inside (0, 1) on every step; the others keep p and move up and down with
+// g_n, so their ratio (the spacing) stays.
+lattice_geometry curve_geometry(lattice_method method, const market_data& m, const lattice_step& base,
+                                const time_grid& grid) {
+    lattice_geometry g;
+    g.grid = grid;
+    g.constant = false;
+    g.step = base;
+    g.log_ratio = std::log(base.up) - std::log(base.down);
+    const int n_steps = grid.steps;
+    g.per_step.resize(static_cast<std::size_t>(n_steps));
+    g.offsets.resize(static_cast<std::size_t>(n_steps) + 1);
+    double offset = 0;
+    for (int n = 0; n < n_steps; ++n) {
+        lattice_step& st = g.per_step[static_cast<std::size_t>(n)];
+        const double from = grid.time(n), to = grid.time(n + 1);
+        st.dt = base.dt;
+        st.growth = m.forward_growth(from, to);
+        st.discount = m.rate.discount(from, to);
+        if (method == lattice_method::crr) {
+            st.up = base.up;
+            st.down = base.down;
+            st.p_up = (st.growth - st.down) / (st.up - st.down);
+            if (!(st.p_up > 0 && st.p_up < 1))
+                fail("market.rate", "the crr lattice breaks no-arbitrage from " + format_number(from) + " to " +
+                                        format_number(to) + " years: the forward growth " + format_number(st.growth) +
+                                        " over the step lies outside down " + format_number(st.down) + " .. up " +
+                                        format_number(st.up) + " (market.rate, market.carry_yield, market.borrow " +
+                                        "forwards against market.volatility " + format_number(m.volatility) +
+                                        "); raise lattice.steps or use lattice.method leisen-reimer");
+        } else {
+            st.up = base.up * (st.growth / base.growth);
+            st.down = base.down * (st.growth / base.growth);
+            st.p_up = base.p_up;
+        }
+        g.offsets[static_cast<std::size_t>(n)] = offset;
+        offset += std::log(st.down);
+    }
+    g.offsets[static_cast<std::size_t>(n_steps)] = offset;
+    return g;
+}
+
+}  // namespace
+
+lattice_geometry make_geometry(lattice_method method, const market_data& m, double strike, const time_grid& grid) {
+    if (!grid.uniform) return piecewise_geometry(m, grid);
+    const lattice_step base = make_step(method, m, strike, grid.expiry, grid.steps);
+    if (!m.flat_rates()) return curve_geometry(method, m, base, grid);
+    lattice_geometry g;
+    g.grid = grid;
+    g.step = base;
+    g.log_ratio = std::log(g.step.up) - std::log(g.step.down);
+    return g;
+}
+
+std::vector<char> exercise_steps(const option_leg& leg, const time_grid& grid) {
+    const int steps = grid.steps;
     std::vector<char> allowed(static_cast<std::size_t>(steps) + 1, 0);
     allowed[static_cast<std::size_t>(steps)] = 1;
     if (leg.exercise == exercise_style::american) {
         std::fill(allowed.begin(), allowed.end(), 1);
     } else if (leg.exercise == exercise_style::bermudan) {
-        for (double t : leg.exercise_years) {
-            const long n = std::lround(t / dt);
-            allowed[static_cast<std::size_t>(std::clamp<long>(n, 1, steps))] = 1;
-        }
+        for (double t : leg.exercise_years)
+            allowed[static_cast<std::size_t>(std::clamp(grid.nearest_step(t), 1, steps))] = 1;
     }
     return allowed;
 }

@@ -6,12 +6,22 @@
 // `down`; the risk-neutral probability comes from the growth factor over one
 // step, p = (growth - down) / (up - down), which needs 0 < down < growth < up.
 //
-// lattice.cpp builds the step and the payoffs, lattice_kernel.cpp runs the
-// induction; lattice_price.hpp turns two inductions into a price.
+// A lattice runs on a time grid (numerics/time_grid.hpp). On a uniform grid every step
+// is the same `lattice_step` of the chosen method, exactly as it always was. On a
+// piecewise grid (events strictly inside the life) the steps differ in length, so the
+// spacing of log S* is fixed at L = 2 sigma sqrt(longest dt) for every method, and each
+// step n takes its own up probability from its variance, p_n (1 - p_n) L^2 = sigma^2 dt_n,
+// and its down factor from its forward, log d_n = log g_n - log(p_n e^L + 1 - p_n): the
+// mean and variance of every step then match exactly and d_n < g_n < u_n holds.
+//
+// lattice.cpp builds the steps and the payoffs, lattice_kernel.cpp runs the
+// induction; lattice_price.hpp turns inductions into a price.
 #pragma once
 
 #include "contract/trade.hpp"
+#include "numerics/time_grid.hpp"
 
+#include <cmath>
 #include <vector>
 
 namespace hedgeleaf {
@@ -38,8 +48,33 @@ double diffusing_spot(const market_data& market, double expiry_years);
 /// Leisen-Reimer. Throws input_error naming the inputs if 0 < d < growth < u fails.
 lattice_step make_step(lattice_method method, const market_data& market, double strike, double expiry_years, int steps);
 
-/// Which steps allow early exercise (size steps+1; the last step always pays).
-std::vector<char> exercise_steps(const option_leg& leg, int steps, double dt);
+/// Every step of a lattice on its time grid. Node (n, i) has diffusing spot
+/// S*_0 exp(offset(n) + i L), with L = log(up / down) the same on every step.
+struct lattice_geometry {
+    time_grid grid;
+    bool constant = true;                ///< one step repeated (a uniform grid): `step` is every step
+    lattice_step step;                   ///< constant: every step; piecewise: the longest step
+    std::vector<lattice_step> per_step;  ///< piecewise: step n, from t_n to t_{n+1}
+    std::vector<double> offsets;         ///< piecewise: log offset of row n (the sum of log down before it)
+    double log_ratio = 0;                ///< L = log(up / down)
+
+    int steps() const { return grid.steps; }
+    /// Step n (from row n to row n + 1).
+    const lattice_step& at(int n) const { return constant ? step : per_step[static_cast<std::size_t>(n)]; }
+    /// Years from valuation to row n.
+    double time(int n) const { return grid.time(n); }
+    /// log(S*(n, 0) / S*_0): n log down on a constant lattice.
+    double offset(int n) const { return constant ? n * std::log(step.down) : offsets[static_cast<std::size_t>(n)]; }
+};
+
+/// The lattice of `method` on `grid` (`strike` centres Leisen-Reimer on a uniform grid; a
+/// piecewise grid uses the same construction for every method, see above). Throws input_error
+/// naming the inputs when a step breaks 0 < d < growth < u.
+lattice_geometry make_geometry(lattice_method method, const market_data& market, double strike, const time_grid& grid);
+
+/// Which rows allow early exercise (size steps+1; the last row always pays). Bermudan dates
+/// fall on the nearest row: exactly on it when the grid was built with them as events.
+std::vector<char> exercise_steps(const option_leg& leg, const time_grid& grid);
 
 /// False when early exercise can never beat holding (American call with no dividends and
 /// carry_yield <= 0 <= rate; put with rate <= 0 <= carry_yield): the leg is then European in value.
@@ -55,6 +90,8 @@ struct induction_result {
     double gamma = 0;
     double theta = 0;
     double node_updates = 0;  ///< nodes the sweep updated (rows 0 to steps - 1)
+    int steps = 0;            ///< steps of the grid actually used
+    int segments = 1;         ///< pieces of equal steps (1: a uniform grid)
 };
 
 /// How much of the lattice a backward induction sweeps.
@@ -64,7 +101,8 @@ enum class lattice_extent {
     full,      ///< every node (for the benchmarks' loop-speed figures)
 };
 
-/// One backward induction of `leg` on `steps` steps with O(steps) memory (lattice_kernel.cpp).
+/// One backward induction of `leg` on `steps` steps with O(steps) memory (lattice_kernel.cpp),
+/// on the leg's time grid (leg_events: exercise and dividend dates fall on steps).
 /// Charges its node updates to the live work meter (numerics/work_meter.hpp).
 induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps,
                         lattice_extent extent = lattice_extent::probable);

@@ -38,16 +38,26 @@ namespace {
 // factor and a power finite (spot <= 1e9, row factors within e^+-100 of spot).
 constexpr double log_power_clamp = 500.0;
 
+// What differs from step to step on a piecewise grid (numerics/lattice.hpp): per step n
+// the discounted probabilities and 1/u, 1/d; per row the log offset, the time and the
+// cumulative up probabilities of the band's two measures.
+struct varying_steps {
+    std::vector<double> pu, pd, inv_up, inv_down;
+    std::vector<double> offset, time, mean_low, mean_high;
+};
+
 // Everything one backward induction needs. Node (n, i) has diffusing spot
 // S*_0 u^i d^(n-i) = factor_n * powers[i - centre_n], where powers[k] = (u/d)^k
 // for k in [-steps, steps] and centre_n is the node nearest S*_0, so the factor
 // stays near S*_0 and one table serves every row: no running product per node.
+// On a piecewise grid d^n becomes exp(offset_n) and the per-step figures come from `vary`.
 struct sweep {
     double* v = nullptr;             // row values, size steps + 1
-    const double* powers = nullptr;  // points at k = 0 of the table (k in [-centre_steps, steps - centre_steps])
+    const double* powers = nullptr;  // points at k = 0 of the table (k in [-max centre, max (n - centre)])
     const char* allowed = nullptr;   // exercise allowed at row n
     const market_data* market = nullptr;
     const option_leg* leg = nullptr;
+    const varying_steps* vary = nullptr;  // piecewise grid; nullptr: one step repeated
     int steps = 0;
     double pu = 0, pd = 0;  // discounted up and down probabilities
     double log_s0 = 0, log_d = 0, log_ratio = 0, dt = 0;
@@ -61,12 +71,13 @@ struct sweep {
 };
 
 int row_centre(const sweep& w, int n) {
-    const double h = std::round(-n * w.log_d / w.log_ratio);
+    const double h = std::round(w.vary ? -w.vary->offset[n] / w.log_ratio : -n * w.log_d / w.log_ratio);
     return static_cast<int>(std::clamp(h, 0.0, static_cast<double>(n)));
 }
 
 // Row factor for centre h: S*_0 d^n (u/d)^h.
 double row_factor(const sweep& w, int n, int h) {
+    if (w.vary) return std::exp(std::clamp(w.log_s0 + w.vary->offset[n] + h * w.log_ratio, -700.0, 700.0));
     return std::exp(std::clamp(w.log_s0 + n * w.log_d + h * w.log_ratio, -700.0, 700.0));
 }
 
@@ -117,6 +128,7 @@ enum class row_rule : unsigned char { hold, put, call, general };
 
 struct row_plan {
     row_rule rule = row_rule::hold;
+    double pu = 0, pd = 0;         // this row's discounted probabilities
     int lo = 0, hi = 0;            // nodes swept: [lo, hi] (the probable band, or the whole row)
     int next_lo = 0, next_hi = 0;  // the band of the row below (row n + 1)
     int split = 0;                 // put: exercise can pay in [0, split); call: in [split, n]
@@ -150,12 +162,17 @@ void row_band(const sweep& w, int n, int& lo, int& hi) {
         return;
     }
     const double t = 6.0 * std::sqrt(static_cast<double>(n)) + 1.0;
-    lo = static_cast<int>(std::max(0.0, std::floor(n * w.p_low - t)));
-    hi = static_cast<int>(std::min(static_cast<double>(n), std::ceil(n * w.p_high + t)));
+    // Hoeffding's bound holds for a sum of moves with different probabilities too, about its mean.
+    const double mean_low = w.vary ? w.vary->mean_low[n] : n * w.p_low;
+    const double mean_high = w.vary ? w.vary->mean_high[n] : n * w.p_high;
+    lo = static_cast<int>(std::max(0.0, std::floor(mean_low - t)));
+    hi = static_cast<int>(std::min(static_cast<double>(n), std::ceil(mean_high + t)));
 }
 
 void plan_row(sweep& w, int n, row_plan& plan, row_tracker& track) {
     plan = row_plan{};
+    plan.pu = w.vary ? w.vary->pu[n] : w.pu;
+    plan.pd = w.vary ? w.vary->pd[n] : w.pd;
     plan.next_lo = track.band_lo;
     plan.next_hi = track.band_hi;
     row_band(w, n, plan.lo, plan.hi);
@@ -167,7 +184,10 @@ void plan_row(sweep& w, int n, row_plan& plan, row_tracker& track) {
     // Exact every 64 rows (bounds the drift of the product), otherwise one multiply:
     // going down a row divides by d, and by u when the centre also moves down.
     if (track.n == n + 1 && n % 64 != 0 && (track.centre == h || track.centre == h + 1)) {
-        track.factor *= track.centre == h ? w.inv_down : w.inv_up;
+        if (w.vary)
+            track.factor *= track.centre == h ? w.vary->inv_down[n] : w.vary->inv_up[n];
+        else
+            track.factor *= track.centre == h ? w.inv_down : w.inv_up;
     } else {
         track.factor = row_factor(w, n, h);
     }
@@ -175,7 +195,7 @@ void plan_row(sweep& w, int n, row_plan& plan, row_tracker& track) {
     track.centre = h;
     plan.factor = track.factor;
     plan.r = w.powers - h;
-    plan.pv = w.has_dividends ? w.market->dividend_pv(n * w.dt, w.leg->expiry_years) : 0.0;
+    plan.pv = w.has_dividends ? w.market->dividend_pv(w.vary ? w.vary->time[n] : n * w.dt, w.leg->expiry_years) : 0.0;
     plan.level = w.leg->strike - plan.pv;
     const double f = plan.factor, level = plan.level;
     const double* r = plan.r;
@@ -215,23 +235,23 @@ HEDGELEAF_ROW_INLINE void apply_row(const sweep& w, const row_plan& plan, int lo
     // call's down: there max(hold, exercise) is hold, the same value.
     const int end = hi == plan.hi + 1 ? lo + (hi - lo + 7) / 8 * 8 : hi;
     switch (plan.rule) {
-        case row_rule::hold: continue_range(v, lo, end, w.pu, w.pd); return;
+        case row_rule::hold: continue_range(v, lo, end, plan.pu, plan.pd); return;
         case row_rule::put: {
             const int m = std::min(end, lo + (std::clamp(plan.split, lo, hi) - lo + 7) / 8 * 8);
-            put_range(v, plan.r, lo, m, w.pu, w.pd, plan.level, plan.factor);
-            continue_range(v, m, end, w.pu, w.pd);
+            put_range(v, plan.r, lo, m, plan.pu, plan.pd, plan.level, plan.factor);
+            continue_range(v, m, end, plan.pu, plan.pd);
             return;
         }
         case row_rule::call: {
             const int m = lo + (std::clamp(plan.split, lo, hi) - lo) / 8 * 8;
-            continue_range(v, lo, m, w.pu, w.pd);
-            call_range(v, plan.r, m, end, w.pu, w.pd, plan.level, plan.factor);
+            continue_range(v, lo, m, plan.pu, plan.pd);
+            call_range(v, plan.r, m, end, plan.pu, plan.pd, plan.level, plan.factor);
             return;
         }
         case row_rule::general:
             for (int i = lo; i < hi; ++i)
-                v[i] =
-                    std::max(w.pu * v[i + 1] + w.pd * v[i], exercise_value(*w.leg, plan.factor * plan.r[i] + plan.pv));
+                v[i] = std::max(plan.pu * v[i + 1] + plan.pd * v[i],
+                                exercise_value(*w.leg, plan.factor * plan.r[i] + plan.pv));
             return;
     }
 }
@@ -288,19 +308,20 @@ std::vector<double>& scratch(std::size_t size) {
     return buffer;
 }
 
-// The sweep's constants for `leg` on the step `st` (n_steps steps, diffusing spot s0).
-sweep sweep_for(const market_data& market, const option_leg& leg, const lattice_step& st, int n_steps, double s0,
+// The sweep's constants for `leg` on the lattice `geo` (diffusing spot s0).
+sweep sweep_for(const market_data& market, const option_leg& leg, const lattice_geometry& geo, double s0,
                 const std::vector<char>& allowed, lattice_extent extent) {
+    const lattice_step& st = geo.step;
     sweep w;
     w.allowed = allowed.data();
     w.market = &market;
     w.leg = &leg;
-    w.steps = n_steps;
+    w.steps = geo.steps();
     w.pu = st.discount * st.p_up;
     w.pd = st.discount * (1 - st.p_up);
     w.log_s0 = std::log(s0);
     w.log_d = std::log(st.down);
-    w.log_ratio = std::log(st.up) - w.log_d;
+    w.log_ratio = geo.constant ? std::log(st.up) - w.log_d : geo.log_ratio;
     w.dt = st.dt;
     w.inv_up = 1 / st.up;
     w.inv_down = 1 / st.down;
@@ -313,22 +334,57 @@ sweep sweep_for(const market_data& market, const option_leg& leg, const lattice_
     return w;
 }
 
+// The per-step figures of a piecewise lattice, for the sweep.
+varying_steps varying_of(const lattice_geometry& geo) {
+    const int n_steps = geo.steps();
+    varying_steps out;
+    const std::size_t rows = static_cast<std::size_t>(n_steps) + 1;
+    for (auto* v : {&out.pu, &out.pd, &out.inv_up, &out.inv_down}) v->resize(rows - 1);
+    for (auto* v : {&out.offset, &out.time, &out.mean_low, &out.mean_high}) v->resize(rows);
+    double low = 0, high = 0;
+    for (int n = 0; n <= n_steps; ++n) {
+        out.offset[n] = geo.offset(n);
+        out.time[n] = geo.time(n);
+        out.mean_low[n] = low;
+        out.mean_high[n] = high;
+        if (n == n_steps) break;
+        const lattice_step& st = geo.at(n);
+        out.pu[n] = st.discount * st.p_up;
+        out.pd[n] = st.discount * (1 - st.p_up);
+        out.inv_up[n] = 1 / st.up;
+        out.inv_down[n] = 1 / st.down;
+        const double p_share = std::min(1.0, st.p_up * st.up / st.growth);
+        low += std::min(st.p_up, p_share);
+        high += std::max(st.p_up, p_share);
+    }
+    return out;
+}
+
 // Point the sweep at the thread's buffer: the row values, then the table of powers.
 // Returns the centre of the last row.
 int place_rows(sweep& w, int n_steps) {
     const std::size_t width = static_cast<std::size_t>(n_steps) + 1;
-    // Centres never decrease with n and nor does n - centre, so row n's powers
-    // k = i - centre_n all lie in [-centre_steps, steps - centre_steps]: steps + 1 entries.
+    // On one step repeated, centres never decrease with n and nor does n - centre, so row n's
+    // powers k = i - centre_n all lie in [-centre_steps, steps - centre_steps]: steps + 1
+    // entries. Steps of different lengths may break that; the table then spans every row's range.
     const int last_centre = row_centre(w, n_steps);
+    int most_below = last_centre, most_above = n_steps - last_centre;
+    if (w.vary)
+        for (int n = 0; n < n_steps; ++n) {
+            const int h = row_centre(w, n);
+            most_below = std::max(most_below, h);
+            most_above = std::max(most_above, n - h);
+        }
+    const int table_count = most_below + most_above + 1 + 8;
     // Both rows start on a 64-byte boundary (a cache line; whole AVX-512 vectors).
     // Eight spare entries after each row: the sweep runs whole vectors past a row's end.
     const std::size_t padded = (width + 7) / 8 * 8 + 8;
-    std::vector<double>& buffer = scratch(2 * padded + 8);
+    std::vector<double>& buffer = scratch(padded + std::max(padded, static_cast<std::size_t>(table_count)) + 8);
     double* base = buffer.data();
     base += (8 - reinterpret_cast<std::uintptr_t>(base) / sizeof(double) % 8) % 8;
     w.v = base;
-    fill_powers(w.log_ratio, -last_centre, n_steps + 1 + 8, base + padded);
-    w.powers = base + padded + last_centre;
+    fill_powers(w.log_ratio, -most_below, table_count, base + padded);
+    w.powers = base + padded + most_below;
     return last_centre;
 }
 
@@ -349,16 +405,18 @@ void fill_payoff_row(sweep& w, const option_leg& leg, int n_steps, int last_cent
 }
 
 // Delta, gamma and theta from the values of the first two rows.
-void first_rows_greeks(const sweep& w, const lattice_step& st, double s0, int n_steps, const market_data& market,
+void first_rows_greeks(const sweep& w, const lattice_geometry& geo, double s0, int n_steps, const market_data& market,
                        double expiry_years, induction_result& out) {
     const double* row1 = w.row1;
     const double* row2 = w.row2;
-    const double su = s0 * st.up, sd = s0 * st.down;
+    const lattice_step& first = geo.at(0);
+    const double su = s0 * first.up, sd = s0 * first.down;
     out.delta = (row1[1] - row1[0]) / (su - sd);
     double v_at_s0_later;  // value at today's S* one or two steps later
     double later;
     if (n_steps >= 2) {
-        const double suu = su * st.up, sud = su * st.down, sdd = sd * st.down;
+        const lattice_step& second = geo.at(1);
+        const double suu = su * second.up, sud = su * second.down, sdd = sd * second.down;
         const double delta_up = (row2[2] - row2[1]) / (suu - sud);
         const double delta_down = (row2[1] - row2[0]) / (sud - sdd);
         out.gamma = (delta_up - delta_down) / (0.5 * (suu - sdd));
@@ -367,10 +425,10 @@ void first_rows_greeks(const sweep& w, const lattice_step& st, double s0, int n_
         v_at_s0_later = row2[0] * (x - sud) * (x - suu) / ((sdd - sud) * (sdd - suu)) +
                         row2[1] * (x - sdd) * (x - suu) / ((sud - sdd) * (sud - suu)) +
                         row2[2] * (x - sdd) * (x - sud) / ((suu - sdd) * (suu - sud));
-        later = 2 * st.dt;
+        later = geo.constant ? 2 * first.dt : geo.time(2);
     } else {
         v_at_s0_later = row1[0] + out.delta * (s0 - sd);
-        later = st.dt;
+        later = first.dt;
     }
     // Tree theta holds S* fixed; with dividends S* = spot - PV drifts as time passes.
     out.theta =
@@ -381,12 +439,18 @@ void first_rows_greeks(const sweep& w, const lattice_step& st, double s0, int n_
 
 induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps,
                         lattice_extent extent) {
-    const int n_steps = effective_steps(method, steps);
     const double T = leg.expiry_years;
-    const lattice_step st = make_step(method, market, leg.strike, T, n_steps);
+    const time_grid grid = make_time_grid(T, effective_steps(method, steps), leg_events(market, leg));
+    const lattice_geometry geo = make_geometry(method, market, leg.strike, grid);
+    const int n_steps = geo.steps();
     const double s0 = diffusing_spot(market, T);
-    const std::vector<char> allowed = exercise_steps(leg, n_steps, st.dt);
-    sweep w = sweep_for(market, leg, st, n_steps, s0, allowed, extent);
+    const std::vector<char> allowed = exercise_steps(leg, grid);
+    sweep w = sweep_for(market, leg, geo, s0, allowed, extent);
+    varying_steps vary;
+    if (!geo.constant) {
+        vary = varying_of(geo);
+        w.vary = &vary;
+    }
     const int last_centre = place_rows(w, n_steps);
     fill_payoff_row(w, leg, n_steps, last_centre);
     run_sweep(w);
@@ -394,8 +458,10 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     induction_result out;
     out.value = w.v[0];
     out.node_updates = w.updates;
+    out.steps = n_steps;
+    out.segments = grid.segments;
     charge_work(w.updates);
-    first_rows_greeks(w, st, s0, n_steps, market, T, out);
+    first_rows_greeks(w, geo, s0, n_steps, market, T, out);
     return out;
 }
 

@@ -128,7 +128,8 @@ TEST_CASE("a lattice path replicates exactly, including dividends, carry and ear
     const hedge_schedule s = schedule_of(text);
     for (const auto& r : s.rows) CHECK(std::fabs(r.tracking_error) < 1e-12 * std::max(1.0, r.option_value));
     CHECK(s.rows.back().event == "exercise");
-    CHECK(s.rows.size() == 5);  // exercised at step 4
+    // Exercised at step 5 of a lattice whose steps fall on the ex-date and the day before.
+    CHECK(s.rows.size() == 6);
     CHECK(s.totals.payoff == Approx(52 - s.rows.back().spot).epsilon(1e-12));
     CHECK(s.totals.dividends != 0);  // the short shares paid the dividend and carry
 }

@@ -75,7 +75,6 @@ void check_tree(const trade& t, int steps, bool single_leg) {
     const auto at = [&](int n, int j) -> const tree_node& {
         return nodes[static_cast<std::size_t>(n * (n + 1) / 2 + j)];
     };
-    const double growth = 1.0 / lat.step.discount;
     for (const auto& node : nodes) {
         INFO("node (" << node.step << ", " << node.index << ")");
         const double scale =
@@ -83,6 +82,7 @@ void check_tree(const trade& t, int steps, bool single_leg) {
         CHECK(close(node.shares * node.spot + node.cash, node.value - node.paid, scale));
         if (!single_leg || node.event != node_event::none || node.step == steps) continue;
         // Both branches: the portfolio grows into the child's value (dividends and carry in `income`).
+        const double growth = 1.0 / lat.step(node.step).discount;
         for (int up = 0; up <= 1; ++up) {
             const tree_node& child = at(node.step + 1, node.index + up);
             CHECK(close(node.shares * (child.spot + node.income) + node.cash * growth, child.value,
@@ -101,7 +101,8 @@ void check_paths(const trade& t, int steps) {
         for (const auto& ps : walk) {
             if (ps.node.event == node_event::early_exercise) ++exercised;
             CHECK(close(ps.carried, ps.node.value, std::max(previous_scale, std::fabs(ps.node.value))));
-            previous_scale = std::fabs(ps.node.shares * ps.node.spot) + std::fabs(ps.node.cash / lat.step.discount);
+            previous_scale =
+                std::fabs(ps.node.shares * ps.node.spot) + std::fabs(ps.node.cash / lat.step(ps.node.step).discount);
         }
         // The end: the payoff at expiry, or the exercise value where the holder exercises.
         const tree_node& end = walk.back().node;
@@ -142,9 +143,15 @@ TEST_CASE("structures with different expiries and shares replicate on one lattic
             "lattice": {"method": "crr"}})");
         check_tree(t, 6, false);
         check_paths(t, 6);
+        // The put's expiry (0.5), the ex-date (0.4) and the day before it cut the year into 4
+        // pieces of whole steps: 2, 1, 1, 2 (lengths 0.397, 0.003, 0.1, 0.5; largest remainder).
         const trade_lattice lat(t, 6);
-        CHECK(lat.last_step[0] == 3);
-        CHECK(lat.notes.empty());
+        CHECK(lat.last_step[0] == 4);
+        CHECK(lat.years_at(4) == 0.5);
+        CHECK(lat.years_at(3) == 0.4);
+        CHECK(lat.years_at(2) == Approx(0.4 - 1.0 / 365).epsilon(1e-15));
+        REQUIRE(lat.notes.size() == 1);
+        CHECK(lat.notes[0].find("4 pieces of equal steps") != std::string::npos);
     }
     SECTION("covered call with a dividend: the share leg's income goes to its holder") {
         const trade t = trade_of(R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.05, "carry_yield": 0.01,
@@ -154,16 +161,30 @@ TEST_CASE("structures with different expiries and shares replicate on one lattic
         check_tree(t, 6, false);
         check_paths(t, 6);
     }
-    SECTION("an expiry between steps pays at the nearest step and says so") {
+    SECTION("an earlier expiry falls exactly on a step") {
         const trade t = trade_of(R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.05},
             "legs": [{"type": "put", "strike": 46, "expiry_years": 0.3, "quantity": 1},
                      {"type": "call", "strike": 52, "expiry_years": 1, "quantity": 1}],
             "lattice": {"method": "crr"}})");
         const trade_lattice lat(t, 4);
         CHECK(lat.last_step[0] == 1);
-        REQUIRE(lat.notes.size() == 1);
-        CHECK(lat.notes[0] == "legs[0] expires at 0.3 years, between lattice steps; it pays at step 1 (0.25 years)");
+        CHECK(lat.years_at(1) == 0.3);
+        check_tree(t, 4, false);
         check_paths(t, 4);
+    }
+    SECTION("with fewer steps than pieces an expiry pays at the nearest step and says so") {
+        const trade t = trade_of(R"({"market": {"spot": 48, "volatility": 0.3, "rate": 0.05},
+            "legs": [{"type": "put", "strike": 46, "expiry_years": 0.3, "quantity": 1},
+                     {"type": "put", "strike": 44, "expiry_years": 0.6, "quantity": 1},
+                     {"type": "call", "strike": 52, "expiry_years": 1, "quantity": 1}],
+            "lattice": {"method": "crr"}})");
+        const trade_lattice lat(t, 2);
+        CHECK(lat.geometry.grid.uniform);
+        CHECK(lat.last_step[0] == 1);
+        REQUIRE(lat.notes.size() == 3);
+        CHECK(lat.notes[0].find("need 3 pieces of the lattice, more than its 2 steps") != std::string::npos);
+        CHECK(lat.notes[1] == "legs[0] expires at 0.3 years, between lattice steps; it pays at step 1 (0.5 years)");
+        check_paths(t, 2);
     }
 }
 

@@ -135,7 +135,7 @@ export function coreScenarios(name) {
       const premium = await premiumOf(tab);
       const expected = await cliPremium(exampleText);
       assert.ok(close(premium, expected), `page ${premium}, CLI ${expected}`);
-      assert.equal(await tab.evaluate(() => document.querySelector('[data-result="premium"]').textContent), '3.0821');
+      assert.equal(await tab.evaluate(() => document.querySelector('[data-result="premium"]').textContent), '3.0822');
       // the page loaded nothing: no resource besides data: and blob: URLs
       const loaded = await tab.evaluate(() =>
         performance
@@ -154,7 +154,7 @@ export function coreScenarios(name) {
         await until(tab, () => {
           const node = document.querySelector('[data-result="premium"]');
           return (
-            !('computing' in document.body.dataset) && node.dataset.value !== '3.082145441880865' && node.dataset.value
+            !('computing' in document.body.dataset) && node.dataset.value !== '3.082237412556305' && node.dataset.value
           );
         }),
       );
@@ -180,7 +180,7 @@ export function coreScenarios(name) {
         stale: document.querySelector('.headline').classList.contains('stale'),
         premium: document.querySelector('[data-result="premium"]').textContent,
       }));
-      assert.deepEqual(state, { invalid: 'true', stale: true, premium: '3.0821' });
+      assert.deepEqual(state, { invalid: 'true', stale: true, premium: '3.0822' });
       await tab.fill('[data-path="market.volatility"]', '31');
       await until(tab, () => !document.querySelector('.headline').classList.contains('stale'));
       await done(tab);
@@ -199,7 +199,7 @@ export function coreScenarios(name) {
       await tab.fill('[data-path="option.strike"]', '50');
       const premium = await until(tab, () => {
         const value = document.querySelector('[data-result="premium"]').dataset.value;
-        return !('computing' in document.body.dataset) && value !== '3.082145441880865' && value;
+        return !('computing' in document.body.dataset) && value !== '3.082237412556305' && value;
       });
       // what the page puts on the clipboard is kept on the side (reading a clipboard back
       // needs permissions not every driver grants); a refusal puts the link in the address bar
@@ -246,7 +246,7 @@ export function coreScenarios(name) {
       ])
         assert.ok(sheet.includes(phrase), `the sheet lacks "${phrase}"`);
       // the client sheet by default: the price, never the desk's Greeks or lattice
-      assert.match(sheet, /Indicative price per unit\s+3\.0821/);
+      assert.match(sheet, /Indicative price per unit\s+3\.0822/);
       for (const deskOnly of ['Engine', 'Position delta', 'Lattice error', 'INTERNAL'])
         assert.ok(!sheet.includes(deskOnly), `the client sheet shows "${deskOnly}"`);
       await tab.printMedia(false);

@@ -88,6 +88,33 @@ TEST_CASE("each bad field gets one message naming it", "[trade]") {
     }
 }
 
+TEST_CASE("an expiry tenor becomes years from its rolled date", "[trade][tenor]") {
+    // Common practice: "6m" from a valuation date is that date six months on, rolled by modified
+    // following, counted ACT/365F; with no valuation date, months / 12.
+    json doc = base();
+    doc["option"].erase("expiry_years");
+    doc["option"]["expiry_tenor"] = "18m";
+    CHECK(read_trade(doc).legs[0].expiry_years == 1.5);
+    doc["valuation_date"] = "2026-12-02";
+    doc["option"]["expiry_tenor"] = "6m";
+    CHECK(read_trade(doc).legs[0].expiry_years == 182.0 / 365.0);  // 2027-06-02, a Wednesday
+    doc["option"]["expiry_tenor"] = "6M";
+    CHECK(read_trade(doc).legs[0].expiry_years == 182.0 / 365.0);
+    doc["option"]["expiry_years"] = 1;
+    CHECK(message_of(doc) ==
+          "option.expiry_tenor: give one of expiry_years, expiry_date or expiry_tenor, not expiry_years as well");
+    doc["option"].erase("expiry_years");
+    doc["option"]["expiry_tenor"] = 6;
+    CHECK(message_of(doc) == "option.expiry_tenor: must be a tenor such as 6m (text), got 6");
+    doc["valuation_date"] = "2027-07-30";  // a Friday; the next day is Saturday 31 July
+    doc["option"]["expiry_tenor"] = "1d";
+    CHECK(message_of(doc) ==
+          "option.expiry_tenor: 1d from valuation_date 2027-07-30 rolls back to 2027-07-30 "
+          "(modified following); give expiry_date instead");
+    doc["option"]["expiry_tenor"] = "51y";
+    CHECK(message_of(doc).rfind("option.expiry_tenor: must be <= 50", 0) == 0);
+}
+
 TEST_CASE("dates are checked against the valuation date", "[trade]") {
     json doc = base();
     doc["valuation_date"] = "2026-12-02";

@@ -230,6 +230,26 @@ TEST_CASE("zero and negative rates", "[edge_cases]") {
     }
 }
 
+TEST_CASE("negative rate and negative carry yield: an American put may be exercised early", "[edge_cases]") {
+    // Merton (1973) bounds (from memory): with rate <= 0 <= carry_yield the European put is worth at
+    // least K - S and early exercise never pays; with both negative and the carry yield the lower,
+    // the share grows faster than the strike and deep in the money the European put falls below
+    // its exercise value, so the American put is dearer (docs/replication.md).
+    edge e;
+    e.rate = -0.01;
+    e.carry = -0.05;
+    e.strike = 140;
+    e.years = 2;
+    const double european = european_reference(e);
+    CHECK(european < e.strike - e.spot);  // below the exercise value: early exercise pays
+    const trade_result am = price(e);
+    CHECK(am.premium >= e.strike - e.spot);
+    CHECK(am.premium > european + 0.1);
+    // rate <= 0 <= carry_yield: the same put is European in value.
+    e.carry = 0.01;
+    CHECK(price(e).premium == Approx(european_reference(e)).epsilon(1e-6));
+}
+
 TEST_CASE("carry yield above the rate", "[edge_cases]") {
     edge e;
     e.type = "call";
@@ -287,4 +307,28 @@ TEST_CASE("prices move by small steps as inputs cross the edges", "[edge_cases]"
     call.rate = 0.03;
     continuous("carry yield across the rate", call, &edge::carry, 0.02, 0.04, 20, by_carry);
     continuous("volatility up to 500 %", call, &edge::volatility, 4.8, 5.0, 10, by_vega);
+}
+
+TEST_CASE("ex-dividend: exercising the day before the ex-date captures the dividend, on it does not", "[edge_cases]") {
+    // The date in the file is the ex-date: on it the share trades without the dividend, so a call
+    // exercised the (business) day before receives the share with the dividend still to come, and
+    // one exercised on the ex-date does not (common practice; docs/trade-file.md). Deep in the
+    // money at a zero rate the values are exact by hand: spot - strike = 50 exercised before,
+    // spot - dividend - strike = 45 after (the European value under the escrowed model).
+    json doc = json::parse(R"({
+      "valuation_date": "2026-12-02",
+      "market": {"spot": 100, "volatility": 0.1, "rate": 0,
+                 "dividends": [{"date": "2027-03-15", "amount": 5}]},
+      "option": {"type": "call", "strike": 50, "expiry_date": "2027-06-18", "exercise": "bermudan"}
+    })");
+    doc["option"]["exercise_dates"] = {"2027-03-12"};  // Friday before Monday's ex-date
+    const double day_before = run_command("price", doc)["premium"].get<double>();
+    doc["option"]["exercise_dates"] = {"2027-03-15"};  // the ex-date itself
+    const double on_ex_date = run_command("price", doc)["premium"].get<double>();
+    CHECK(day_before == Approx(50).margin(1e-6));
+    CHECK(on_ex_date == Approx(45).margin(1e-6));
+    // An American call may exercise on the day before: it captures the dividend too.
+    doc["option"].erase("exercise_dates");
+    doc["option"]["exercise"] = "american";
+    CHECK(run_command("price", doc)["premium"].get<double>() == Approx(50).margin(1e-6));
 }

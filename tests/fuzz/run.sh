@@ -1,12 +1,17 @@
 #!/usr/bin/env bash
 # Build the libFuzzer target with clang (build/fuzz, ASan + UBSan) and fuzz every
-# command for a while.
+# command.
 #
-#   bash tests/fuzz/run.sh [SECONDS | -runs=N] [extra libFuzzer flags...]
+#   bash tests/fuzz/run.sh replay               the test command's step: deterministic
+#   bash tests/fuzz/run.sh [SECONDS] [flags...]  open-ended fuzzing (default 60 s)
 #
-# Default: 60 seconds. The corpus grows in build/fuzz/corpus (seeded from examples/
-# and tests/fuzz/seeds/, each document once per command, plus tests/fuzz/regressions/); crash, leak and slow-unit
-# reproducers land in build/fuzz/artifacts. Exit status is libFuzzer's (0 = clean).
+# replay: every committed input (examples/ and tests/fuzz/seeds/, each document once per
+# command, plus tests/fuzz/regressions/) and then a fixed number of mutations from a fixed
+# seed (-seed=1 -runs=20000) into an empty corpus: the same inputs on every machine and
+# every run, so the step passes or fails for the code alone (docs/reliability.md).
+# Open-ended: the corpus grows in build/fuzz/corpus and the random seed differs each run.
+# Crash, leak and slow-unit reproducers land in build/fuzz/artifacts. Exit status is
+# libFuzzer's (0 = clean).
 set -euo pipefail
 root=$(cd "$(dirname "$0")/../.." && pwd)
 build=$root/build/fuzz
@@ -34,12 +39,15 @@ done
 # Inputs that once broke the contract are replayed first (tests/fuzz/regressions).
 cp "$root"/tests/fuzz/regressions/* "$seeds/"
 
-case "$limit" in
-    -runs=*) budget=$limit ;;
-    *) budget=-max_total_time=$limit ;;
-esac
-# -timeout: a single run over 5 s counts as a hang; -max_len: trade documents are small,
-# 4 KB leaves room for several legs and sections while keeping mutations effective.
+# -timeout: a single run over 5 s counts as a hang (20 s in the replay, which must not
+# fail on a loaded machine); -max_len: trade documents are small, 4 KB leaves room for
+# several legs and sections while keeping mutations effective.
 cd "$build"
-exec ./trade_fuzz "$build/corpus" "$seeds" -dict="$root/tests/fuzz/trade.dict" -max_len=4096 -timeout=5 \
-     -rss_limit_mb=2048 -artifact_prefix="$build/artifacts/" -print_final_stats=1 "$budget" "$@"
+common=(-dict="$root/tests/fuzz/trade.dict" -max_len=4096 -rss_limit_mb=2048 -artifact_prefix="$build/artifacts/"
+        -print_final_stats=1)
+if [ "$limit" = replay ]; then
+    fresh=$build/replay-corpus
+    rm -rf "$fresh"; mkdir -p "$fresh"
+    exec ./trade_fuzz "$fresh" "$seeds" "${common[@]}" -timeout=20 -seed=1 -runs=20000 "$@"
+fi
+exec ./trade_fuzz "$build/corpus" "$seeds" "${common[@]}" -timeout=5 -max_total_time="$limit" "$@"

@@ -18,20 +18,21 @@ namespace {
 // exercise value from exercise_value, Greeks from rows 1 and 2 with the same
 // formulas as lattice.hpp documents. Deliberately slow and obvious.
 induction_result reference_induce(const market_data& market, const option_leg& leg, lattice_method method, int steps) {
-    const int n_steps = effective_steps(method, steps);
     const double T = leg.expiry_years;
-    const lattice_step st = make_step(method, market, leg.strike, T, n_steps);
+    const time_grid grid = make_time_grid(T, effective_steps(method, steps), leg_events(market, leg));
+    const lattice_geometry geo = make_geometry(method, market, leg.strike, grid);
+    const int n_steps = geo.steps();
     const double s0 = diffusing_spot(market, T);
-    const std::vector<char> allowed = exercise_steps(leg, n_steps, st.dt);
+    const std::vector<char> allowed = exercise_steps(leg, grid);
     const auto spot = [&](int n, int i) {
-        return std::exp(std::log(s0) + i * std::log(st.up) + (n - i) * std::log(st.down)) +
-               market.dividend_pv(n * st.dt, T);
+        return std::exp(std::log(s0) + geo.offset(n) + i * geo.log_ratio) + market.dividend_pv(geo.time(n), T);
     };
     std::vector<std::vector<double>> rows(static_cast<std::size_t>(n_steps) + 1);
     rows[n_steps].resize(static_cast<std::size_t>(n_steps) + 1);
     for (int i = 0; i <= n_steps; ++i) rows[n_steps][i] = exercise_value(leg, spot(n_steps, i));
-    const double pu = st.discount * st.p_up, pd = st.discount * (1 - st.p_up);
     for (int n = n_steps - 1; n >= 0; --n) {
+        const lattice_step& st = geo.at(n);
+        const double pu = st.discount * st.p_up, pd = st.discount * (1 - st.p_up);
         rows[n].resize(static_cast<std::size_t>(n) + 1);
         for (int i = 0; i <= n; ++i) {
             double value = pu * rows[n + 1][i + 1] + pd * rows[n + 1][i];
@@ -42,10 +43,10 @@ induction_result reference_induce(const market_data& market, const option_leg& l
     }
     induction_result out;
     out.value = rows[0][0];
-    const double su = s0 * st.up, sd = s0 * st.down;
+    const double su = s0 * geo.at(0).up, sd = s0 * geo.at(0).down;
     out.delta = (rows[1][1] - rows[1][0]) / (su - sd);
     if (n_steps >= 2) {
-        const double suu = su * st.up, sud = su * st.down, sdd = sd * st.down;
+        const double suu = su * geo.at(1).up, sud = su * geo.at(1).down, sdd = sd * geo.at(1).down;
         const std::vector<double>& r2 = rows[2];
         out.gamma = ((r2[2] - r2[1]) / (suu - sud) - (r2[1] - r2[0]) / (sud - sdd)) / (0.5 * (suu - sdd));
     }

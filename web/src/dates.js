@@ -40,3 +40,44 @@ export function todayIso(now = new Date()) {
   const pad = (n) => String(n).padStart(2, '0');
   return `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`;
 }
+
+const tenorPattern = /^(\d{1,5})([dwmy])$/i;
+const dayMs = 86400000;
+
+/** Saturday and Sunday are the only holidays (the engine's rule, core/contract/dates). */
+function isWeekend(iso) {
+  const weekday = new Date(`${iso}T00:00:00Z`).getUTCDay();
+  return weekday === 0 || weekday === 6;
+}
+
+function shiftDays(iso, days) {
+  return new Date(dayNumber(iso) * dayMs + days * dayMs).toISOString().slice(0, 10);
+}
+
+/** Modified following: a weekend day rolls forward to Monday unless that is next month, then back to Friday. */
+function modifiedFollowing(iso) {
+  let forward = iso;
+  while (isWeekend(forward)) forward = shiftDays(forward, 1);
+  if (forward.slice(0, 7) === iso.slice(0, 7)) return forward;
+  let back = iso;
+  while (isWeekend(back)) back = shiftDays(back, -1);
+  return back;
+}
+
+/**
+ * The date a tenor ("1w", "3m", "6m", "1y", "18m"; a count of 1 to 18250 and d, w, m or y)
+ * falls on from `from`, as the engine reads expiry_tenor: days and weeks as calendar days,
+ * months and years as calendar months with the day clamped to the month's end, then rolled
+ * by modified following (weekends only). Null for anything else.
+ */
+export function tenorToDate(from, tenor) {
+  const match = typeof tenor === 'string' ? tenorPattern.exec(tenor) : null;
+  if (!isIsoDate(from) || !match) return null;
+  const count = Number(match[1]);
+  if (count < 1 || count > 18250) return null;
+  const unit = match[2].toLowerCase();
+  let date;
+  if (unit === 'd' || unit === 'w') date = shiftDays(from, unit === 'd' ? count : 7 * count);
+  else date = addMonths(from, unit === 'm' ? count : 12 * count);
+  return modifiedFollowing(date);
+}
