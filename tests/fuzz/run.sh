@@ -8,7 +8,9 @@
 # replay: every committed input (examples/ and tests/fuzz/seeds/, each document once per
 # command, plus tests/fuzz/regressions/) and then a fixed number of mutations from a fixed
 # seed (-seed=1 -runs=20000) into an empty corpus: the same inputs on every machine and
-# every run, so the step passes or fails for the code alone (docs/reliability.md).
+# every run, so the step passes or fails for the code alone (docs/reliability.md). Address
+# randomisation is off (setarch -R) and comparison operands are not fed back (-use_cmp=0):
+# both let heap addresses steer the mutations, and two runs then drifted apart.
 # Open-ended: the corpus grows in build/fuzz/corpus and the random seed differs each run.
 # Crash, leak and slow-unit reproducers land in build/fuzz/artifacts. Exit status is
 # libFuzzer's (0 = clean).
@@ -48,6 +50,8 @@ common=(-dict="$root/tests/fuzz/trade.dict" -max_len=4096 -rss_limit_mb=2048 -ar
 if [ "$limit" = replay ]; then
     fresh=$build/replay-corpus
     rm -rf "$fresh"; mkdir -p "$fresh"
-    exec ./trade_fuzz "$fresh" "$seeds" "${common[@]}" -timeout=20 -seed=1 -runs=20000 "$@"
+    fixed=()  # where the kernel refuses setarch -R, the replay still runs (addresses may then vary)
+    if setarch "$(uname -m)" -R true 2>/dev/null; then fixed=(setarch "$(uname -m)" -R); fi
+    exec "${fixed[@]}" ./trade_fuzz "$fresh" "$seeds" "${common[@]}" -timeout=20 -seed=1 -runs=20000 -use_cmp=0 "$@"
 fi
 exec ./trade_fuzz "$build/corpus" "$seeds" "${common[@]}" -timeout=5 -max_total_time="$limit" "$@"
