@@ -93,5 +93,40 @@ one_bad ladder "{$m,\"ladder\":{\"kind\":\"spot\",\"spot_step\":-0.01}}" 'ladder
 one_bad profile "{$m,\"profile\":{\"points\":1}}" 'profile.points: must be between 2 and 501, got 1'
 one_bad price "{$m,\"quote\":{\"currency\":\"eur\"}}" 'quote.currency: must be an ISO 4217 currency code of three capital letters (e.g. EUR, USD, GBP), got string "eur"'
 
+# compare (core/analytics/comparison, core/commands/compare): a comparison file, or several trade files
+ex="$root/examples/protect-a-holding.json"
+for form in json table csv; do
+    flag=$([ $form = json ] || echo "--$form")
+    "$cli" compare "$ex" $flag > "/tmp/compare.$$.$form"
+    check "compare ${flag:-(JSON)} exits 0" "[ $? -eq 0 ]"
+done
+rows=$(/usr/bin/python3 -c 'import json,sys; print(len(json.load(open(sys.argv[1]))["rows"]))' "/tmp/compare.$$.json")
+check "compare prints three rows" '[ "$rows" -eq 3 ]'
+table=$(cat "/tmp/compare.$$.table"); csv=$(cat "/tmp/compare.$$.csv"); rm -f /tmp/compare.$$.*
+check "compare --table shows each label and the caution" 'echo "$table" | grep -q "Put spread 34.00 / 29.00" && echo "$table" | grep -q "Zero-cost collar" && echo "$table" | grep -q "^caution .*Indicative only"'
+check "compare --table leaves out the chart points" '! echo "$table" | grep -q "curve"'
+check "compare --csv header" '[ "$(echo "$csv" | head -1 | cut -d, -f1-5)" = "label,client_side,quantity,client_price,client_price_total" ]'
+check "compare --csv has a line per alternative" '[ $(echo "$csv" | wc -l) -eq 4 ]'
+tmp=$(mktemp -d)
+/usr/bin/python3 -c "
+import json, sys
+doc = json.load(open(sys.argv[1]))
+for i, t in enumerate(doc['comparison']['alternatives']):
+    json.dump(t, open(f'{sys.argv[2]}/alt{i}.json', 'w'))
+" "$ex" "$tmp"
+many=$("$cli" compare "$tmp/alt0.json" "$tmp/alt1.json" "$tmp/alt2.json" --csv); code=$?
+check "compare of three trade files exits 0" '[ $code -eq 0 ]'
+check "three trade files compare as the comparison file does" '[ "$many" = "$("$cli" compare "$ex" --csv)" ]'
+/usr/bin/python3 -c "
+import json, sys
+t = json.load(open(sys.argv[1])); t['market']['volatility'] = -0.2; json.dump(t, open(sys.argv[1], 'w'))
+" "$tmp/alt1.json"
+err=$("$cli" compare "$tmp/alt0.json" "$tmp/alt1.json" 2>&1 >/dev/null); code=$?
+check "a bad trade file exits 2" '[ $code -eq 2 ]'
+check "the refusal names the file and the field" '[ "$err" = "$tmp/alt1.json: market.volatility: must be > 0, got -0.2" ]'
+err=$("$cli" price "$tmp/alt0.json" "$tmp/alt2.json" 2>&1 >/dev/null); code=$?
+check "price of two files exits 2" '[ $code -eq 2 ]'
+rm -rf "$tmp"
+
 echo "cli: $passes passed, $fails failed"
 [ $fails -eq 0 ]

@@ -1,6 +1,7 @@
 #!/usr/bin/python3
-"""Every example trade validates against schema/trade.schema.json, and the CLI accepts it;
-documents the schema forbids are refused by the CLI too (the schema and the reader agree)."""
+"""Every example trade validates against schema/trade.schema.json (a comparison against
+schema/comparison.schema.json), and the CLI accepts it; documents the schema forbids are refused by
+the CLI too (the schema and the reader agree)."""
 import json, pathlib, subprocess, sys
 import jsonschema
 
@@ -13,6 +14,10 @@ market_schema = json.loads((root / "schema/market.schema.json").read_text())
 store = {schema["$id"]: schema, market_schema["$id"]: market_schema}
 market_validator = jsonschema.Draft202012Validator(
     market_schema, resolver=jsonschema.RefResolver.from_schema(market_schema, store=store))
+comparison_schema = json.loads((root / "schema/comparison.schema.json").read_text())
+# The comparison's alternatives refer to the trade schema by its $id.
+resolver = jsonschema.RefResolver.from_schema(comparison_schema, store={schema["$id"]: schema})
+comparison_validator = jsonschema.Draft202012Validator(comparison_schema, resolver=resolver)
 passed = failed = 0
 
 def check(ok, what):
@@ -25,10 +30,11 @@ def check(ok, what):
 
 for path in sorted((root / "examples").glob("*.json")):
     doc = json.loads(path.read_text())
-    errors = list(validator.iter_errors(doc))
+    is_comparison = "comparison" in doc
+    errors = list((comparison_validator if is_comparison else validator).iter_errors(doc))
     check(not errors, f"{path.name} against the schema: {[e.message for e in errors[:3]]}")
-    run = subprocess.run([cli, "price", str(path)], capture_output=True, text=True)
-    check(run.returncode == 0, f"{path.name} priced by the CLI: {run.stderr.strip()}")
+    run = subprocess.run([cli, "compare" if is_comparison else "price", str(path)], capture_output=True, text=True)
+    check(run.returncode == 0, f"{path.name} run by the CLI: {run.stderr.strip()}")
 
 base = {"market": {"spot": 100, "volatility": 0.2, "rate": 0.03},
         "option": {"type": "call", "strike": 100, "expiry_years": 1}}
@@ -65,6 +71,20 @@ bad_snapshots = [
 ]
 for doc in bad_snapshots:
     check(not market_validator.is_valid(doc), f"market schema refuses {json.dumps(doc)}")
+# A comparison the schema forbids, the CLI refuses too: five alternatives, one of them broken, a stray key.
+alternatives = [base] * 5
+bad_comparisons = [
+    {"comparison": {"alternatives": alternatives}},
+    {"comparison": {"alternatives": [base, bad_docs[0]]}},
+    {"comparison": {"alternatives": [base], "colour": "red"}},
+    {"comparison": {"alternatives": []}},
+]
+for doc in bad_comparisons:
+    check(not comparison_validator.is_valid(doc), f"comparison schema refuses {json.dumps(doc)[:80]}")
+    run = subprocess.run([cli, "compare", "-"], input=json.dumps(doc), capture_output=True, text=True)
+    check(run.returncode == 2, f"CLI compare refuses {json.dumps(doc)[:80]}")
+check(comparison_validator.is_valid({"comparison": {"title": "two", "alternatives": [base, base]}}),
+      "comparison schema accepts two alternatives")
 
 print(f"schema: {passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)

@@ -69,13 +69,14 @@ build_page() {
     node web/build.mjs
 }
 
-# The whole native suite again under ASan + UBSan (preset "sanitize", build/sanitize), then the
-# deterministic libFuzzer replay over every command (clang, build/fuzz; tests/fuzz/run.sh
-# replay: the committed inputs and 20,000 mutations from a fixed seed). Each step prints its
-# time: CI has 2 cores and a 15-minute budget for the whole test command.
+# The whole native suite again under ASan + UBSan with clang (preset "sanitize", build/sanitize,
+# which also builds the libFuzzer target from the same instrumented core), then the deterministic
+# libFuzzer replay over every command (tests/fuzz/run.sh replay: the committed inputs and 20,000
+# mutations from a fixed seed). Each step prints its time: CI has 2 cores and a 15-minute budget
+# for the whole test command.
 sanitize_and_fuzz() {
     local start=$SECONDS
-    say "native tests under AddressSanitizer + UndefinedBehaviorSanitizer"
+    say "native tests and the fuzz target under AddressSanitizer + UndefinedBehaviorSanitizer (clang)"
     cmake --preset sanitize >/dev/null
     cmake --build build/sanitize -j"$jobs"
     (cd build/sanitize && UBSAN_OPTIONS=print_stacktrace=1 ctest --output-on-failure -j"$jobs")
@@ -89,7 +90,7 @@ sanitize_and_fuzz() {
         return 1
     fi
     grep -E '^(#[0-9]+ +(INITED|DONE)|stat::)' build/fuzz.log || true
-    say "fuzz build and run took $((SECONDS - start)) s"
+    say "fuzz run took $((SECONDS - start)) s"
 }
 
 # The browser tests, engine by engine, each with its time (CI: 2 cores, 15 minutes for

@@ -83,9 +83,15 @@ void render(std::ostringstream& out, const json& v, const std::string& indent) {
     const json* order = has_rows && v.contains("table_columns") ? &v.at("table_columns")
                         : has_rows && v.contains("columns")     ? &v.at("columns")
                                                                 : nullptr;
+    // ... and the top-level keys a table shows ("table_sections"; the JSON keeps every detail).
+    const json* sections = v.contains("table_sections") ? &v.at("table_sections") : nullptr;
+    const auto shown = [&](const std::string& key) {
+        return !sections || std::find(sections->begin(), sections->end(), json(key)) != sections->end();
+    };
     for (auto it = v.begin(); it != v.end(); ++it) {
         const json& x = *it;
         if (has_rows && (it.key() == "columns" || it.key() == "table_columns")) continue;
+        if (it.key() == "table_sections" || !shown(it.key())) continue;
         if (x.is_object()) {
             out << indent << it.key() << "\n";
             render(out, x, indent + "  ");

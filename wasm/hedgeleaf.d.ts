@@ -82,7 +82,7 @@ export interface Vocabulary {
 }
 
 /** Commands of the command table (core/dispatch/command_table.cpp); commands() says which this build has. */
-export type CommandName = "price" | "hedge" | "tree" | "simulate" | "solve" | "ladder" | "profile";
+export type CommandName = "price" | "hedge" | "tree" | "simulate" | "solve" | "ladder" | "profile" | "compare";
 
 /** What run() returns, as JSON text. */
 export type Envelope<R = PriceResult> =

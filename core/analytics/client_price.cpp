@@ -64,13 +64,7 @@ client_price price_for_client(const trade& t, const trade_result& priced, const 
     out.fraction_of_notional = out.per_unit / spot;
     out.notional = q * spot;
     out.desk_margin_total = (out.client_buys ? out.per_unit - mid : mid - out.per_unit) * q;
-    return out;
-}
-
-price_result run_price(const trade& t, const price_settings& settings) {
-    price_result out;
-    out.priced = price_trade(t, bumped_greeks::on, error_bound::on);
-    if (settings.quote) out.quote = price_for_client(t, out.priced, *settings.quote);
+    out.spread = terms.tick ? tidy(offer - bid) : offer - bid;
     return out;
 }
 

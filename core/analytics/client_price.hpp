@@ -8,6 +8,10 @@
 //   volatility           re-price at volatility +- margin (0.01 = one volatility point)
 // Prices round to the tick in the desk's favour (offer up, bid down). The
 // premium is also given as a fraction of notional, notional = quantity * spot.
+// A two-way quote shows both sides to the client; a one-way quote only the side
+// the client deals on. The sheet's own terms (who prepared it, the desk's
+// contact, until when it is indicative) and the client's existing holding ride
+// along: the holding is shown with the trade, never priced into it.
 #pragma once
 
 #include "analytics/pricing.hpp"
@@ -27,10 +31,16 @@ enum class margin_kind {
 struct quote_terms {
     std::string currency;  ///< ISO 4217 code, or "" for none
     margin_kind margin_type = margin_kind::absolute;
-    double margin = 0;
+    double margin = 0;  ///< on each side of the mid: the spread offer - bid is twice this before rounding
     std::optional<double> tick;
+    bool two_way = false;              ///< show the client both the bid and the offer
+    std::optional<std::string> label;  ///< the trade's short name on the sheet and in comparisons
     std::optional<std::string> client;
+    std::optional<std::string> prepared_by;       ///< the preparer's name
+    std::optional<std::string> contact;           ///< the desk's telephone or e-mail
+    std::optional<std::string> indicative_until;  ///< ISO 8601 date or date and time, as given
     std::optional<std::string> notes;
+    double holding_shares = 0;  ///< shares the client already holds (shown with the trade, not priced)
 };
 
 /// A price per unit, for the whole quantity, and as a fraction of notional.
@@ -49,23 +59,10 @@ struct client_price {
     double fraction_of_notional = 0;
     double notional = 0;  ///< quantity x spot
     double desk_margin_total = 0;
+    double spread = 0;  ///< offer - bid per unit, after rounding
 };
 
 /// The client price of a priced trade under `terms`.
 client_price price_for_client(const trade& t, const trade_result& priced, const quote_terms& terms);
-
-/// The price command's settings: the `quote` section, if the trade has one.
-struct price_settings {
-    std::optional<quote_terms> quote;
-};
-
-/// The price command's result.
-struct price_result {
-    trade_result priced;                ///< with vega and rho by re-pricing
-    std::optional<client_price> quote;  ///< with a quote section
-};
-
-/// Price the trade (bumped Greeks on) and, with a quote section, the client price.
-price_result run_price(const trade& t, const price_settings& settings);
 
 }  // namespace hedgeleaf

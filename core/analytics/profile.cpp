@@ -20,20 +20,6 @@ namespace {
 
 constexpr double expiry_epsilon = 1e-9;
 
-double first_expiry(const trade& t) {
-    double h = std::numeric_limits<double>::infinity();
-    for (const auto& leg : t.legs)
-        if (leg.type != payoff_kind::stock) h = std::min(h, leg.expiry_years);
-    return h;
-}
-
-bool one_expiry(const trade& t) {
-    const double h = first_expiry(t);
-    return std::all_of(t.legs.begin(), t.legs.end(), [h](const option_leg& l) {
-        return l.type == payoff_kind::stock || l.expiry_years <= h + expiry_epsilon;
-    });
-}
-
 bool is_digital(const option_leg& leg) {
     return leg.type == payoff_kind::digital_call || leg.type == payoff_kind::digital_put;
 }
@@ -41,15 +27,6 @@ bool is_digital(const option_leg& leg) {
 bool digital_at(const trade& t, double k) {
     return std::any_of(t.legs.begin(), t.legs.end(),
                        [k](const option_leg& l) { return is_digital(l) && l.strike == k; });
-}
-
-std::vector<double> sorted_strikes(const trade& t) {
-    std::vector<double> k;
-    for (const auto& leg : t.legs)
-        if (leg.type != payoff_kind::stock) k.push_back(leg.strike);
-    std::sort(k.begin(), k.end());
-    k.erase(std::unique(k.begin(), k.end()), k.end());
-    return k;
 }
 
 /// Slope of the payoff beyond the highest strike when all legs expire together:
@@ -97,6 +74,8 @@ std::vector<double> shape_points(const trade& t, bool linear, const std::functio
 
 // The rows: payoff and P&L at the horizon, value today on the ladder's lattice.
 void profile_rows(const trade& t, const profile_settings& s, double cost, profile_result& out) {
+    // Dealt at a client price, the client's value today starts below zero by the desk's margin.
+    const double markup = out.quote ? out.quote->per_unit - out.premium : 0.0;
     const double spot = t.market.spot;
     const double q = t.signed_quantity();
     const auto today_at = [&](double x) { return value_scenario(t, {x / spot - 1, 0, 0}, s.steps).value; };
@@ -111,9 +90,9 @@ void profile_rows(const trade& t, const profile_settings& s, double cost, profil
         row.payoff = payoff;
         row.pnl_at_expiry = payoff - cost;
         row.value_today = value;
-        row.pnl_today = value - today;
+        row.pnl_today = value - today - markup;
         row.position_pnl_at_expiry = q * (payoff - cost) + 0.0;
-        row.position_pnl_today = q * (value - today) + 0.0;
+        row.position_pnl_today = q * row.pnl_today + 0.0;
         out.rows.push_back(row);
     }
 }
@@ -150,8 +129,15 @@ void linear_extremes(const trade& t, double cost, profile_result& out) {
 void profile_notes(const trade& t, const profile_settings& s, profile_result& out) {
     out.notes.push_back(
         "per unit for the buyer of the trade as written; position figures are times the signed quantity");
-    out.notes.push_back(s.finance_premium ? "P&L at expiry = payoff - premium carried to expiry at market.rate"
-                                          : "P&L at expiry = payoff - premium paid today (not carried to expiry)");
+    const std::string paid =
+        out.quote ? std::string(out.quote->client_buys ? "the client price (the offer)" : "the client price (the bid)")
+                  : std::string("premium");
+    out.notes.push_back(s.finance_premium ? "P&L at expiry = payoff - " + paid + " carried to expiry at market.rate"
+                                          : "P&L at expiry = payoff - " + paid + " paid today (not carried to expiry)");
+    if (out.quote)
+        out.notes.push_back(
+            "P&L if valued today = value at the model - the client price: at today's spot it is the desk's margin "
+            "lost");
     if (out.one_expiry) {
         out.notes.push_back("max/min P&L at expiry: null means unbounded");
     } else {
@@ -173,6 +159,29 @@ void profile_notes(const trade& t, const profile_settings& s, profile_result& ou
 }
 
 }  // namespace
+
+double first_expiry(const trade& t) {
+    double h = std::numeric_limits<double>::infinity();
+    for (const auto& leg : t.legs)
+        if (leg.type != payoff_kind::stock) h = std::min(h, leg.expiry_years);
+    return h;
+}
+
+bool one_expiry(const trade& t) {
+    const double h = first_expiry(t);
+    return std::all_of(t.legs.begin(), t.legs.end(), [h](const option_leg& l) {
+        return l.type == payoff_kind::stock || l.expiry_years <= h + expiry_epsilon;
+    });
+}
+
+std::vector<double> sorted_strikes(const trade& t) {
+    std::vector<double> k;
+    for (const auto& leg : t.legs)
+        if (leg.type != payoff_kind::stock) k.push_back(leg.strike);
+    std::sort(k.begin(), k.end());
+    k.erase(std::unique(k.begin(), k.end()), k.end());
+    return k;
+}
 
 double horizon_payoff(const trade& t, double s, double horizon_years) {
     const market_data later = t.market.seen_at(horizon_years);
@@ -246,8 +255,11 @@ profile_result run_profile(const trade& t, const profile_settings& s) {
     out.horizon_years = first_expiry(t);
     out.one_expiry = one_expiry(t);
     // The premium is the price command's (the trade's own lattice settings).
-    out.premium = price_trade(t, bumped_greeks::off).premium;
-    out.cost_at_expiry = s.finance_premium ? out.premium * t.market.rate.growth(0, out.horizon_years) : out.premium;
+    const trade_result priced = price_trade(t, bumped_greeks::off);
+    out.premium = priced.premium;
+    if (s.quote) out.quote = price_for_client(t, priced, *s.quote);
+    const double paid = out.quote ? out.quote->per_unit : out.premium;
+    out.cost_at_expiry = s.finance_premium ? paid * t.market.rate.growth(0, out.horizon_years) : paid;
     profile_rows(t, s, out.cost_at_expiry, out);
     out.zero_pnl = find_break_evens(t, out.cost_at_expiry);
     if (out.one_expiry) linear_extremes(t, out.cost_at_expiry, out);

@@ -1,7 +1,8 @@
 // Hedgeleaf analytics: payoff at expiry and break-even points (the profile command).
 //
 // For a grid of spots the profile gives the trade's payoff at expiry, its P&L
-// after the premium, and its value today on a fast lattice. Break-even spots
+// after the premium (after the client price when the trade has a quote section:
+// the client's break-evens are the client's), and its value today on a fast lattice. Break-even spots
 // are the roots of the P&L at expiry, found exactly: between strikes the
 // payoff of options expiring together is linear, so each piece is searched
 // with the bracketing root finder and the last piece is solved in closed form.
@@ -11,7 +12,7 @@
 // then smooth between strikes and each piece is scanned for sign changes.
 #pragma once
 
-#include "contract/trade.hpp"
+#include "analytics/client_price.hpp"
 
 #include <optional>
 #include <string>
@@ -23,6 +24,13 @@ namespace hedgeleaf {
 /// Payoff per unit at `horizon_years` when spot is `s` there: legs expiring by
 /// then pay their payoff; later legs are valued in closed form.
 double horizon_payoff(const trade& t, double s, double horizon_years);
+
+/// The first expiry of the trade's option legs (the final expiry for shares alone).
+double first_expiry(const trade& t);
+/// Every option leg expires at the first expiry: the payoff there is piecewise linear.
+bool one_expiry(const trade& t);
+/// The option legs' strikes, ascending, each once.
+std::vector<double> sorted_strikes(const trade& t);
 
 /// Where the P&L at the horizon (payoff minus `cost`) is zero.
 struct break_evens {
@@ -40,6 +48,7 @@ struct profile_settings {
     int points = default_profile_points;
     int steps = default_ladder_steps;
     bool finance_premium = false;
+    std::optional<quote_terms> quote;  ///< the trade's quote section: P&L after the client price
 };
 
 struct profile_row {
@@ -48,9 +57,10 @@ struct profile_row {
 };
 
 struct profile_result {
-    double premium = 0;         ///< the price command's premium (without bumps)
-    double cost_at_expiry = 0;  ///< the premium, carried to the horizon when financed
-    double horizon_years = 0;   ///< the first expiry
+    double premium = 0;                 ///< the price command's premium (without bumps)
+    std::optional<client_price> quote;  ///< with a quote section: the P&L is after this price
+    double cost_at_expiry = 0;          ///< the price paid (client price or premium), carried when financed
+    double horizon_years = 0;           ///< the first expiry
     std::vector<profile_row> rows;
     break_evens zero_pnl;
     bool one_expiry = true;  ///< every leg ends at the horizon: the payoff is piecewise linear

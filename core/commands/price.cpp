@@ -100,7 +100,8 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
                           "curves (ACT/365F) from today to the leg's expiry"}};
         if (t.strike_tick) out["strike_tick"] = *t.strike_tick;
     }
-    if (result.quote) out["client_price"] = write_client_price(*settings.quote, *result.quote, !t.market.is_plain());
+    if (result.quote)
+        out["client_price"] = write_client_price(t, *settings.quote, *result.quote, *result.client, result.outcomes);
     return out;
 }
 

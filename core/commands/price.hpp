@@ -1,7 +1,7 @@
 // Hedgeleaf commands: the price command's JSON in and out.
 #pragma once
 
-#include "analytics/client_price.hpp"
+#include "analytics/client_price_outcomes.hpp"
 #include "commands/json_read.hpp"
 
 namespace hedgeleaf {

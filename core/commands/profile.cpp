@@ -2,6 +2,7 @@
 #include "commands/profile.hpp"
 
 #include "commands/cautions.hpp"
+#include "commands/quote.hpp"
 #include "commands/table_columns.hpp"
 #include "commands/trade_reader.hpp"
 #include "numerics/lattice.hpp"
@@ -11,8 +12,6 @@
 namespace hedgeleaf {
 
 namespace {
-
-json optional_number(const std::optional<double>& x) { return x ? json(*x) : json(nullptr); }
 
 using profile_column = column<profile_row>;
 
@@ -48,6 +47,7 @@ profile_settings read_profile_settings(const json& document, const trade& t) {
     s.steps = static_cast<int>(r.integer_or("steps", default_ladder_steps, 1, max_profile_steps));
     s.finance_premium = r.boolean_or("finance_premium", false);
     r.finish();
+    s.quote = read_quote_terms(document, t);
     return s;
 }
 
@@ -68,10 +68,14 @@ json write_profile_result(const trade& t, const profile_settings& s, const profi
         {"columns", column_names(profile_columns())}};
     if (t.valuation_date) out["horizon_date"] = to_iso(add_days(*t.valuation_date, std::lround(p.horizon_years * 365)));
     if (p.one_expiry) {
-        out["max_pnl_at_expiry"] = optional_number(p.max_pnl);
-        out["min_pnl_at_expiry"] = optional_number(p.min_pnl);
-        out["position_max_pnl_at_expiry"] = optional_number(p.position_max_pnl);
-        out["position_min_pnl_at_expiry"] = optional_number(p.position_min_pnl);
+        out["max_pnl_at_expiry"] = number_or_null(p.max_pnl);
+        out["min_pnl_at_expiry"] = number_or_null(p.min_pnl);
+        out["position_max_pnl_at_expiry"] = number_or_null(p.position_max_pnl);
+        out["position_min_pnl_at_expiry"] = number_or_null(p.position_min_pnl);
+    }
+    if (p.quote) {  // the P&L is the client's: after the price the client pays or receives
+        out["priced_at"] = "client price";
+        out["client_price"] = p.quote->per_unit;
     }
     out["notes"] = p.notes;
     out["caution"] = client_caution(!t.market.is_plain());

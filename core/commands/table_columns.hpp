@@ -7,9 +7,13 @@
 
 #include "commands/json_read.hpp"
 
+#include <optional>
 #include <vector>
 
 namespace hedgeleaf {
+
+/// A number, or null where there is none (unbounded, or not given).
+inline json number_or_null(const std::optional<double>& x) { return x ? json(*x) : json(nullptr); }
 
 /// One column: its name and a number of the row, or how to write a value that is not one.
 template <class Row>

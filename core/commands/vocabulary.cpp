@@ -107,6 +107,12 @@ void quote_fields(json& f) {
     f["quote.tick"] = above(number_field(), 0);
     f["quote.client"] = json{{"type", "string"}, {"maxLength", max_client_name_chars}};
     f["quote.notes"] = json{{"type", "string"}, {"maxLength", max_notes_chars}};
+    f["quote.two_way"] = json{{"type", "boolean"}, {"default", false}};
+    f["quote.label"] = json{{"type", "string"}, {"maxLength", max_label_chars}};
+    f["quote.prepared_by"] = json{{"type", "string"}, {"maxLength", max_preparer_chars}};
+    f["quote.contact"] = json{{"type", "string"}, {"maxLength", max_contact_chars}};
+    f["quote.indicative_until"] = json{{"type", "string"}, {"maxLength", max_datetime_chars}};
+    f["quote.holding.shares"] = positive_up_to(max_quantity);
 }
 
 void solve_fields(json& f) {
@@ -223,6 +229,8 @@ json limits() {
                 {"path_rebalancings", max_path_rebalancings},
                 {"margin_fraction", max_margin_fraction},
                 {"volatility_margin", max_volatility_margin},
+                {"comparison_alternatives", max_alternatives},
+                {"comparison_outcome_spots", max_outcome_spots},
                 {"page_work_budget", page_work_budget},
                 {"smile_expiries", max_smile_expiries},
                 {"smile_strikes", max_smile_strikes},

@@ -48,6 +48,8 @@ inline const std::vector<std::string> strike_forms = {"percent_of_spot", "percen
 inline const std::vector<std::string> smile_moves = {"sticky-strike", "sticky-moneyness"};
 /// Sections of the trade document each read by its own command.
 inline const std::vector<std::string> command_sections = {"quote", "hedge", "simulate", "solve", "ladder", "profile"};
+/// The top-level key of a comparison document (several trades side by side, read by `compare`).
+inline const std::string comparison_key = "comparison";
 // The structure shapes live in their table (contract/structures.hpp); the commands in
 // theirs (dispatch/command_table.hpp).
 
@@ -111,6 +113,18 @@ inline constexpr double max_margin_fraction = 1.0;        ///< a margin of the w
 inline constexpr double max_volatility_margin = 0.5;      ///< fifty volatility points
 inline constexpr std::size_t max_client_name_chars = 80;  ///< printed on the sheet
 inline constexpr std::size_t max_notes_chars = 500;
+inline constexpr std::size_t max_label_chars = 60;     ///< a trade's short name on sheets and in comparisons
+inline constexpr std::size_t max_preparer_chars = 80;  ///< the preparer's name on the sheet
+inline constexpr std::size_t max_contact_chars = 120;  ///< the desk's telephone or e-mail on the sheet
+inline constexpr std::size_t max_datetime_chars = 40;  ///< quote.indicative_until text, before it is parsed
+
+// ---- comparison ----------------------------------------------------------
+
+inline constexpr std::size_t max_alternatives = 4;    ///< trades side by side in one comparison
+inline constexpr std::size_t max_title_chars = 120;   ///< a comparison's title
+inline constexpr std::size_t max_outcome_spots = 12;  ///< spot levels of the client's outcome table
+/// The outcome table's spot levels when none are given: moves of spot from today.
+inline const std::vector<double> default_outcome_moves = {-0.3, -0.2, -0.1, 0.0, 0.1, 0.2, 0.3};
 
 // ---- hedge and tree ------------------------------------------------------
 

@@ -9,7 +9,6 @@
 
 #include "analytics/work_estimate.hpp"
 #include "commands/json_read.hpp"
-#include "contract/trade.hpp"
 
 #include <string>
 #include <vector>
@@ -22,11 +21,11 @@ struct command_descriptor {
     std::string name;        ///< as typed: hedgeleaf <name> FILE
     std::string help;        ///< one line for the CLI's usage
     std::string work_field;  ///< the input that sets the size of its work, named by budget messages
-    /// The work estimate of the command on a document (reads its settings).
-    work_estimate (*estimate)(const json& document, const trade& t);
-    /// Read the settings, hold the run to `budget` node updates (estimate first, then the
-    /// work meter), run, write the result.
-    json (*execute)(const command_descriptor& self, const json& document, const trade& t, double budget);
+    /// The work estimate of the command on a document (reads its trade and settings).
+    work_estimate (*estimate)(const json& document);
+    /// Read the trade and settings, hold the run to `budget` node updates (estimate first,
+    /// then the work meter), run, write the result.
+    json (*execute)(const command_descriptor& self, const json& document, double budget);
 };
 
 /// Every command, in name order.

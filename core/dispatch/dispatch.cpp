@@ -1,7 +1,7 @@
 // Hedgeleaf dispatch: running a command on a document (see dispatch.hpp).
 #include "dispatch/dispatch.hpp"
 
-#include "commands/trade_reader.hpp"
+#include "commands/market_reader.hpp"
 #include "commands/vocabulary.hpp"
 #include "contract/version.hpp"
 #include "dispatch/command_table.hpp"
@@ -34,9 +34,7 @@ std::vector<std::string> command_names() {
 
 json run_command(const std::string& command, const json& document, double work_budget) {
     const command_descriptor& d = find_command(command);
-    const trade t = read_trade(document);
-    json result = d.execute(d, document, t, work_budget);
-    if (!t.market.as_of.empty()) result["market_as_of"] = t.market.as_of;
+    json result = d.execute(d, document, work_budget);
     result["engine_version"] = engine_version();
     return result;
 }
@@ -60,7 +58,7 @@ std::string run_command_text(const std::string& command, const std::string& text
 
 work_estimate estimate_work(const std::string& command, const json& document) {
     const command_descriptor& d = find_command(command);
-    work_estimate w = d.estimate(document, read_trade(document));
+    work_estimate w = d.estimate(document);
     w.field = d.work_field;
     return w;
 }

@@ -196,9 +196,11 @@ test('lattice methods are named properly wherever they are shown', async () => {
   await page.click('#ladder-card summary');
   const notes = await until(page, () => document.querySelector('#ladder-output p:last-child')?.textContent);
   assert.match(notes, /Lattice: Leisen–Reimer/);
+  await page.check('#sheet-internal'); // the lattice is on the desk's (internal) sheet only
   await page.emulateMedia({ media: 'print' });
-  assert.match(await page.locator('#sheet-meta').innerText(), /Leisen–Reimer lattice/);
+  assert.match(await until(page, () => document.getElementById('sheet-desk').innerText), /Leisen–Reimer lattice/);
   await page.emulateMedia({ media: 'screen' });
+  await page.uncheck('#sheet-internal');
   await page.click('.advanced summary');
   await page.selectOption('[data-path="lattice.method"]', 'crr');
   await settled(page);

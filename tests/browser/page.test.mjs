@@ -139,7 +139,7 @@ test('export then import gives back the same trade; a bad file is refused', asyn
   await page.close();
 });
 
-test('the print view is the quote sheet, with the cautions; client text stays text', async () => {
+test('the print view is the client sheet, with the cautions; client text stays text', async () => {
   const trade = JSON.parse(exampleText);
   trade.quote = {
     client: '<b>Orchard</b> & Lane',
@@ -148,13 +148,16 @@ test('the print view is the quote sheet, with the cautions; client text stays te
     margin_type: 'fraction_of_premium',
     margin: 0.02,
     tick: 0.01,
+    prepared_by: 'Mara Lindqvist',
+    contact: '+44 20 7946 0321',
+    indicative_until: '2026-12-02T17:00Z',
   };
   const page = await open(linkTo(JSON.stringify(trade)));
   await page.emulateMedia({ media: 'print' });
   const sheet = page.locator('#quote-sheet');
   assert.ok(await sheet.isVisible());
   assert.ok(!(await page.locator('#terms').isVisible()));
-  const text = await sheet.innerText();
+  const text = (await sheet.innerText()).replace(/\s+/g, ' '); // cells and lines as single spaces
   for (const phrase of [
     'Indicative only',
     'not an offer',
@@ -164,20 +167,27 @@ test('the print view is the quote sheet, with the cautions; client text stays te
     'sales rules',
     'Input fingerprint',
     'Valued at',
-    'Engine',
+    'Indicative until 2026-12-02T17:00Z',
+    'Prepared by Mara Lindqvist',
+    'Desk contact +44 20 7946 0321',
+    'The trade, leg by leg',
+    'Client buys Put 46.00 (95.4 % of spot)',
+    'Break-even at expiry',
   ]) {
     assert.ok(text.includes(phrase), `the sheet lacks "${phrase}"`);
   }
-  assert.match(text, /Premium per unit\s+3\.\d{4}/);
   assert.match(text, /Input fingerprint\s+[0-9a-f]{12}/);
+  // the client sheet never shows the desk's model value, margin, Greeks or lattice
+  for (const deskOnly of ['Model value', 'Premium per unit', 'Desk margin', 'delta', 'Vega', 'Lattice', 'INTERNAL'])
+    assert.ok(!text.includes(deskOnly), `the client sheet shows "${deskOnly}"`);
   // the client price is the engine's (3.0822 + 2 %, up to the 0.01 tick); an engine without quotes shows none
   const clientPrice = (await cliResult(JSON.stringify(trade))).client_price;
-  if (clientPrice)
-    assert.match(
-      text,
-      new RegExp(`Client price per unit \\(buys at the offer\\)\\s+${clientPrice.per_unit.toFixed(4)} EUR`),
-    );
-  else assert.ok(!text.includes('Client price'));
+  assert.match(
+    text,
+    new RegExp(`Client price per unit \\(buys at the offer\\)\\s+${clientPrice.per_unit.toFixed(4)} EUR`),
+  );
+  // the break-even is at the client price: strike - offer (46 - client price), not strike - model value
+  assert.ok(text.includes(`Break-even at expiry ${(46 - clientPrice.per_unit).toFixed(2)}`), 'break-even at the offer');
   assert.ok(text.includes('<b>Orchard</b> & Lane') && text.includes('<img src=x>'), 'client text shown as typed');
   assert.equal(
     await page.locator('#quote-sheet b, #quote-sheet img, .workbench b').count(),
@@ -192,6 +202,74 @@ test('the print view is the quote sheet, with the cautions; client text stays te
   const pages = pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? [];
   assert.equal(pages.length, 1, 'the quote sheet prints on one A4 page');
   assert.ok(text.indexOf('Indicative only') < text.indexOf('Terms'), 'the caution heads the sheet');
+
+  // The internal sheet adds the desk's figures, says so at its head, and the switch is remembered.
+  await page.emulateMedia({ media: 'screen' });
+  await page.check('#sheet-internal');
+  await page.emulateMedia({ media: 'print' });
+  await until(page, () => document.getElementById('sheet-title').textContent.startsWith('INTERNAL'));
+  const internal = (await sheet.innerText()).replace(/\s+/g, ' ');
+  for (const phrase of ['INTERNAL', 'Model value per unit', 'Desk margin in total', 'Position delta', 'Engine'])
+    assert.ok(internal.includes(phrase), `the internal sheet lacks "${phrase}"`);
+  const internalPdf = await page.pdf({ format: 'A4' });
+  assert.equal((internalPdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? []).length, 1, 'one A4 page');
+  await page.emulateMedia({ media: 'screen' });
+  await page.reload();
+  await until(page, () => document.getElementById('sheet-internal').checked);
+  await page.uncheck('#sheet-internal');
+  await page.close();
+});
+
+test('a two-way quote shows the bid and the offer; shares held never change the client price', async () => {
+  const trade = JSON.parse(exampleText);
+  trade.quote = { currency: 'EUR', margin: 0.1, tick: 0.01, two_way: true, holding: { shares: 25000 } };
+  const cli = (await cliResult(JSON.stringify(trade))).client_price;
+  const page = await open(linkTo(JSON.stringify(trade)));
+  const shown = await until(page, () => {
+    const node = document.querySelector('[data-result="bid-offer"]');
+    return node && !node.closest('[hidden]') && node.textContent !== '–' && node.textContent;
+  });
+  assert.equal(shown, `${cli.bid.per_unit.toFixed(4)} / ${cli.offer.per_unit.toFixed(4)}`);
+  const price = await page.getAttribute('[data-result="client-price"]', 'data-value');
+  assert.equal(Number(price), cli.offer.per_unit, 'the client buys at the offer');
+  delete trade.quote.holding;
+  assert.equal(
+    (await cliResult(JSON.stringify(trade))).client_price.per_unit,
+    cli.per_unit,
+    'the holding is not priced',
+  );
+  // the break-even on screen is the client's: strike - offer (the engine's, at the client price)
+  const evens = await until(page, () => document.querySelector('[data-result="break-even"]')?.dataset.values);
+  assert.ok(Math.abs(JSON.parse(evens)[0] - (46 - cli.offer.per_unit)) < 1e-9, `break-even ${evens}`);
+  await page.close();
+});
+
+test('Show to client: larger type, the client price first, the desk figures hidden, remembered', async () => {
+  const trade = JSON.parse(exampleText);
+  trade.quote = { currency: 'EUR', margin: 0.1, tick: 0.01 };
+  const cli = (await cliResult(JSON.stringify(trade))).client_price;
+  const page = await open(linkTo(JSON.stringify(trade)));
+  const visible = (selector) => page.locator(selector).first().isVisible();
+  assert.ok(await visible('[data-result="premium"]'), 'the desk sees the model value');
+  const fontBefore = await page.evaluate(() => parseFloat(getComputedStyle(document.body).fontSize));
+  await page.check('#present-view');
+  for (const deskOnly of ['[data-result="premium"]', '[data-result="desk-margin-total"]', '[data-result="delta"]'])
+    assert.ok(!(await visible(deskOnly)), `${deskOnly} is hidden on the shared screen`);
+  const headline = page.locator('.headline-client [data-result="client-price"]');
+  assert.ok(await headline.isVisible());
+  assert.equal((await headline.textContent()).trim(), `${cli.per_unit.toFixed(4)} EUR`);
+  assert.ok(await visible('#profile-chart'), 'the chart stays');
+  const fontAfter = await page.evaluate(() => parseFloat(getComputedStyle(document.body).fontSize));
+  assert.ok(fontAfter > fontBefore * 1.2, `larger type: ${fontBefore} -> ${fontAfter}`);
+  // the chart comes before the terms
+  const [chartTop, termsTop] = await page.evaluate(() =>
+    ['profile-chart', 'terms'].map((id) => document.getElementById(id).getBoundingClientRect().top),
+  );
+  assert.ok(chartTop < termsTop, 'the chart first');
+  await page.reload();
+  await until(page, () => document.body.classList.contains('presenting'));
+  await page.uncheck('#present-view');
+  assert.ok(await visible('[data-result="premium"]'));
   await page.close();
 });
 

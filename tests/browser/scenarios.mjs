@@ -237,9 +237,18 @@ export function coreScenarios(name) {
         terms: document.getElementById('terms').getClientRects().length > 0,
       }));
       assert.deepEqual(shown, { sheet: true, terms: false });
-      for (const phrase of ['Indicative only', 'not an offer', 'not investment advice', 'sales rules', 'Engine'])
+      for (const phrase of [
+        'Indicative only',
+        'not an offer',
+        'not investment advice',
+        'sales rules',
+        'Indicative until',
+      ])
         assert.ok(sheet.includes(phrase), `the sheet lacks "${phrase}"`);
-      assert.match(sheet, /Premium per unit\s+3\.0822/);
+      // the client sheet by default: the price, never the desk's Greeks or lattice
+      assert.match(sheet, /Indicative price per unit\s+3\.0822/);
+      for (const deskOnly of ['Engine', 'Position delta', 'Lattice error', 'INTERNAL'])
+        assert.ok(!sheet.includes(deskOnly), `the client sheet shows "${deskOnly}"`);
       await tab.printMedia(false);
       const pdf = await tab.pdf(); // null where the engine's driver cannot print (WebKit)
       if (pdf) {

@@ -143,3 +143,46 @@ TEST_CASE("a quote without a currency still prices (client name only)", "[quote]
     CHECK(r["client_price"]["currency"].is_null());
     CHECK(r["client_price"]["client"] == "Kestrel Harbour Foods");
 }
+
+TEST_CASE("the sheet's terms and the holding ride along; the price ignores the holding", "[quote]") {
+    json terms{{"margin", 0.05},
+               {"two_way", true},
+               {"label", "One-year put"},
+               {"prepared_by", "Mara Lindqvist"},
+               {"contact", "+44 20 7946 0321"},
+               {"indicative_until", "2026-12-02T17:00+01:00"}};
+    const json plain = run_command("price", doc_with(terms));
+    terms["holding"] = {{"shares", 150000}};
+    const json r = run_command("price", doc_with(terms));
+    const json& cp = r["client_price"];
+    CHECK(cp["two_way"] == true);
+    CHECK(cp["label"] == "One-year put");
+    CHECK(cp["prepared_by"] == "Mara Lindqvist");
+    CHECK(cp["contact"] == "+44 20 7946 0321");
+    CHECK(cp["indicative_until"] == "2026-12-02T17:00+01:00");
+    CHECK(cp["holding"]["shares"] == 150000);
+    // Regression: a share leg once turned the client price into the share price; a holding never does.
+    CHECK(cp["per_unit"] == plain["client_price"]["per_unit"]);
+    CHECK(cp["spread"].get<double>() == Approx(0.1));
+    // The client's break-even is at the offer (strike - offer), not at the mid.
+    CHECK(cp["at_expiry"]["break_even"]["points"][0].get<double>() == Approx(34 - cp["per_unit"].get<double>()));
+    CHECK(cp["at_expiry"]["break_even_with_holding"]["points"][0].get<double>() ==
+          Approx(36.4 + cp["per_unit"].get<double>()));
+    CHECK(cp["outcomes"].size() == default_outcome_moves.size());
+}
+
+TEST_CASE("the sheet's terms and the holding are checked and named", "[quote]") {
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"two_way", "yes"}})),
+                      "quote.two_way: must be true or false, got string \"yes\"");
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"indicative_until", "tomorrow 5pm"}})),
+                      Catch::Contains("quote.indicative_until: must be a date YYYY-MM-DD or a date and time"));
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"indicative_until", "2026-12-02T25:00"}})),
+                      Catch::Contains("quote.indicative_until: must be a date YYYY-MM-DD"));
+    CHECK_NOTHROW(run_command("price", doc_with({{"indicative_until", "2026-12-02"}})));
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"holding", {{"shares", -5}}}})),
+                      "quote.holding.shares: must be > 0, got -5");
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"holding", {{"shares", 5}, {"cash", 1}}}})),
+                      Catch::StartsWith("quote.holding.cash: unknown field"));
+    CHECK_THROWS_WITH(run_command("price", doc_with({{"contact", "line\nbreak"}})),
+                      Catch::StartsWith("quote.contact: must be plain text without control characters"));
+}

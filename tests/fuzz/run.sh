@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
-# Build the libFuzzer target with clang (build/fuzz, ASan + UBSan) and fuzz every
-# command.
+# Build the libFuzzer target (clang, ASan + UBSan: the "sanitize" preset, which builds it
+# beside the sanitizer tests from the same instrumented core) and fuzz every command.
 #
 #   bash tests/fuzz/run.sh replay               the test command's step: deterministic
 #   bash tests/fuzz/run.sh [SECONDS] [flags...]  open-ended fuzzing (default 60 s)
@@ -16,19 +16,20 @@
 # libFuzzer's (0 = clean).
 set -euo pipefail
 root=$(cd "$(dirname "$0")/../.." && pwd)
-build=$root/build/fuzz
+build=$root/build/fuzz  # seeds, corpus and reproducers
 limit=${1:-60}
 shift || true
 
-# -O1 -g1: quick to compile under the sanitizers, line numbers in reports.
-cmake -S "$root" -B "$build" -DCMAKE_CXX_COMPILER=clang++ -DCMAKE_BUILD_TYPE=Debug -DCMAKE_CXX_FLAGS_DEBUG="-O1 -g1" \
-      -DHEDGELEAF_FUZZ=ON -DHEDGELEAF_TESTS=OFF -DHEDGELEAF_BENCH=OFF >/dev/null
-cmake --build "$build" --target trade_fuzz -j2 >/dev/null
+# The target from the "sanitize" preset (build/sanitize; nothing to do when the test command
+# has just built it there).
+(cd "$root" && cmake --preset sanitize >/dev/null && cmake --build build/sanitize --target trade_fuzz -j2 >/dev/null)
+fuzzer=$root/build/sanitize/trade_fuzz
+mkdir -p "$build"
 
 # Seeds: "<command>\n<document>" for every command and every example document.
 seeds=$build/seeds
 rm -rf "$seeds"; mkdir -p "$seeds" "$build/corpus" "$build/artifacts"
-commands=$(HEDGELEAF_FUZZ_LIST_COMMANDS=1 "$build/trade_fuzz")
+commands=$(HEDGELEAF_FUZZ_LIST_COMMANDS=1 "$fuzzer")
 n=0
 for doc in "$root"/examples/*.json "$root"/tests/fuzz/seeds/*.json; do
     [ -f "$doc" ] || continue
@@ -52,6 +53,6 @@ if [ "$limit" = replay ]; then
     rm -rf "$fresh"; mkdir -p "$fresh"
     fixed=()  # where the kernel refuses setarch -R, the replay still runs (addresses may then vary)
     if setarch "$(uname -m)" -R true 2>/dev/null; then fixed=(setarch "$(uname -m)" -R); fi
-    exec "${fixed[@]}" ./trade_fuzz "$fresh" "$seeds" "${common[@]}" -timeout=20 -seed=1 -runs=20000 -use_cmp=0 "$@"
+    exec "${fixed[@]}" "$fuzzer" "$fresh" "$seeds" "${common[@]}" -timeout=20 -seed=1 -runs=20000 -use_cmp=0 "$@"
 fi
-exec ./trade_fuzz "$build/corpus" "$seeds" "${common[@]}" -timeout=5 -max_total_time="$limit" "$@"
+exec "$fuzzer" "$build/corpus" "$seeds" "${common[@]}" -timeout=5 -max_total_time="$limit" "$@"

@@ -27,7 +27,9 @@ export function goldenRuns() {
     .filter((f) => f.endsWith('.json'))
     .sort()) {
     const text = readFileSync(join(root, 'examples', file), 'utf8');
-    for (const command of spec.example_commands) out.push({ key: `${file.slice(0, -5)}.${command}`, command, text });
+    // A comparison document (several trades) is the compare command's alone.
+    const commands = 'comparison' in JSON.parse(text) ? spec.comparison_commands : spec.example_commands;
+    for (const command of commands) out.push({ key: `${file.slice(0, -5)}.${command}`, command, text });
   }
   for (const c of spec.cases) {
     const text = c.doc ? JSON.stringify(c.doc) : expand(c.text);

@@ -37,7 +37,9 @@ def runs(root):
     spec = json.loads((HERE / "cases.json").read_text())
     for path in sorted((root / "examples").glob("*.json")):
         formats = spec["example_formats"].get(path.name, {})
-        for command in spec["example_commands"]:
+        # A comparison document (several trades) is the compare command's alone.
+        is_comparison = "comparison" in json.loads(path.read_text())
+        for command in spec["comparison_commands"] if is_comparison else spec["example_commands"]:
             for fmt in ["json"] + formats.get(command, []):
                 yield path.stem, command, fmt, str(path), None
     for case in spec["cases"]:

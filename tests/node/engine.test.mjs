@@ -27,8 +27,9 @@ const examples = readdirSync(join(root, 'examples'))
   .sort();
 const readExample = (name) => readFileSync(join(root, 'examples', name), 'utf8');
 
-/** Commands that apply to an example: price always, a section's own command when it has one. */
+/** Commands that apply to an example: price always, a section's own command when it has one; compare for a comparison. */
 function commandsFor(doc) {
+  if (doc.comparison) return ['compare']; // several trades side by side
   const own = {
     hedge: ['hedge', 'tree'],
     simulate: ['simulate'],

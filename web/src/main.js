@@ -82,6 +82,41 @@ function fillForm() {
   bindControls();
 }
 
+/**
+ * The printed sheet is the client's unless the internal switch is on; the choice is the desk's
+ * and is remembered in this browser (never in the trade file, so a shared trade prints client-safe).
+ */
+function wireInternalSwitch() {
+  rememberedSwitch('sheet-internal', 'hedgeleaf.sheet.internal', () => {
+    if (state.price) cycle.refreshSheet(structuredClone(state.doc), state.price);
+  });
+}
+
+/** A checkbox the desk sets once for this browser (never in the trade file); `apply` runs on every change. */
+function rememberedSwitch(id, key, apply) {
+  const store = browserStore('localStorage');
+  const box = byId(id);
+  try {
+    box.checked = store?.getItem(key) === 'on';
+  } catch {
+    box.checked = false;
+  }
+  box.addEventListener('change', () => {
+    try {
+      store?.setItem(key, box.checked ? 'on' : 'off');
+    } catch {
+      // storage switched off or full: the switch still applies to this page
+    }
+    apply(box.checked);
+  });
+  apply(box.checked);
+}
+
+/** Show to client: the presentation view (larger type, the desk's figures hidden), remembered. */
+function wirePresentSwitch() {
+  rememberedSwitch('present-view', 'hedgeleaf.view.present', (on) => document.body.classList.toggle('presenting', on));
+}
+
 async function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
@@ -130,6 +165,8 @@ async function start() {
   if (first.keep) files.keep(); // a link's trade is kept at once, not only once edited
   if (first.figures) cycle.showKept(first.figures);
   if (first.fresh && !first.message) recent.offerLatest();
+  wireInternalSwitch();
+  wirePresentSwitch();
   byId('action-print').addEventListener('click', () => window.print());
   window.addEventListener(
     'beforeprint',

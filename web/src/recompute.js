@@ -12,7 +12,8 @@ import { Cancelled, started } from './compute.js';
 import { EngineError } from './engine.js';
 import { clearErrors, pageProblems, setStale, showError, showFailure, showPageProblems } from './messages.js';
 import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
-import { renderPrice, renderSheet, setResult } from './render.js';
+import { renderPrice, setResult } from './render.js';
+import { renderSheet } from './sheet.js';
 import { fingerprint } from './share.js';
 
 const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
@@ -195,6 +196,7 @@ async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(
     fingerprint: code,
     valuedAt,
     currency: typeof doc.quote?.currency === 'string' ? doc.quote.currency : '',
+    internal: document.getElementById('sheet-internal')?.checked === true,
   });
   setResult('fingerprint', code ?? '–');
 }

@@ -3,7 +3,7 @@
 // Every figure is written into elements marked data-result="<name>" (text for
 // people, data-value with the engine's number in file units for automation;
 // see docs/page contract). Text only ever goes in through textContent.
-import { byId, tableRow } from './dom.js';
+import { byId } from './dom.js';
 import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
 
@@ -100,7 +100,7 @@ export function describeContract(doc) {
   return `${legs.length}-leg structure`;
 }
 
-function expiryText(doc, result) {
+export function expiryText(doc, result) {
   const e = contractExpiry(doc);
   const years = result ? `${formatNumber(result.expiry_years, 2)} y` : '';
   return e.expiry_date ? `${e.expiry_date} (${years})` : years;
@@ -135,6 +135,11 @@ function writeFigures(doc, r, set) {
 
   const cp = r.client_price;
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
+  for (const node of document.querySelectorAll('.two-way')) node.hidden = !cp?.two_way;
+  if (cp?.two_way) {
+    const side = (x) => formatNumber(x, perUnitDigitsOf(x));
+    set('bid-offer', `${side(cp.bid.per_unit)} / ${side(cp.offer.per_unit)}`, cp.offer.per_unit);
+  }
   if (cp) {
     set(
       'client-price',
@@ -216,76 +221,4 @@ function replicationLine(rep, spotDigits, premium, sumDigits) {
   const total = scaledText(sum, sumDigits);
   const line = `Δ·S + B = ${scaledText(shares, d)} × ${scaledText(spot, spotDigits)} + ${scaledText(cash, d)} = ${total}`;
   return total === premiumText ? `${line} = premium` : `${line} ≈ premium ${premiumText} (rounding)`;
-}
-
-/** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
-function rows(table, entries) {
-  table.replaceChildren(
-    ...entries.map(([label, value, name]) => {
-      const tr = tableRow([label, value]);
-      if (name) tr.cells[1].dataset.sheet = name;
-      return tr;
-    }),
-  );
-}
-
-/** Fill the print-only quote sheet. */
-export function renderSheet(doc, r, { fingerprint, valuedAt, currency }) {
-  const ccy = currency ? ` ${currency}` : '';
-  const m = doc.market || {};
-  const q = r.position.quantity;
-  const quote = doc.quote && typeof doc.quote === 'object' ? doc.quote : {};
-  const terms = [];
-  if (typeof quote.client === 'string') terms.push(['Client', quote.client]);
-  terms.push(['Contract', describeContract(doc)]);
-  terms.push(['Client side', r.position.side === 'sell' ? 'sells' : 'buys']);
-  terms.push(['Quantity', inputText(q)]);
-  terms.push(['Expiry', expiryText(doc, r)]);
-  terms.push(['Spot', `${typeof m.spot === 'number' ? priceText(doc, m.spot) : '–'}${ccy}`]);
-  terms.push(['Volatility', formatPercent(m.volatility, 2)]);
-  terms.push(['Interest rate', formatPercent(m.rate, 2)]);
-  terms.push(['Dividend yield', formatPercent(m.carry_yield ?? 0, 2)]);
-  if (Array.isArray(m.dividends) && m.dividends.length) {
-    terms.push([
-      'Cash dividends',
-      m.dividends.map((d) => `${d.date ?? `${d.time_years} y`}: ${inputText(d.amount)}`).join('; '),
-    ]);
-  }
-  rows(byId('sheet-terms'), terms);
-
-  const figures = [
-    ['Premium per unit', `${formatNumber(r.premium, 4)}${ccy}`],
-    ['Premium in total', `${formatNumber(q * r.premium, 2)}${ccy}`],
-    ['Premium, % of spot', formatPercent(r.premium / r.spot, 2)],
-  ];
-  if (r.client_price) {
-    const cp = r.client_price;
-    figures.push([`Client price per unit (${cp.client_side})`, `${formatNumber(cp.per_unit, 4)}${ccy}`]);
-    figures.push(['Client price in total', `${formatNumber(cp.total, 2)}${ccy}`]);
-    figures.push(['Client price, % of notional', formatPercent(cp.fraction_of_notional, 2)]);
-  }
-  figures.push(['Delta per unit', formatNumber(r.greeks.delta, 4)]);
-  figures.push(['Position delta (shares)', formatNumber(r.position.greeks.delta, 2)]);
-  figures.push(['Vega per vol point, position', `${formatNumber(r.position.greeks.vega / 100, 2)}${ccy}`]);
-  figures.push(['Theta per day, position', `${formatNumber(r.position.greeks.theta / 365, 2)}${ccy}`]);
-  figures.push(['European closed-form value', formatNumber(r.closed_form.premium, 4)]);
-  if (r.early_exercise_premium !== null)
-    figures.push(['Early-exercise premium', formatNumber(r.early_exercise_premium, 4)]);
-  figures.push(['Lattice error estimate', `± ${formatSmart(r.lattice.error_estimate, 2, 4)}`]);
-  rows(byId('sheet-figures'), figures);
-
-  byId('sheet-notes').textContent = typeof quote.notes === 'string' ? quote.notes : '';
-  rows(byId('sheet-meta'), [
-    ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
-    ['Valued at', valuedAt],
-    [
-      'Engine',
-      `Hedgeleaf ${r.engine_version}, ${methodName(r.lattice.method)} lattice, ${inputText(r.lattice.steps)} steps`,
-    ],
-    [
-      'Input fingerprint',
-      fingerprint ? `${fingerprint} (first 12 hex digits of the SHA-256 of the saved trade file)` : '–',
-      'fingerprint',
-    ],
-  ]);
 }
