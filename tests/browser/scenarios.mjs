@@ -293,7 +293,7 @@ export function coreScenarios(name) {
           document.querySelector('[data-result="solve-solution"]') &&
           !('computing' in document.body.dataset),
         undefined,
-        30000,
+        60000, // WebKit's simulation of 2,000 paths once took over 30 s on a loaded 2-core machine
       );
       await tab.evaluate(() => {
         for (const details of document.querySelectorAll('details')) details.open = true;
