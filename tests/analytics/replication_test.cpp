@@ -101,6 +101,7 @@ void check_paths(const trade& t, int steps) {
         for (const auto& ps : walk) {
             if (ps.node.event == node_event::early_exercise) ++exercised;
             CHECK(close(ps.carried, ps.node.value, std::max(previous_scale, std::fabs(ps.node.value))));
+            if (ps.node.step == steps) break;  // expiry: no step after it (lat.step(steps) is out of range)
             previous_scale =
                 std::fabs(ps.node.shares * ps.node.spot) + std::fabs(ps.node.cash / lat.step(ps.node.step).discount);
         }
