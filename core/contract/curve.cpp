@@ -54,26 +54,29 @@ double curve::discount(double from, double to) const {
     return std::exp(integral(from) - integral(to));
 }
 
+namespace {
+/// The forward rates of the pieces between knots (r·t linear between (0, 0) and each knot)
+/// and of the tail beyond the last, folded into one by `pick` (std::min or std::max).
+template <class Pick>
+double fold_forwards(const std::vector<double>& years, const std::vector<double>& integrals, double tail, Pick pick) {
+    double folded = tail, before = 0, at = 0;
+    for (std::size_t i = 0; i < years.size(); ++i) {
+        folded = pick(folded, (integrals[i] - at) / (years[i] - before));
+        before = years[i];
+        at = integrals[i];
+    }
+    return folded;
+}
+}  // namespace
+
 double curve::lowest_forward() const {
     if (is_flat()) return flat_;
-    double lowest = tail_, before = 0, at = 0;
-    for (std::size_t i = 0; i < years_.size(); ++i) {
-        lowest = std::min(lowest, (integrals_[i] - at) / (years_[i] - before));
-        before = years_[i];
-        at = integrals_[i];
-    }
-    return lowest;
+    return fold_forwards(years_, integrals_, tail_, [](double a, double b) { return std::min(a, b); });
 }
 
 double curve::highest_forward() const {
     if (is_flat()) return flat_;
-    double highest = tail_, before = 0, at = 0;
-    for (std::size_t i = 0; i < years_.size(); ++i) {
-        highest = std::max(highest, (integrals_[i] - at) / (years_[i] - before));
-        before = years_[i];
-        at = integrals_[i];
-    }
-    return highest;
+    return fold_forwards(years_, integrals_, tail_, [](double a, double b) { return std::max(a, b); });
 }
 
 curve curve::shifted(double shift) const {
