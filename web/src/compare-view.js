@@ -106,11 +106,16 @@ export function drawComparison(table, chart, result, doc, height = 280) {
   const shares = result.rows.find((r) => r.holding_shares)?.holding_shares;
   setText(key, held ? `† with the ${formatNumber(shares, 0)} shares the client holds (not part of the price)` : '');
   const horizon = result.alternatives[0]?.at_expiry.horizon_date;
+  // totals in the hundreds of thousands read better, and fit the axis, in thousands
+  const largest = Math.max(...series.flatMap((s) => s.points.map((p) => Math.abs(p[1]))));
+  const thousands = largest >= 1e5;
+  if (thousands) for (const s of series) s.points = s.points.map(([x, y]) => [x, y / 1000]);
+  const unit = `${thousands ? ' thousand' : ''}${result.currency ? ` ${result.currency}` : ''}`;
   drawChart(chart, {
     series,
     marks: [{ x: result.spot, label: `spot ${priceText(doc.comparison.alternatives[0], result.spot)}`, kind: 'spot' }],
     xLabel: `Spot at expiry${horizon ? ` (${formatDate(horizon)})` : ''}`,
-    yLabel: `Client P&L${held ? ' with the shares' : ''}${result.currency ? `, ${result.currency}` : ''}`,
+    yLabel: `Client P&L${held ? ' with the shares' : ''}${unit ? `,${unit}` : ''}`,
     height,
   });
 }
