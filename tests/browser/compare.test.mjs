@@ -162,6 +162,26 @@ test('a comparison of three ways to protect a holding: figures, sheets, locale, 
     assert.ok(internal.text.includes(phrase), `the internal sheet lacks "${phrase}"`);
   await page.uncheck('#sheet-internal');
 
+  // The scenario table at the client price: at today's spot the client is down by the desk's margin
+  // (common practice: the client pays the model value plus the margin), within the coarser ladder
+  // lattice's difference; with the shares held the same at today's spot.
+  await page.click('#ladder-card > summary');
+  const ladder = await until(page, () => {
+    const t = document.querySelector('table[data-result="ladder"]');
+    if (!t?.tHead || document.getElementById('ladder-card').classList.contains('stale')) return null;
+    const head = [...t.tHead.rows[0].cells].map((c) => c.textContent);
+    const today = [...t.tBodies[0].rows].find((r) => /^\+0(\.0)? %$/.test(r.cells[1].textContent));
+    return today && { head, today: [...today.cells].map((c) => c.textContent) };
+  });
+  const column = ladder.head.indexOf('Client P&L at the client price EUR');
+  assert.ok(column > 0, `scenario head ${ladder.head}`);
+  assert.equal(ladder.head[column + 1], 'Client P&L with the shares held EUR');
+  const margin = Number(await page.getAttribute('[data-result="desk-margin-total"]', 'data-value'));
+  const clientToday = Number(ladder.today[column].replace(/[,\u2212]/g, (c) => (c === ',' ? '' : '-')));
+  assert.ok(Math.abs(clientToday + margin) < 150000 * 0.005, `client P&L today ${clientToday}, margin ${margin}`);
+  assert.equal(ladder.today[column + 1], ladder.today[column]);
+  await page.click('#ladder-card > summary');
+
   // A decimal comma: on screen, in the typed numbers and on the sheet; the saved file stays neutral.
   await page.selectOption('#number-format', 'de-DE');
   await settled(page);

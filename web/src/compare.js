@@ -201,7 +201,8 @@ export function comparisonPanel({ state, desk, refill, changed, setStale }) {
   async function update(generation, pending) {
     render();
     if (!pending) {
-      last = null;
+      last = null; // no comparison: nothing of one may stay, greyed
+      setStale(['compare'], false);
       return;
     }
     try {

@@ -9,19 +9,8 @@ import { setPageLocale } from './numbers.js';
 
 const storeKey = 'hedgeleaf.locale';
 
-/** The locales offered: [tag, name]; '' is the browser's own. */
-const offered = [
-  ['', 'This browser’s'],
-  ['en-GB', 'English (UK)'],
-  ['en-US', 'English (US)'],
-  ['de-DE', 'German'],
-  ['fr-FR', 'French'],
-  ['de-CH', 'Swiss German'],
-  ['it-IT', 'Italian'],
-  ['es-ES', 'Spanish'],
-  ['nl-NL', 'Dutch'],
-  ['ja-JP', 'Japanese'],
-];
+/** The locales offered, each writing numbers or dates its own way; '' is the browser's own. */
+const offered = ['', 'en-GB', 'en-US', 'de-DE', 'fr-FR', 'de-CH', 'nl-NL', 'ja-JP'];
 
 /** "1,234.56 · 31/12/2027" in `tag` (the browser's locale for ''). */
 function example(tag) {
@@ -49,9 +38,12 @@ export function localePicker({ store, redraw }) {
   } catch {
     kept = '';
   }
-  if (!offered.some(([tag]) => tag === kept)) kept = '';
+  if (!offered.includes(kept)) kept = '';
+  const browser = new Intl.NumberFormat().resolvedOptions().locale;
   picker.replaceChildren(
-    ...offered.map(([tag, name]) => make('option', { value: tag, text: `${name}: ${example(tag)}` })),
+    ...offered.map((tag) =>
+      make('option', { value: tag, text: tag ? `${example(tag)} (${tag})` : `As this browser (${browser})` }),
+    ),
   );
   picker.value = kept;
   setPageLocale(kept || null);

@@ -128,7 +128,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
     const schedule = await hedge.update(doc, price, generation, calls.hedging);
-    await ladder.update(generation, calls.laddering);
+    await ladder.update(generation, calls.laddering, price);
     await solve.update(generation, calls.solving, price);
     await compare.update(generation, calls.comparing);
     simulate.update(doc, price);
