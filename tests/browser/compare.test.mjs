@@ -38,11 +38,11 @@ function pdfText(pdf, name) {
   return { text: text.replace(/[ \t]+/g, ' '), pages };
 }
 
-/** Print the page as it is now (A4) and read it back. */
-async function printed(page, name) {
+/** Print the page as it is now (A4 or Letter) and read it back. */
+async function printed(page, name, format = 'A4') {
   await page.emulateMedia({ media: 'print' });
   await page.evaluate(() => window.dispatchEvent(new Event('beforeprint')));
-  const read = pdfText(await page.pdf({ format: 'A4' }), name);
+  const read = pdfText(await page.pdf({ format }), name);
   await page.emulateMedia({ media: 'screen' });
   return read;
 }
@@ -128,6 +128,7 @@ test('a comparison of three ways to protect a holding: figures, sheets, locale, 
   await page.evaluate(() => (document.body.dataset.print = 'comparison'));
   const sheet = await printed(page, 'comparison');
   assert.equal(sheet.pages, 1, 'three alternatives print on one page');
+  assert.equal((await printed(page, 'comparison-letter', 'Letter')).pages, 1, 'and on one Letter page');
   for (const phrase of [
     'Kestrel Harbour Foods',
     'Indicative until 02/12/2026 17:00Z',
