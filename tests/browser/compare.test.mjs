@@ -15,10 +15,10 @@ import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { after, before, test } from 'node:test';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 
 import { loadEngine } from '../../web/src/engine.js';
-import { chromiumForFile, offlineContext, openPage, settled, until } from './harness.mjs';
+import { chromiumForFile, offlineContext, openPage, pageUnderTest, settled, until } from './harness.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const examplePath = join(root, 'examples/protect-a-holding.json');
@@ -220,6 +220,18 @@ test('a comparison of three ways to protect a holding: figures, sheets, locale, 
   });
   await settled(fresh);
   assert.deepEqual(await saved(fresh), file, 'reopened identical');
+  // Copy link and Save page with trade carry the same document
+  const link = `${pageUnderTest().url}#trade=${Buffer.from(JSON.stringify(file)).toString('base64url')}`;
+  const linked = await openPage(await offlineContext(await run.ready()), link, problems);
+  await settled(linked);
+  assert.deepEqual(await saved(linked), file, 'a link reopens identical');
+  const [copy] = await Promise.all([linked.waitForEvent('download'), linked.click('#action-copy-page')]);
+  const copyPath = join(work, 'copy.html');
+  await copy.saveAs(copyPath);
+  const reopened = await openPage(await offlineContext(await run.ready()), pathToFileURL(copyPath).href, problems);
+  await settled(reopened);
+  assert.deepEqual(await saved(reopened), file, 'a saved page copy reopens identical');
+  assert.equal(await reopened.locator('#compare-list li').count(), 3);
   // the draft is in the editor, refused beside its field, as typed
   assert.equal(await fresh.inputValue('[data-path="market.spot"]'), '36,4x');
   assert.match(await until(fresh, () => document.querySelector('[data-error="market.spot"]')?.textContent), /Spot/);
