@@ -232,6 +232,14 @@ test('a comparison of three ways to protect a holding: figures, sheets, locale, 
   await settled(reopened);
   assert.deepEqual(await saved(reopened), file, 'a saved page copy reopens identical');
   assert.equal(await reopened.locator('#compare-list li').count(), 3);
+  // A three-leg structure's client sheet: every leg, on one page
+  await reopened.fill('[data-path="market.spot"]', '36.4');
+  await reopened.selectOption('#shape', 'seagull');
+  await settled(reopened);
+  const seagull = await printed(reopened, 'seagull-client');
+  assert.equal(seagull.pages, 1, 'a three-leg client sheet fits one page');
+  assert.equal(seagull.text.match(/Client (buys|sells) (Put|Call) \d/g)?.length, 3, seagull.text);
+  for (const phrase of deskOnly) assert.ok(!seagull.text.includes(phrase), `the client sheet shows "${phrase}"`);
   // the draft is in the editor, refused beside its field, as typed
   assert.equal(await fresh.inputValue('[data-path="market.spot"]'), '36,4x');
   assert.match(await until(fresh, () => document.querySelector('[data-error="market.spot"]')?.textContent), /Spot/);
