@@ -212,6 +212,8 @@ test('a comparison of three ways to protect a holding: figures, sheets, locale, 
   await settled(page);
   assert.deepEqual(await saved(page), file, 'reloaded identical');
   assert.equal(await page.inputValue('[data-path="market.spot"]'), '36,4x');
+  assert.equal(await page.inputValue('#number-format'), 'de-DE', 'the number format is remembered');
+  assert.equal(await page.inputValue('[data-path="quantity"]'), '150.000');
   const fresh = await openPage(await offlineContext(await run.ready()), undefined, problems);
   await fresh.setInputFiles('#import-file', {
     name: 'saved.json',
