@@ -94,6 +94,7 @@ export function comparisonPanel({ state, desk, refill, changed, setStale }) {
     state.doc = alternatives()[i];
     refill();
     changed(0);
+    byId('terms').querySelector('input:not([hidden])')?.focus({ preventScroll: true }); // the editor has it now
   }
 
   /** Show alternative `i` in the editor; what was typed in the one there stays in it. */
@@ -152,12 +153,17 @@ export function comparisonPanel({ state, desk, refill, changed, setStale }) {
     byId('compare-start').hidden = open;
     for (const node of card.querySelectorAll('.compare-open')) node.hidden = !open;
     if (!open) {
+      delete list.dataset.key;
       list.replaceChildren();
       byId('compare-output').hidden = true;
       return;
     }
     const doc = state.comparison.doc.comparison;
     if (title.value !== (doc.title ?? '')) title.value = typeof doc.title === 'string' ? doc.title : '';
+    // drawn again only when a name or the one in the editor changes, so a recompute keeps the focus
+    const key = JSON.stringify([state.comparison.editing, ...alternatives().map(alternativeLabel)]);
+    if (list.dataset.key === key) return;
+    list.dataset.key = key;
     list.replaceChildren(
       ...alternatives().map((alt, i) => {
         const name = alternativeLabel(alt, i);
