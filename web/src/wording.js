@@ -41,9 +41,9 @@ export function fieldName(input) {
 }
 
 // The engine's usual shapes after "<path>: must be ": "> 0, got -0.2", ">= -0.95 (a note), got -1.2",
-// "between 0 and 2, got 5". Short engine text, so these plain patterns cannot run long.
+// "between 0 and 2, got 5", "between 1e-06 and 1e+09 (a note), got 1e-20". Short engine text, so these plain patterns cannot run long.
 const oneSided = /^must be (>=|<=|>|<) (-?[\d.e+-]+)( \([^)]*\))?, got (-?[\d.e+-]+)$/;
-const between = /^must be between (-?[\d.e+-]+) and (-?[\d.e+-]+), got (-?[\d.e+-]+)$/;
+const between = /^must be between (-?[\d.e+-]+) and (-?[\d.e+-]+)( \([^)]*\))?, got (-?[\d.e+-]+)$/;
 
 /**
  * The refusal of `field` (the engine's `message` and optional `detail` = {value, limit, relation})
@@ -68,8 +68,9 @@ export function screenMessage(input, field, message, detail) {
   }
   const range = between.exec(rest);
   if (range) {
-    const [low, high, value] = range.slice(1).map(Number);
-    return `${name} must be between ${unit.show(low)} and ${unit.show(high)}, got ${unit.show(value)}`;
+    const [, low, high, note = '', value] = range;
+    const tail = unit.converts ? '' : note;
+    return `${name} must be between ${unit.show(Number(low))} and ${unit.show(Number(high))}${tail}, got ${unit.show(Number(value))}`;
   }
   return `${name}: ${input.dataset.kind === 'index' ? screenNote(rest).replace(fromZero, fromOne) : rest}`;
 }
