@@ -15,8 +15,9 @@ say() { printf '\n== %s\n' "$*"; }
 install_packages() {
     # The browser tests drive three engines: chromium; firefox-esr (WebDriver BiDi);
     # WebKitGTK's MiniBrowser (webkit2gtk-driver brings it and WebKitWebDriver) under xvfb.
+    # poppler-utils: pdftotext and pdfinfo read the printed sheets back (tests/browser/compare.test.mjs).
     local wanted=(cmake g++ make emscripten nlohmann-json3-dev catch2 libboost-dev chromium
-                  firefox-esr webkit2gtk-driver xvfb
+                  firefox-esr webkit2gtk-driver xvfb poppler-utils
                   clang libclang-rt-14-dev clang-format python3 python3-scipy python3-mpmath python3-jsonschema)
     local missing=()
     for p in "${wanted[@]}"; do dpkg -s "$p" >/dev/null 2>&1 || missing+=("$p"); done

@@ -158,6 +158,9 @@ test('the print view is the client sheet, with the cautions; client text stays t
   assert.ok(await sheet.isVisible());
   assert.ok(!(await page.locator('#terms').isVisible()));
   const text = (await sheet.innerText()).replace(/\s+/g, ' '); // cells and lines as single spaces
+  // the date in the browser's own order (no format picked here), the time of day as typed
+  const language = await page.evaluate(() => navigator.language);
+  const day = new Intl.DateTimeFormat(language, { day: '2-digit', month: '2-digit', year: 'numeric', timeZone: 'UTC' });
   for (const phrase of [
     'Indicative only',
     'not an offer',
@@ -167,7 +170,7 @@ test('the print view is the client sheet, with the cautions; client text stays t
     'sales rules',
     'Input fingerprint',
     'Valued at',
-    'Indicative until 2026-12-02T17:00Z',
+    `Indicative until ${day.format(Date.UTC(2026, 11, 2))} 17:00Z`,
     'Prepared by Mara Lindqvist',
     'Desk contact +44 20 7946 0321',
     'The trade, leg by leg',

@@ -89,6 +89,22 @@ const timeRange = [
 // The fields each kind of move reads (the engine refuses the others: "ladder.spot_from: unknown field").
 const rangesOf = { spot: spotRange, volatility: volRange, time: timeRange, grid: [...spotRange, ...volRange] };
 
+/**
+ * The client's view of a ladder `r` when the trade has a client price (`price.client_price`): the
+ * ladder's P&L is against today's model value, the client's against the price the client pays or
+ * receives, so each position P&L moves by the side × quantity × (today's value − client price); the
+ * shares held add their change in value from today's spot. Null without a client price.
+ */
+function clientView(r, price) {
+  const cp = price?.client_price;
+  if (!cp) return null;
+  const sign = r.side === 'sell' ? -1 : 1;
+  const shift = sign * r.quantity * (r.today.value - cp.per_unit);
+  const shares = cp.holding?.shares ?? 0;
+  const pnl = (positionPnl) => positionPnl + shift;
+  return { shares, pnl, withShares: (row) => pnl(row.position_pnl) + shares * (row.spot - r.today.spot) };
+}
+
 /** The Scenarios card (`ladder` command). */
 export function ladderPanel({ live, state, showError, setStale, changed, bindControls }) {
   const elements = cardParts('ladder', state);
@@ -128,15 +144,24 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
     showControls(controls, parts, state.doc, bindControls);
   }
 
-  function draw(r) {
+  function draw(r, price) {
     const ccy = typeof state.doc.quote?.currency === 'string' ? ` ${state.doc.quote.currency}` : '';
+    const client = clientView(r, price);
     const per = (row) => [
       formatNumber(row.value, 4),
       formatNumber(row.pnl, 4),
       `${formatNumber(row.position_pnl, 0)}${ccy}`,
+      ...(client ? [formatNumber(client.pnl(row.position_pnl), 0)] : []),
+      ...(client?.shares && r.kind === 'spot' ? [formatNumber(client.withShares(row), 0)] : []),
     ];
     const greeks = (row) => [formatNumber(row.delta, 4), formatNumber(row.position_delta, 0)];
-    const tail = ['Value', 'P&L per unit', 'Position P&L'];
+    const tail = [
+      'Value',
+      'P&L per unit',
+      'Position P&L',
+      ...(client ? [`Client P&L at the client price${ccy}`] : []),
+      ...(client?.shares && r.kind === 'spot' ? [`Client P&L with the shares held${ccy}`] : []),
+    ];
     let lead = '';
     let head;
     let rows;
@@ -145,9 +170,11 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
       head = ['Spot \\ vol', ...g.vol_shifts.map((v) => formatPercent(r.today.volatility + v, 1))];
       rows = g.spot_shifts.map((s, i) => [
         `${priceText(state.doc, r.today.spot * (1 + s))} (${s >= 0 ? '+' : '−'}${formatNumber(Math.abs(s) * 100, 0)} %)`,
-        ...g.position_pnl[i].map((x) => formatNumber(x, 0)),
+        ...g.position_pnl[i].map((x) => formatNumber(client ? client.pnl(x) : x, 0)),
       ]);
-      lead = `Position P&L${ccy} against today, spot down the side, volatility across.`;
+      lead = client
+        ? `The client’s P&L${ccy} at the client price, spot down the side, volatility across.`
+        : `Position P&L${ccy} against today, spot down the side, volatility across.`;
     } else if (r.kind === 'time') {
       head = ['Day', 'Date', ...tail, 'Delta', 'Position delta'];
       rows = r.rows.map((row) => [

@@ -7,9 +7,10 @@ import { decimalText, groupedText, pageLocale, readNumber } from './numbers.js';
 
 const groups = new Map();
 function formatter(digits) {
-  if (!groups.has(digits)) {
+  const key = `${pageLocale()}|${digits}`;
+  if (!groups.has(key)) {
     groups.set(
-      digits,
+      key,
       new Intl.NumberFormat(pageLocale(), {
         minimumFractionDigits: digits,
         maximumFractionDigits: digits,
@@ -17,7 +18,52 @@ function formatter(digits) {
       }),
     );
   }
-  return groups.get(digits);
+  return groups.get(key);
+}
+
+const dateFormats = new Map();
+/** The locale's date format (day, month and year in its order), made once per locale and kind. */
+function dateFormat(withTime) {
+  const key = `${pageLocale()}|${withTime}`;
+  if (!dateFormats.has(key)) {
+    const time = withTime ? { hour: '2-digit', minute: '2-digit' } : { timeZone: 'UTC' };
+    dateFormats.set(
+      key,
+      new Intl.DateTimeFormat(pageLocale(), {
+        day: '2-digit',
+        month: '2-digit',
+        year: 'numeric',
+        ...time,
+        numberingSystem: 'latn',
+      }),
+    );
+  }
+  return dateFormats.get(key);
+}
+
+/** A file's date "2027-12-02" as the locale writes it (02/12/2027, 12/02/2027, 02.12.2027); other text as it is. */
+export function formatDate(iso) {
+  const match = typeof iso === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso) : null;
+  if (!match) return iso;
+  return dateFormat(false).format(Date.UTC(Number(match[1]), Number(match[2]) - 1, Number(match[3])));
+}
+
+/**
+ * A time the user typed ("2026-12-02T17:00Z", "2026-12-02"): its date in the locale's order, the
+ * time of day and zone as written. Null stays null; text that is no date stays as typed.
+ */
+export function formatWhen(text) {
+  if (typeof text !== 'string' || !text.trim()) return null;
+  const match = /^(\d{4}-\d{2}-\d{2})(?:[T ](.*))?$/.exec(text.trim());
+  if (!match) return text;
+  return match[2] ? `${formatDate(match[1])} ${match[2]}` : formatDate(match[1]);
+}
+
+/** A moment (the time a sheet is made) in the locale, with the computer's offset from UTC. */
+export function formatStamp(moment) {
+  const offset = -moment.getTimezoneOffset();
+  const hours = String(Math.abs(offset / 60)).padStart(2, '0');
+  return `${dateFormat(true).format(moment)} (UTC${offset >= 0 ? '+' : '−'}${hours})`;
 }
 
 /** 1234.5 -> "1,234.50"; null/NaN -> "–". */

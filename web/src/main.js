@@ -7,12 +7,14 @@
 // (messages.js). terms.js draws the terms form; saving.js moves the trade in
 // and out of the page; the cards (hedge.js, simulate.js, desk.js) get what they
 // use passed in here.
+import { comparisonPanel, openDocument } from './compare.js';
 import { EngineChannel, engineWorkers } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
 import { formatNumber } from './format.js';
 import { hedgePanel } from './hedge.js';
+import { localePicker } from './locale.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
 import { fillProfileRange } from './profile.js';
 import { recomputeCycle } from './recompute.js';
@@ -52,6 +54,7 @@ const hedge = hedgePanel({ ...shared, live: desk });
 const simulate = simulatePanel({ ...shared, makeWorker, mainThreadFactory, clearErrors });
 const ladder = ladderPanel({ ...shared, live: desk });
 const solve = solvePanel({ ...shared, live: desk, notice, refill: fillForm });
+const compare = comparisonPanel({ state, desk, refill: fillForm, changed, setStale });
 const cards = [hedge, simulate, ladder, solve];
 // Work is kept per tab and in a list of recent work (work.js).
 const work = workStore({
@@ -65,7 +68,7 @@ const cycle = recomputeCycle({
   state,
   live,
   desk,
-  cards: { hedge, ladder, solve, simulate },
+  cards: { hedge, ladder, solve, simulate, compare },
   save: () => files.keep(),
   keepFigures: (figures) => work.keepFigures(figures),
   scope,
@@ -79,6 +82,7 @@ function fillForm() {
   terms.fill();
   fillProfileRange(state.doc);
   for (const card of cards) card.render();
+  compare.render();
   bindControls();
 }
 
@@ -120,8 +124,9 @@ function wirePresentSwitch() {
 async function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
+  localePicker({ store: browserStore('localStorage'), redraw: () => (fillForm(), changed(0)) });
   const first = await openingTrade(state, work, live);
-  state.doc = first.doc;
+  openDocument(state, first.doc);
   // The price is asked for first, before the form is drawn, so that the engine worker
   // prices while this thread builds the page. The cards' calls wait for the price (on a
   // slow laptop they would compete with it for the cores: they show soon after it); the
@@ -139,6 +144,7 @@ async function start() {
   });
   if (first.figures) setUpCards();
   terms.fill();
+  compare.render();
   fillProfileRange(state.doc);
   bindControls();
   // The browser's number formats take some 30 ms to make the first time: make the two
@@ -160,6 +166,7 @@ async function start() {
   byId('terms').addEventListener('submit', (event) => event.preventDefault());
   terms.wire();
   files.wire();
+  compare.wire();
   recent.wire();
   if (first.message) notice(first.message.text, first.message.kind, null, first.message.topic);
   if (first.keep) files.keep(); // a link's trade is kept at once, not only once edited
@@ -168,10 +175,10 @@ async function start() {
   wireInternalSwitch();
   wirePresentSwitch();
   byId('action-print').addEventListener('click', () => window.print());
-  window.addEventListener(
-    'beforeprint',
-    () => state.price && cycle.refreshSheet(structuredClone(state.doc), state.price),
-  );
+  window.addEventListener('beforeprint', () => {
+    if (state.price) cycle.refreshSheet(structuredClone(state.doc), state.price);
+    compare.refreshSheet();
+  });
   document.body.classList.add('ready');
 }
 

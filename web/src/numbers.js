@@ -14,9 +14,28 @@ const spacing = new Set([' ', '\u00a0', '\u202f', '\u2009', "'", '\u2019', '_'])
 const isDigit = (c) => c >= '0' && c <= '9';
 
 let cachedLocale = null;
-/** The locale numbers are read and shown in: the browser's first language, else en-US. */
+let chosenLocale = null;
+
+/**
+ * Read and show numbers and dates as people in `locale` do (a BCP 47 tag the user picked, locale.js),
+ * or, for null, in the browser's language. Files, links and the engine stay in the neutral format.
+ */
+export function setPageLocale(locale) {
+  chosenLocale = locale;
+  cachedLocale = null;
+}
+
+/** The locale numbers are read and shown in: the one picked, else the browser's first language, else en-US. */
 export function pageLocale() {
   if (cachedLocale) return cachedLocale;
+  if (chosenLocale) {
+    try {
+      cachedLocale = Intl.NumberFormat.supportedLocalesOf([chosenLocale])[0] ?? null;
+    } catch {
+      cachedLocale = null;
+    }
+    if (cachedLocale) return cachedLocale;
+  }
   const wanted = globalThis.navigator?.languages?.[0] ?? globalThis.navigator?.language ?? 'en-US';
   try {
     cachedLocale = Intl.NumberFormat.supportedLocalesOf([wanted])[0] ?? 'en-US';

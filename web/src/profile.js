@@ -11,7 +11,7 @@ import { drawChart } from './chart.js';
 import { byId } from './dom.js';
 import { yearsBetween } from './dates.js';
 import { contractKey, fillInput } from './form.js';
-import { formatNumber } from './format.js';
+import { formatDate, formatNumber } from './format.js';
 import { priceText, setResult } from './render.js';
 
 /** The strikes of the trade as written. */
@@ -106,6 +106,22 @@ function cornersOf(price) {
   return expiries.size === 1 ? legs.map((l) => l.strike).filter((k) => typeof k === 'number') : [];
 }
 
+/**
+ * The client's shares with the trade at expiry, per unit of the trade: the trade's profit plus the
+ * shares' change in value from today's spot (as the engine counts a holding, never in the price),
+ * or null without a holding.
+ */
+function withHolding(price, atExpiry) {
+  const shares = price.client_price?.holding?.shares;
+  const q = price.position.quantity;
+  if (!(typeof shares === 'number' && shares !== 0 && q > 0)) return null;
+  return {
+    kind: 'holding',
+    label: `Profit at expiry with the ${formatNumber(shares, 0)} shares held`,
+    points: atExpiry.map(([x, y]) => [x, y + (shares / q) * (x - price.spot)]),
+  };
+}
+
 /** Draw the profile of `doc` (priced at `price`) in the card and on the quote sheet; show the break-evens. */
 export function drawProfile(doc, price, profile) {
   const sign = price.position.side === 'sell' ? -1 : 1;
@@ -116,6 +132,8 @@ export function drawProfile(doc, price, profile) {
     { kind: 'payoff', label: 'Profit at expiry', points: withCorners(atExpiry, cornersOf(price), evens) },
     { kind: 'value', label: 'Profit if valued today', points: rows.map((r) => [r.spot, sign * r.pnl_today]) },
   ];
+  const held = withHolding(price, series[0].points);
+  if (held) series.push(held);
   const [lo, hi] = [rows[0].spot, rows[rows.length - 1].spot];
   const spotText = (x) => priceText(doc, x);
   const marks = [{ x: price.spot, label: `spot ${spotText(price.spot)}`, kind: 'spot' }];
@@ -128,7 +146,7 @@ export function drawProfile(doc, price, profile) {
   for (const node of document.querySelectorAll('[data-result="break-even"]'))
     node.dataset.values = JSON.stringify(evens);
   const labels = {
-    xLabel: `Spot (expiry ${profile.horizon_date ?? `in ${formatNumber(profile.horizon_years, 2)} y`})`,
+    xLabel: `Spot (expiry ${profile.horizon_date ? formatDate(profile.horizon_date) : `in ${formatNumber(profile.horizon_years, 2)} y`})`,
     yLabel: 'Profit per unit',
   };
   drawChart(byId('profile-chart'), { series, marks, ...labels });

@@ -2,6 +2,7 @@
 // first, each with when it was last saved and a short description. Picking one brings it
 // back (the trade on screen can be brought back with Undo). A tab opened afresh points at
 // the latest work when it is not what the tab shows.
+import { comparisonTitle, isComparison } from './compare.js';
 import { byId } from './dom.js';
 import { inputText } from './format.js';
 import { notice } from './messages.js';
@@ -10,6 +11,7 @@ import { describeContract } from './render.js';
 
 /** "American put, strike 46 · spot 48.2 · Kestrel Mill": what a recent-work entry is. */
 export function describeWork(doc) {
+  if (isComparison(doc)) return `Side by side: ${comparisonTitle(doc)}`.slice(0, 120);
   const spot = typeof doc.market?.spot === 'number' ? ` · spot ${inputText(doc.market.spot)}` : '';
   const client =
     typeof doc.quote?.client === 'string' && doc.quote.client.trim() ? ` · ${doc.quote.client.trim()}` : '';

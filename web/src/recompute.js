@@ -15,8 +15,9 @@ import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
 import { renderPrice, setResult } from './render.js';
 import { renderSheet } from './sheet.js';
 import { fingerprint } from './share.js';
+import { formatStamp } from './format.js';
 
-const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
+const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate', 'compare'];
 
 /**
  * The cycle over `live` and `desk` (EngineChannel) for the cards {hedge, ladder, solve,
@@ -26,7 +27,7 @@ const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
  * to show figures kept from before a reload, and refreshSheet(doc, price) for the print view.
  */
 export function recomputeCycle({ state, live, desk, cards, save, keepFigures, scope }) {
-  const { hedge, ladder, solve, simulate } = cards;
+  const { hedge, ladder, solve, simulate, compare } = cards;
   let pending = false; // an edit waits for its recompute
   let timer = null;
   let busyTimer = null;
@@ -69,6 +70,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
       hedging: hedge.request(doc),
       laddering: ladder.request(doc),
       solving: solve.request(doc),
+      comparing: compare.request(doc),
       fingerprinting: fingerprint(doc).catch(() => null), // hashed by the browser while the engines run
     };
   }
@@ -126,8 +128,9 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
     const schedule = await hedge.update(doc, price, generation, calls.hedging);
-    await ladder.update(generation, calls.laddering);
+    await ladder.update(generation, calls.laddering, price);
     await solve.update(generation, calls.solving, price);
+    await compare.update(generation, calls.comparing);
     simulate.update(doc, price);
     if (!current()) return;
     caughtUp();
@@ -184,13 +187,9 @@ function renderCurrency(doc) {
   for (const node of document.querySelectorAll('.ccy')) node.textContent = ccy;
 }
 
-const clock = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
-
 /** Fill the print-only quote sheet for `doc` priced at `price`, stamped with the time now. */
 async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(() => null)) {
-  const stamp = new Date();
-  const offset = -stamp.getTimezoneOffset();
-  const valuedAt = `${clock.format(stamp)} (UTC${offset >= 0 ? '+' : '−'}${String(Math.abs(offset / 60)).padStart(2, '0')})`;
+  const valuedAt = formatStamp(new Date());
   const code = await fingerprinting;
   renderSheet(doc, price, {
     fingerprint: code,

@@ -4,7 +4,7 @@
 // people, data-value with the engine's number in file units for automation;
 // see docs/page contract). Text only ever goes in through textContent.
 import { byId } from './dom.js';
-import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
+import { formatDate, formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
 
 function writeFigure(nodes, text, value) {
@@ -103,7 +103,7 @@ export function describeContract(doc) {
 export function expiryText(doc, result) {
   const e = contractExpiry(doc);
   const years = result ? `${formatNumber(result.expiry_years, 2)} y` : '';
-  return e.expiry_date ? `${e.expiry_date} (${years})` : years;
+  return e.expiry_date ? `${formatDate(e.expiry_date)} (${years})` : years;
 }
 
 /** Decimals for a per-unit price: 4 below 100, else 2. */

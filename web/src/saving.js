@@ -5,6 +5,7 @@
 // save a file, copy a link, save the page with the trade, start a new trade, open a link typed
 // into the address. Whatever comes from outside (a file, a link) is checked the same way, by
 // the engine, before it replaces the trade on screen. The formats themselves are share.js's.
+import { comparisonProblem, comparisonTitle, isComparison, openDocument, pageDocument } from './compare.js';
 import { addYears, todayIso } from './dates.js';
 import { byId } from './dom.js';
 import { EngineError } from './engine.js';
@@ -27,6 +28,9 @@ export async function checkTradeText(text, live, what) {
     return { why: err instanceof SyntaxError ? `it is not a JSON trade ${what}` : err.message };
   }
   if (!isTrade(doc)) return { why: 'it does not hold a trade (a JSON object)' };
+  // a comparison opens whatever its alternatives hold (drafts too): the engine's refusal of one
+  // is said beside the comparison once it is on the page, and nothing typed is lost
+  if (isComparison(doc)) return comparisonProblem(doc) ? { why: comparisonProblem(doc) } : { doc };
   try {
     await live.call('price', text); // the text itself: the engine's checks (nesting, size) come first
   } catch (err) {
@@ -113,12 +117,13 @@ function storageNotice(state, problem) {
 export function fileActions({ state, work, live, refill, changed }) {
   /** An edit (or any change of the trade): keep it; an edited link is a link no more. */
   function keep() {
-    if (state.link !== null && JSON.stringify(state.doc) !== state.link) {
+    const doc = pageDocument(state);
+    if (state.link !== null && JSON.stringify(doc) !== state.link) {
       state.link = null;
       history.replaceState(null, '', pageAddress());
       clearNotice('link');
     }
-    storageNotice(state, work.keep(state.doc));
+    storageNotice(state, work.keep(doc));
   }
 
   /**
@@ -126,8 +131,8 @@ export function fileActions({ state, work, live, refill, changed }) {
    * `from` is 'new' (a new entry in recent work), 'recent' (an entry brought back) or 'link'.
    */
   function adopt(doc, message, from = 'new') {
-    const previous = state.doc;
-    state.doc = doc;
+    const previous = state.doc ? pageDocument(state) : null;
+    openDocument(state, doc);
     state.link = from === 'link' ? JSON.stringify(doc) : null;
     if (from === 'link') history.replaceState(null, '', `${pageAddress()}#trade=${toBase64Url(state.link)}`);
     else if (location.hash) history.replaceState(null, '', pageAddress());
@@ -152,6 +157,7 @@ export function fileActions({ state, work, live, refill, changed }) {
   }
 
   function fileName(ext) {
+    if (state.comparison) return `${slug(comparisonTitle(state.comparison.doc), 'comparison')}${ext}`;
     const client = slug(state.doc.quote?.client, '');
     return `${client ? `${client}-` : ''}${slug(describeShort(), 'trade')}${ext}`;
   }
@@ -171,7 +177,7 @@ export function fileActions({ state, work, live, refill, changed }) {
   }
 
   async function copyLink() {
-    const link = `${pageAddress()}#trade=${toBase64Url(JSON.stringify(state.doc))}`;
+    const link = `${pageAddress()}#trade=${toBase64Url(JSON.stringify(pageDocument(state)))}`;
     try {
       await navigator.clipboard.writeText(link);
       notice(
@@ -179,7 +185,7 @@ export function fileActions({ state, work, live, refill, changed }) {
       );
     } catch {
       history.replaceState(null, '', link);
-      state.link = JSON.stringify(state.doc);
+      state.link = JSON.stringify(pageDocument(state));
       notice('The address bar now holds a link with this trade in it; copy it from there.', 'info', null, 'link');
     }
   }
@@ -194,7 +200,7 @@ export function fileActions({ state, work, live, refill, changed }) {
   }
 
   function savePageCopy() {
-    download(fileName('.html'), pageWithTrade(state.doc), 'text/html');
+    download(fileName('.html'), pageWithTrade(pageDocument(state)), 'text/html');
     notice('Saved a copy of this page that opens with this trade.');
   }
 
@@ -232,7 +238,7 @@ export function fileActions({ state, work, live, refill, changed }) {
       if (file) importFile(file);
     });
     byId('action-export').addEventListener('click', () =>
-      download(fileName('.json'), tradeFileText(state.doc), 'application/json'),
+      download(fileName('.json'), tradeFileText(pageDocument(state)), 'application/json'),
     );
     byId('action-link').addEventListener('click', copyLink);
     byId('action-copy-page').addEventListener('click', savePageCopy);

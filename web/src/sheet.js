@@ -6,7 +6,7 @@
 // times, who prepared it and the cautions. The desk's model value, margin, Greeks and lattice
 // figures are printed only on the internal sheet, which says so at its head.
 import { byId, tableRow } from './dom.js';
-import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
+import { formatDate, formatNumber, formatPercent, formatSmart, formatWhen, inputText } from './format.js';
 import { describeContract, expiryText, methodName, priceText } from './render.js';
 
 /** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
@@ -27,7 +27,8 @@ function grid(table, head, body) {
   table.replaceChildren(headRow, ...body.map((cells) => tableRow(cells)));
 }
 
-const legTypes = {
+/** Leg types as the sheets name them. */
+export const legTypeNames = {
   call: 'Call',
   put: 'Put',
   'digital-call': 'Digital call',
@@ -45,7 +46,7 @@ function legRows(doc, r) {
       leg.type === 'stock' ? '–' : `${priceText(doc, leg.strike)} (${formatPercent(leg.strike / r.spot, 1)} of spot)`;
     return [
       signed > 0 ? 'Client buys' : 'Client sells',
-      legTypes[leg.type] ?? leg.type,
+      legTypeNames[leg.type] ?? leg.type,
       strike,
       leg.type === 'stock' ? '–' : expiryText(doc, { expiry_years: leg.expiry_years }),
       leg.exercise ?? '–',
@@ -155,9 +156,13 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
 
   byId('sheet-notes').textContent = typeof quote.notes === 'string' ? quote.notes : '';
   rows(byId('sheet-meta'), [
-    ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
+    ['Valuation date', formatDate(doc.valuation_date) ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
-    ['Indicative until', text(quote.indicative_until) ?? 'not stated: ask the desk before dealing', 'indicative-until'],
+    [
+      'Indicative until',
+      formatWhen(text(quote.indicative_until)) ?? 'not stated: ask the desk before dealing',
+      'indicative-until',
+    ],
     ...(text(quote.prepared_by) ? [['Prepared by', quote.prepared_by]] : []),
     ...(text(quote.contact) ? [['Desk contact', quote.contact]] : []),
     [
