@@ -15,6 +15,7 @@ import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
 import { renderPrice, setResult } from './render.js';
 import { renderSheet } from './sheet.js';
 import { fingerprint } from './share.js';
+import { showMarketFigures } from './smile-chart.js';
 
 const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate'];
 
@@ -120,6 +121,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     clearErrors();
     state.price = price;
     renderPrice(doc, price);
+    showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
     refreshSheet(doc, price, calls.fingerprinting);
@@ -141,6 +143,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   function showKept({ doc, price, profile, hedge: schedule }) {
     try {
       renderPrice(doc, price);
+      showMarketFigures(doc, price);
       renderCurrency(doc);
       if (profile) drawProfile(doc, price, profile);
       if (schedule) hedge.showSchedule(schedule);

@@ -8,6 +8,7 @@
 import { byId, tableRow } from './dom.js';
 import { formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { describeContract, expiryText, methodName, priceText } from './render.js';
+import { marketAsOfText } from './snapshot.js';
 
 /** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
 function rows(table, entries) {
@@ -157,6 +158,7 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
   rows(byId('sheet-meta'), [
     ['Valuation date', doc.valuation_date ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
+    ...(marketAsOfText(doc.market) ? [['Market as of', marketAsOfText(doc.market), 'market-as-of']] : []),
     ['Indicative until', text(quote.indicative_until) ?? 'not stated: ask the desk before dealing', 'indicative-until'],
     ...(text(quote.prepared_by) ? [['Prepared by', quote.prepared_by]] : []),
     ...(text(quote.contact) ? [['Desk contact', quote.contact]] : []),

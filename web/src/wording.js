@@ -7,6 +7,7 @@
 // gives one, else from the engine's sentence when it has the usual shape; anything else keeps
 // the engine's words after the field's name.
 import { formatNumber } from './format.js';
+import { gridWords, isMarketTablePath } from './grid-words.js';
 
 const relationWords = { '>': 'above', '>=': 'at least', '<': 'below', '<=': 'at most' };
 
@@ -26,6 +27,8 @@ function plain(x) {
 
 /** The field's name as its label shows it, with the row it sits in: "Volatility", "Leg 2 strike". */
 export function fieldName(input) {
+  const own = input.getAttribute('aria-label'); // a grid's cell names its row and column
+  if (own) return own;
   const holder = input.closest('label, fieldset');
   const caption = holder?.querySelector(':scope > span, :scope > legend');
   const first = caption?.firstChild;
@@ -71,6 +74,7 @@ export function screenMessage(input, field, message, detail) {
     const [low, high, value] = range.slice(1).map(Number);
     return `${name} must be between ${unit.show(low)} and ${unit.show(high)}, got ${unit.show(value)}`;
   }
+  if (isMarketTablePath(field)) return `${name}: ${gridWords(rest)}`;
   return `${name}: ${input.dataset.kind === 'index' ? screenNote(rest).replace(fromZero, fromOne) : rest}`;
 }
 
