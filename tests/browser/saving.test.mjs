@@ -303,6 +303,11 @@ test('market editor: a pasted grid with decimal commas prices each leg at its ow
       { tenor: '2y', rate: 0.033 },
     ],
   });
+  const [copy] = await Promise.all([page.waitForEvent('download'), page.click('#action-copy-page')]);
+  const embedded = /<script type="application\/json" id="embedded-trade">([\s\S]*?)<\/script>/.exec(
+    readFileSync(await copy.path(), 'utf8'),
+  );
+  assert.deepEqual(JSON.parse(embedded[1]).market, trade.market, 'the page copy carries the whole market');
   await page.evaluate(() => {
     // keep what Copy link puts on the clipboard (or, where the clipboard is refused, in the address)
     if (navigator.clipboard) navigator.clipboard.writeText = async (text) => void (window.__copied = text);
