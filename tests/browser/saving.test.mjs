@@ -262,6 +262,7 @@ test('market editor: a pasted grid with decimal commas prices each leg at its ow
   assert.equal(legs[0][3], '26.90 %', 'the put at 90 % of spot: row 2, column 2');
   assert.equal(legs[1][3], '22.60 %', 'the call at 110 % of spot: row 2, column 4');
   assert.match(await page.textContent('#smile-chart .chart-legend'), /3m.*6m.*1y/);
+  assert.match(await page.textContent('#cautions-screen'), /volatility smile and the rate, yield and borrow curves given/);
 
   // A 6m volatility of 10 % at 100 between 26.9 % at 90 and 22.6 % at 110: the call at 100 would be
   // worth less than the call at 90 less the discounted strike gap (butterfly arbitrage).

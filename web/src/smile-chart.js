@@ -9,6 +9,7 @@
 import { drawChart } from './chart.js';
 import { byId, fillTable } from './dom.js';
 import { formatNumber, formatPercent } from './format.js';
+import { isTable } from './market-editor.js';
 import { marketAsOfText } from './snapshot.js';
 
 const basisWords = {
@@ -86,8 +87,24 @@ function legMarketTable(price) {
   );
 }
 
+/**
+ * The cautions' words for the model's market (on screen and on the sheet): constant volatility and
+ * rates, or, for a trade with a smile or a curve, the smile and curves given, held as they are (as
+ * the engine's own caution says, core/commands/cautions.cpp).
+ */
+function cautionWords(doc) {
+  const m = doc.market ?? {};
+  const given = [m.volatility, m.rate, m.carry_yield, m.borrow].some(isTable);
+  for (const node of document.querySelectorAll('.model-words')) {
+    node.dataset.flatWords ??= node.textContent;
+    const text = given ? node.dataset.termWords : node.dataset.flatWords;
+    if (node.textContent !== text) node.textContent = text;
+  }
+}
+
 /** Draw the leg market table, the market's as_of and the smile chart for `doc` priced at `price`. */
 export function showMarketFigures(doc, price) {
+  cautionWords(doc);
   legMarketTable(price);
   const asOf = marketAsOfText(price?.market ?? doc.market);
   const line = byId('leg-market-as-of');
