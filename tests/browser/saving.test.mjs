@@ -209,13 +209,12 @@ const axeSource = readFileSync(
   join(dirname(fileURLToPath(import.meta.url)), '../../web/node_modules/axe-core/axe.min.js'),
   'utf8',
 );
-const collar = {
-  valuation_date: '2026-12-01',
-  market: { spot: 100, volatility: 0.25, rate: 0.03 },
+// A collar on 100 for six months: put 90, call 110, valued 2026-12-01 (one volatility and one rate).
+const collar = { valuation_date: '2026-12-01', market: { spot: 100, volatility: 0.25, rate: 0.03 } };
+Object.assign(collar, {
   structure: { shape: 'collar', strikes: [90, 110], expiry_date: '2027-06-01' },
   quantity: 1000,
-  side: 'buy',
-};
+});
 // Copied from a spreadsheet in a decimal-comma locale: tabs between cells, "30,5" for 30.5 %.
 const pastedGrid = [
   'expiry\t80\t90\t100\t110\t120',
@@ -262,7 +261,10 @@ test('market editor: a pasted grid with decimal commas prices each leg at its ow
   assert.equal(legs[0][3], '26.90 %', 'the put at 90 % of spot: row 2, column 2');
   assert.equal(legs[1][3], '22.60 %', 'the call at 110 % of spot: row 2, column 4');
   assert.match(await page.textContent('#smile-chart .chart-legend'), /3m.*6m.*1y/);
-  assert.match(await page.textContent('#cautions-screen'), /volatility smile and the rate, yield and borrow curves given/);
+  assert.match(
+    await page.textContent('#cautions-screen'),
+    /volatility smile and the rate, yield and borrow curves given/,
+  );
 
   // A 6m volatility of 10 % at 100 between 26.9 % at 90 and 22.6 % at 110: the call at 100 would be
   // worth less than the call at 90 less the discounted strike gap (butterfly arbitrage).
