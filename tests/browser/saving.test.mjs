@@ -346,6 +346,13 @@ test('market snapshot: pasted once, priced in, its as_of on the result and the s
     borrow: 0.004,
   };
   await page.click('#market-more summary');
+  // a file without its as_of is not a snapshot: refused, the trade's own market stays
+  const { as_of: _asOf, ...noTime } = snapshot;
+  const file = { name: 'market.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(noTime)) };
+  await page.setInputFiles('#snapshot-file', file);
+  await until(page, () => /was not used/.test(document.getElementById('notice').textContent));
+  assert.match(await page.textContent('#notice'), /market\.json was not used: .*as_of/);
+  assert.equal(await page.inputValue('[data-path="market.spot"]'), '100');
   await page.fill('#snapshot-text', JSON.stringify(snapshot));
   await page.click('#snapshot-use');
   await until(page, () => document.querySelector('[data-path="market.spot"]').value === '102');
