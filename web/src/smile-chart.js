@@ -44,7 +44,7 @@ function drawSmile(doc, price) {
   if (!lists) return;
   const basis = grid.strike_basis ?? 'percent_of_spot';
   const series = grid.expiries.map((expiry, i) => ({
-    kind: `freq${i % 4}`,
+    kind: `freq${i % 4}${i >= 4 ? ' later' : ''}`, // four colours, then dashed
     label: expiryText(expiry),
     dots: true,
     points: grid.strikes
