@@ -322,6 +322,16 @@ test('market editor: a pasted grid with decimal commas prices each leg at its ow
   assert.equal(await reopened.inputValue('[data-path="market.rate.points[2].rate"]'), '3.3');
   assert.equal((await legMarket(reopened))[0][3], '26.90 %');
 
+  // Back to one volatility keeps the grid aside in this tab, through a reload, until it is opened again.
+  await page.click('text=Back to one volatility');
+  await settled(page);
+  assert.equal(await page.isVisible('.vol-grid'), false);
+  await page.reload();
+  await settled(page);
+  await page.click('#smile-open');
+  await settled(page);
+  assert.equal(await page.inputValue(cell(0, 0)), '30.5', 'the grid typed is back');
+
   // axe-core: no serious or critical finding with the grid and a curve open.
   await page.evaluate(axeSource);
   const findings = await page.evaluate(async () => {

@@ -11,6 +11,7 @@
 import { bound, byId, button, errorLine, field, make, removeButton, select } from './dom.js';
 import { setPath } from './paths.js';
 import { readCurveBlock, readGridBlock } from './paste-block.js';
+import { browserStore } from './state.js';
 
 export const curveNames = {
   rate: 'Interest rate',
@@ -50,7 +51,29 @@ function nextStrike(strikes) {
  * recomputes; `announce(text)` says what a paste did (politely, to screen readers too).
  */
 export function marketEditor({ state, refill, changed, announce }) {
-  const aside = {}; // grids and curves put away by "Back to one ...", by field
+  // Grids and curves put away by "Back to one ...", by field: kept in this tab (through reloads)
+  // until opened again, so going back to one number never loses a grid that was typed.
+  const tab = browserStore('sessionStorage');
+  const asideKey = 'hedgeleaf.market.aside';
+  const aside = readAside();
+
+  function readAside() {
+    try {
+      const kept = JSON.parse(tab?.getItem(asideKey) ?? '{}');
+      return kept !== null && typeof kept === 'object' ? kept : {};
+    } catch {
+      return {};
+    }
+  }
+
+  function keepAside() {
+    try {
+      tab?.setItem(asideKey, JSON.stringify(aside));
+    } catch {
+      // storage off or full: the grid stays aside for this page visit only
+    }
+  }
+
   const market = () => (state.doc.market ??= {});
 
   /** Redraw and recompute after the editor changed the document; focus `selector` in the new form. */
@@ -64,13 +87,16 @@ export function marketEditor({ state, refill, changed, announce }) {
 
   function openGrid() {
     const flat = typeof market().volatility === 'number' ? market().volatility : 0.25;
-    market().volatility = aside.volatility ?? {
+    const kept = aside.volatility;
+    market().volatility = kept ?? {
       expiries: [...seedExpiries],
       strikes: [...seedStrikes],
       vols: seedExpiries.map(() => seedStrikes.map(() => flat)),
     };
     delete aside.volatility;
+    keepAside();
     edited('.vol-grid input');
+    if (kept) announce('The grid put aside is back.');
   }
 
   /** Back to one volatility: the one the first leg was priced at, else the grid's middle; the grid is kept aside. */
@@ -80,6 +106,7 @@ export function marketEditor({ state, refill, changed, announce }) {
     const row = Array.isArray(grid.vols) ? grid.vols[0] : null;
     const middle = Array.isArray(row) ? row[Math.floor(row.length / 2)] : null;
     aside.volatility = grid;
+    keepAside();
     market().volatility = typeof used === 'number' ? used : typeof middle === 'number' ? middle : 0.25;
     edited('[data-path="market.volatility"]');
   }
@@ -236,6 +263,7 @@ export function marketEditor({ state, refill, changed, announce }) {
     const flat = typeof market()[name] === 'number' ? market()[name] : 0;
     market()[name] = aside[name] ?? { points: seedTenors.map((tenor) => ({ tenor, rate: flat })) };
     delete aside[name];
+    keepAside();
     edited(`[data-curve="${name}"] input`);
   }
 
@@ -244,6 +272,7 @@ export function marketEditor({ state, refill, changed, announce }) {
     const curve = market()[name];
     const first = Array.isArray(curve.points) ? curve.points[0]?.rate : undefined;
     aside[name] = curve;
+    keepAside();
     if (typeof first === 'number' && !(name === 'borrow' && first === 0)) market()[name] = first;
     else delete market()[name];
     edited(`[data-curve-open="${name}"]`);
