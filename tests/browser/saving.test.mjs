@@ -381,6 +381,13 @@ test('market snapshot: pasted once, priced in, its as_of on the result and the s
   await settled(page);
   assert.equal(await page.inputValue('#market-age-limit'), '100,000', 'the limit is remembered');
   assert.equal(await page.textContent('#market-stale'), '');
+  // Another trade with its own market keeps it, and is offered the snapshot kept in this browser.
+  const other = await openPage(context, linkToPage(JSON.stringify(collar)));
+  assert.equal(await other.inputValue('[data-path="market.spot"]'), '100', 'the trade’s own market wins');
+  await other.click('#market-more summary');
+  await other.click('#snapshot-again');
+  await until(other, () => document.querySelector('[data-path="market.spot"]').value === '102');
+  await other.close();
   // New starts in the snapshot: every trade on the page uses it.
   await page.click('#action-new');
   await settled(page);

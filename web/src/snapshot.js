@@ -80,9 +80,19 @@ export function snapshotTools({ state, live, refill, changed }) {
     return value > 0 ? value : defaultLimitHours;
   }
 
+  /** Offer the snapshot kept in this browser to a trade that is not priced in it (another tab's, an opened file's). */
+  function offerKept(market) {
+    const kept = rememberedMarket();
+    const offer = byId('snapshot-again');
+    if (!offer) return;
+    offer.hidden = !kept || JSON.stringify(kept) === JSON.stringify(market);
+    if (!offer.hidden) offer.textContent = `Use the market as of ${marketAsOfText(kept)}`;
+  }
+
   /** Show the market's as_of and age; warn when it is older than the limit (the warning is a polite live region). */
   function showAge() {
     const market = state.doc?.market;
+    offerKept(market);
     const written = marketAsOfText(market);
     byId('market-age').hidden = !written;
     const stale = byId('market-stale');
@@ -171,6 +181,7 @@ export function snapshotTools({ state, live, refill, changed }) {
       pasteField,
       make('div', { className: 'list-head' }, [
         make('button', { type: 'button', className: 'small', id: 'snapshot-use', text: 'Use pasted market' }),
+        make('button', { type: 'button', className: 'small', id: 'snapshot-again', hidden: true }),
       ]),
     );
   }
@@ -194,6 +205,10 @@ export function snapshotTools({ state, live, refill, changed }) {
       if (file) await useSnapshot(await file.text(), `in ${file.name}`);
     });
     byId('snapshot-use').addEventListener('click', () => useSnapshot(pasteBox.value, 'pasted'));
+    byId('snapshot-again').addEventListener('click', () =>
+      useSnapshot(JSON.stringify(rememberedMarket()), 'kept in this browser'),
+    );
+    showAge();
     setInterval(showAge, 60000); // the market ages while the page is open
   }
 
