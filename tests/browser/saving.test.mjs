@@ -281,6 +281,13 @@ test('market editor: a pasted grid with decimal commas prices each leg at its ow
   assert.equal(await page.inputValue(cell(1, 2)), '10', 'the refused cell survives a reload');
   assert.match(await page.textContent(`[data-error="market.volatility.vols[1][2]"]`), /row 2, column 3/);
   await page.fill(cell(1, 2), '24.2');
+  await page.fill(cell(0, 0), '600'); // an absurd volatility: the engine's bound, in percent on screen
+  await settled(page);
+  assert.equal(
+    await page.textContent(`[data-error="market.volatility.vols[0][0]"]`),
+    'Volatility, row 1, column 1 must be at most 500 %, got 600 %',
+  );
+  await page.fill(cell(0, 0), '30.5');
   await settled(page);
 
   // The rate as a curve, pasted as tenor and rate.

@@ -295,24 +295,25 @@ export function marketEditor({ state, refill, changed, announce }) {
   function curveTable(name, curve) {
     const points = Array.isArray(curve.points) ? curve.points : [];
     const base = `market.${name}.points`;
-    const rows = points.map((_, i) =>
-      make('tr', {}, [
-        make('td', { className: 'cell' }, [
-          make('input', {
-            dataset: { role: 'point-time', base: `${base}[${i}]`, kind: 'time' },
-            autocomplete: 'off',
-            'aria-label': `${curveNames[name]}, point ${i + 1}: tenor, date or years`,
-          }),
-        ]),
+    const rows = points.map((_, i) => {
+      const time = make('input', {
+        dataset: { role: 'point-time', base: `${base}[${i}]`, kind: 'time' },
+        autocomplete: 'off',
+        'aria-label': `${curveNames[name]}, point ${i + 1}: tenor, date or years`,
+      });
+      const pointError = errorLine(`${base}[${i}]`);
+      pointError.errorInput = time; // a refusal of the point (its order) is about its time, in its name
+      return make('tr', {}, [
+        make('td', { className: 'cell' }, [time]),
         make('td', { className: 'cell' }, [
           bound(`${base}[${i}].rate`, 'percent', { 'aria-label': `${curveNames[name]}, point ${i + 1}: rate` }),
-          errorLine(`${base}[${i}]`),
+          pointError,
         ]),
         make('td', {}, [
           removeButton(`Remove ${curveNames[name].toLowerCase()} point ${i + 1}`, () => removePoint(name, i)),
         ]),
-      ]),
-    );
+      ]);
+    });
     const table = make('table', { className: 'curve-table' }, [
       make('caption', { text: `${curveNames[name]} by tenor, % a year (continuously compounded)` }),
       make('thead', {}, [

@@ -46,6 +46,7 @@ export function fieldName(input) {
 // The engine's usual shapes after "<path>: must be ": "> 0, got -0.2", ">= -0.95 (a note), got -1.2",
 // "between 0 and 2, got 5". Short engine text, so these plain patterns cannot run long.
 const oneSided = /^must be (>=|<=|>|<) (-?[\d.e+-]+)( \([^)]*\))?, got (-?[\d.e+-]+)$/;
+const sidedNoteLast = /^must be (>=|<=|>|<) (-?[\d.e+-]+), got (-?[\d.e+-]+)( \([^)]*\))$/; // a grid's bound
 const between = /^must be between (-?[\d.e+-]+) and (-?[\d.e+-]+), got (-?[\d.e+-]+)$/;
 
 /**
@@ -68,6 +69,11 @@ export function screenMessage(input, field, message, detail) {
     // a note in file units ("a fraction of today's spot") would contradict converted numbers
     const tail = unit.converts ? '' : note;
     return `${name} must be ${relationWords[relation]} ${unit.show(Number(limit))}${tail}, got ${unit.show(Number(value))}`;
+  }
+  const late = sidedNoteLast.exec(rest);
+  if (late) {
+    const [, relation, limit, value, note] = late;
+    return `${name} must be ${relationWords[relation]} ${unit.show(Number(limit))}, got ${unit.show(Number(value))}${unit.converts ? '' : note}`;
   }
   const range = between.exec(rest);
   if (range) {
