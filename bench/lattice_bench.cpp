@@ -156,6 +156,38 @@ const char* clone_in_use() {
 #endif
 }
 
+// What exact event dates cost: a leg whose exercise or dividend dates fall inside its life is
+// priced on a piecewise-uniform grid whose segments end on every event (numerics/time_grid.hpp),
+// against the uniform grid of a leg without events, at the default settings (price_leg as the
+// price command calls it, error bound included).
+void event_grid_cost(const market_data& flat) {
+    std::printf("# Exact event dates: default settings, one American or Bermudan put, 1 year\n");
+    std::printf("%-44s %14s %10s %12s\n", "events inside the life", "time/price ms", "vs none", "premium");
+    const lattice_settings settings{};
+    option_leg american = bench_put(exercise_style::american);
+    double none_seconds = 0;
+    const auto row = [&](const char* name, const market_data& m, const option_leg& leg) {
+        const timing t =
+            time_prices([&] { return price_leg(m, leg, settings, bumped_greeks::off, error_bound::on).premium; }, 0.6);
+        if (none_seconds == 0) none_seconds = t.seconds_per_price;
+        std::printf("%-44s %14.3f %9.2fx %12.6f\n", name, t.seconds_per_price * 1e3, t.seconds_per_price / none_seconds,
+                    t.value);
+    };
+    row("none (uniform grid)", flat, american);
+    option_leg bermudan = bench_put(exercise_style::bermudan);
+    bermudan.exercise_years = {0.502};
+    row("Bermudan, one date at 0.502 y", flat, bermudan);
+    bermudan.exercise_years.clear();
+    for (int k = 1; k < 12; ++k) bermudan.exercise_years.push_back(k / 12.0 + 0.003);
+    row("Bermudan, 11 monthly dates off the grid", flat, bermudan);
+    market_data paying = flat;
+    for (int k = 1; k <= 4; ++k) paying.dividends.push_back({k * 0.25 - 0.1, 0.5});
+    row("American, 4 quarterly cash dividends", paying, american);
+    std::printf(
+        "(the dividends add the day before each ex-date for early exercise: 8 events; "
+        "ratios above 1 are the price of exact dates; docs/performance.md)\n\n");
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -211,6 +243,8 @@ int main(int argc, char** argv) {
         "bench/usual_loop.hpp; kernel = hedgeleaf::induce over every node (lattice_extent::full), set-up "
         "included; band = hedgeleaf::induce as the pricer calls it, over the probable band only, same value; "
         "speed-up = usual time / this time)\n\n");
+
+    event_grid_cost(m);
 
     std::printf(
         "# Memory: one American put, default method with extrapolation (fine + coarse lattice), "

@@ -61,6 +61,13 @@ check "bad hedge field one line" '[ $(echo "$err" | wc -l) -eq 1 ]'
 out=$("$cli" simulate "$root/examples/hedge-scenario.json"); code=$?
 check "simulate exits 0" '[ $code -eq 0 ]'
 check "simulate prints a histogram" 'echo "$out" | grep -q "\"histogram\""'
+# A long request states its estimated time on stderr before it starts (issue: slow corners);
+# stopped after a second: the line comes first.
+long_sim='{"market": {"spot": 100, "volatility": 0.2, "rate": 0.03}, "option": {"type": "put", "strike": 100, "expiry_years": 30}, "simulate": {"paths": 30000, "frequencies": [{"every": 1, "unit": "weeks"}]}}'
+err=$(echo "$long_sim" | timeout 1 "$cli" simulate - 2>&1 >/dev/null)
+check "a long simulation states its time up front" 'echo "$err" | grep -q "^hedgeleaf: simulate will take about [0-9.]* s on one core (30000 paths x 15[0-9][0-9] rebalancings with 1 option leg); Ctrl-C stops it$"'
+err=$("$cli" simulate "$root/examples/hedge-scenario.json" 2>&1 >/dev/null)
+check "a short one states nothing" '[ -z "$err" ]'
 check "simulate --csv has a row per frequency" '[ $("$cli" simulate "$root/examples/hedge-scenario.json" --csv | wc -l) -eq 4 ]'
 out=$("$cli" tree "$root/examples/hedge-tree-path.json"); code=$?
 check "tree exits 0" '[ $code -eq 0 ]'

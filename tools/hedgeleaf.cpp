@@ -22,6 +22,21 @@ namespace {
 
 using hedgeleaf::json;
 
+// A request estimated at over two seconds says so before it starts, with what makes it long
+// (the page shows progress and a Stop button instead). Bad input is left to the run to report.
+void say_estimated_time(const std::string& command, const json& document) {
+    try {
+        const hedgeleaf::work_estimate w = hedgeleaf::find_command(command).estimate(document);
+        const double seconds = w.node_updates / hedgeleaf::native_updates_per_second;
+        if (!(seconds > 2)) return;
+        std::ostringstream text;
+        text.precision(seconds < 10 ? 2 : 3);
+        text << seconds;
+        std::cerr << "hedgeleaf: " << command << " will take about " << text.str() << " s on one core (" << w.what
+                  << "); Ctrl-C stops it\n";
+    } catch (const std::exception&) {}
+}
+
 int usage(std::ostream& out, int code) {
     out << "usage: hedgeleaf <command> FILE|- [--market SNAPSHOT] [--table | --csv]\n"
            "       hedgeleaf compare FILE FILE... [--table | --csv]\n"
@@ -143,6 +158,7 @@ int main(int argc, char** argv) {
         json document = document_of(paths, texts);
         if (!market_path.empty())
             document = hedgeleaf::with_market_snapshot(document, hedgeleaf::parse_json_text(market_text));
+        say_estimated_time(command, document);
         const json result = hedgeleaf::run_command(command, document);
         if (format == "table") {
             std::cout << hedgeleaf::cli::render_table(result);

@@ -70,6 +70,18 @@ struct date_grid {
     }
 };
 
+}  // namespace
+
+void check_simulation_size(double path_rebalancings) {
+    if (path_rebalancings > max_path_rebalancings)
+        fail("simulate.paths", "paths x rebalancings over all frequencies is " +
+                                   std::to_string(static_cast<long long>(path_rebalancings)) + ", at most " +
+                                   std::to_string(static_cast<long long>(max_path_rebalancings)) +
+                                   "; use fewer paths or rebalance less often");
+}
+
+namespace {
+
 date_grid simulation_dates(const trade& t, const simulate_settings& st) {
     date_grid out;
     double work = 0;
@@ -78,11 +90,7 @@ date_grid simulation_dates(const trade& t, const simulate_settings& st) {
         for (const auto& d : out.dates.back()) out.grid.push_back(d.years);
         work += static_cast<double>(st.paths) * static_cast<double>(out.dates.back().size() - 1);
     }
-    if (work > max_path_rebalancings)
-        fail("simulate.paths", "paths x rebalancings over all frequencies is " +
-                                   std::to_string(static_cast<long long>(work)) + ", at most " +
-                                   std::to_string(static_cast<long long>(max_path_rebalancings)) +
-                                   "; use fewer paths or rebalance less often");
+    check_simulation_size(work);
     std::sort(out.grid.begin(), out.grid.end());
     out.grid.erase(std::unique(out.grid.begin(), out.grid.end(),
                                [](double a, double b) { return std::fabs(a - b) <= time_tolerance_years; }),

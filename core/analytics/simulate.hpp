@@ -61,6 +61,9 @@ struct simulation {
 /// more than max_path_rebalancings paths x rebalancings.
 simulation run_simulation(const trade& t, const simulate_settings& settings);
 
+/// Refuse (naming simulate.paths) more than max_path_rebalancings paths x rebalancings.
+void check_simulation_size(double path_rebalancings);
+
 /// Derman and Kamal (1999): sd of the hedging error of an at-the-money European
 /// option hedged `n` times ~ sqrt(pi/4) * vega * sigma / sqrt(n).
 double derman_kamal_sd(double vega, double sigma, int n);

@@ -75,10 +75,34 @@ work_estimate estimate_hedge_work(const trade& t, const hedge_settings& hs) {
     return w;
 }
 
+work_estimate estimate_simulate_work(const trade& t, const simulate_settings& st) {
+    // Per path and date, in node-update units (timed with the CLI on x86-64 for 1 and 12 legs
+    // over 30 years, docs/performance.md): drawing the step and booking the hedge; each
+    // European leg's closed-form delta; each other leg's delta read from its table.
+    constexpr double per_step = 600, per_european_leg = 280, per_table_leg = 1200;
+    const leg_work legs = count_legs(t);
+    double dates = 0;
+    for (std::size_t f = 0; f < st.frequencies.size(); ++f)
+        dates +=
+            static_cast<double>(schedule_dates(t, st.frequencies[f], index_path("simulate.frequencies", f)).size());
+    // Refused as the run would refuse it (the first date of each frequency is the start).
+    const double rebalancings = dates - static_cast<double>(st.frequencies.size());
+    check_simulation_size(static_cast<double>(st.paths) * rebalancings);
+    const double per_date =
+        per_step + per_european_leg * (legs.option_legs - legs.early_legs) + per_table_leg * legs.early_legs;
+    work_estimate w;
+    w.budgeted = false;
+    w.node_updates = static_cast<double>(st.paths) * dates * per_date +
+                     legs.early_legs * induction_work(st.lattice_steps > 0 ? st.lattice_steps : 1000);
+    w.what = format_number(static_cast<double>(st.paths)) + " paths x " + format_number(rebalancings) +
+             " rebalancings with " + legs_text(legs.option_legs);
+    return w;
+}
+
 work_estimate estimate_bounded_work(const trade&) { return {}; }
 
 void check_work_budget(const work_estimate& w, double budget) {
-    if (!std::isfinite(budget)) return;
+    if (!std::isfinite(budget) || !w.budgeted) return;
     if (w.node_updates <= budget) return;
     throw work_exhausted(w.field, w.what + " need about " + in_millions(w.node_updates) +
                                       " lattice node updates, more than the " + in_millions(budget) +

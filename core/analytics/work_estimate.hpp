@@ -15,6 +15,7 @@
 #pragma once
 
 #include "analytics/hedge.hpp"
+#include "analytics/simulate.hpp"
 
 #include <string>
 
@@ -25,7 +26,14 @@ struct work_estimate {
     double node_updates = 0;
     std::string field;  ///< the input to lower, e.g. "lattice.steps" (the command table names it)
     std::string what;   ///< how the figure arises, for the message
+    /// Whether the page's budget holds the request (false: the command keeps its own limits and
+    /// the page shows progress and a Stop button; the figure still tells the CLI how long).
+    bool budgeted = true;
 };
+
+/// Estimated node updates a second natively on one x86-64 laptop core (measured above): the CLI
+/// states the time of a request estimated above 2 s before it starts (docs/performance.md).
+inline constexpr double native_updates_per_second = 5e9;
 
 // An estimate that needs no section of the document is taken before the section is read.
 
@@ -35,7 +43,11 @@ work_estimate estimate_price_work(const trade& t);
 work_estimate estimate_solve_work(const trade& t);
 /// hedge: American and Bermudan legs re-priced on their own lattice at every date.
 work_estimate estimate_hedge_work(const trade& t, const hedge_settings& settings);
-/// Commands bounded by their own limits (tree, simulate, ladder, profile): 0 here.
+/// simulate: every path hedged at every date of every frequency, in node-update units (each
+/// leg's delta at a date costs as much as a few hundred node updates), plus the delta tables of
+/// American and Bermudan legs. Not held to the page's budget (the page shows progress and Stop).
+work_estimate estimate_simulate_work(const trade& t, const simulate_settings& settings);
+/// Commands bounded by their own limits to about a second natively (tree, ladder, profile): 0 here.
 work_estimate estimate_bounded_work(const trade& t);
 
 /// Throw input_error naming `w.field` when `w` exceeds `budget` node updates.

@@ -48,8 +48,7 @@ json write_tree_result(const trade& t, const tree_settings& settings, const tree
         {"from_step", result.from_step},
         {"to_step", result.to_step},
         {"nodes", nodes},
-        {"path", path},
-        {"premium", nodes.empty() || result.from_step > 0 ? json(nullptr) : json(nodes[0]["value"])},
+        {"premium", result.against_price.card_premium},  // the root's value, whichever levels are listed
         {"position", {{"quantity", t.quantity}, {"side", t.client_sells ? "sell" : "buy"}, {"signed_quantity", q}}},
         {"view",
          "Per unit of the trade held long (legs with their signed quantities). value = the legs still running, "
@@ -58,6 +57,7 @@ json write_tree_result(const trade& t, const tree_settings& settings, const tree
          "times these shares and cash."},
         {"notes", result.notes},
     };
+    if (!path.is_null()) out["path"] = path;  // only for a lattice hedge path
     add_price_comparison(out, result.against_price, "The tree", "hedge.tree.steps", result.steps);
     return out;
 }

@@ -106,7 +106,7 @@ const std::vector<command_descriptor>& command_table() {
             "lattice.steps"),
         describe<steps<read_profile_settings, estimate_bounded_work, run_profile, write_profile_result>>(
             "profile", "payoff and P&L at expiry, value today, break-even spots (profile section)", "profile.steps"),
-        describe<steps<read_simulate_settings, estimate_bounded_work, run_simulation, write_simulate_result>>(
+        describe<steps<read_simulate_settings, estimate_simulate_work, run_simulation, write_simulate_result>>(
             "simulate", "P&L of discrete delta hedging over many simulated paths (simulate section)", "lattice.steps"),
         describe<steps<read_solve_settings, estimate_solve_work, run_solve, write_solve_result>>(
             "solve", "the volatility, a strike or the quantity for a target (solve section)", "lattice.steps"),

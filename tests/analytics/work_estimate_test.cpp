@@ -2,6 +2,7 @@
 // that would run for many seconds.
 #include "analytics/work_estimate.hpp"
 #include "commands/trade_reader.hpp"
+#include "dispatch/command_table.hpp"
 #include "dispatch/dispatch.hpp"
 #include "numerics/lattice.hpp"
 
@@ -87,4 +88,20 @@ TEST_CASE("hedge and solve estimates name their own fields", "[work]") {
     CHECK(estimate_work("solve", doc).field == "lattice.steps");
     // Commands bounded by their own limits estimate nothing here.
     CHECK(estimate_work("ladder", doc).node_updates == 0);
+}
+
+TEST_CASE("a simulation's estimate grows with paths, dates and legs and is never refused by the budget", "[work]") {
+    // The page runs a simulation with progress and Stop, so its budget does not refuse one;
+    // the CLI states the estimate of a long one before it starts (tests/cli_test.sh).
+    json doc = twelve_legs(101);
+    doc["simulate"] = {{"paths", 1000}, {"frequencies", {{{"every", 1}, {"unit", "months"}}}}};
+    const auto estimate = [](const json& d) { return find_command("simulate").estimate(d); };
+    const work_estimate monthly = estimate(doc);
+    CHECK_FALSE(monthly.budgeted);
+    CHECK(monthly.what == "1000 paths x 24 rebalancings with 12 option legs");
+    doc["simulate"]["paths"] = 4000;
+    CHECK(estimate(doc).node_updates == Approx(4 * monthly.node_updates).epsilon(0.01));
+    doc["simulate"]["frequencies"] = {{{"every", 1}, {"unit", "weeks"}}};
+    CHECK(estimate(doc).node_updates > 4 * 4 * monthly.node_updates);
+    CHECK_NOTHROW(check_work_budget(estimate(doc), 1));
 }
