@@ -1,6 +1,6 @@
 // Hedgeleaf benchmark: the one-file page in headless Chromium.
 //
-//   node bench/page_bench.mjs [PAGE] [--rates 1,4] [--contexts 5]   (default dist/hedgeleaf.html)
+//   node bench/page_bench.mjs [PAGE] [--rates 1,4] [--contexts 5] [--trade FILE]   (default dist/hedgeleaf.html)
 //
 // For each CPU rate (1 = this machine; 4 = the page's main thread slowed 4x
 // through the DevTools protocol, Emulation.setCPUThrottlingRate, as a slow
@@ -13,12 +13,15 @@
 // schedule, spot ladder (opened first), print sheet). Also the machine's load
 // average, since other work on the cores moves every figure. Uses Debian's
 // Chromium through playwright-core from web/node_modules (tests/browser/harness.mjs).
-import { statSync } from 'node:fs';
+// With --trade the page opens on that trade file (a #trade= link) instead of its example:
+// bench/trades/four-legs-smile.json is four legs priced on a 6 x 9 smile grid with rate, yield
+// and borrow curves (issue 14's figure).
+import { readFileSync, statSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
-import { launchChromium } from '../tests/browser/harness.mjs';
+import { launchChromium, tradeLink } from '../tests/browser/harness.mjs';
 
 const root = dirname(dirname(fileURLToPath(import.meta.url)));
 const flag = (name, fallback) => {
@@ -29,6 +32,7 @@ const positional = process.argv.slice(2).find((arg, i, all) => !arg.startsWith('
 const pagePath = resolve(positional ?? join(root, 'dist/hedgeleaf.html'));
 const rates = flag('--rates', '1,4').split(',').map(Number);
 const contexts = Number(flag('--contexts', '5'));
+const tradePath = flag('--trade', null);
 const budgets = { 1: { open: 500, recompute: 16 }, 4: { open: 1500, recompute: 50 } };
 const debounceMs = 250;
 const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
@@ -203,12 +207,14 @@ function report(rate, { opens, settled, recomputes, firstUpdates, unpacking }) {
 
 async function main() {
   const size = statSync(pagePath).size;
-  const url = pathToFileURL(pagePath).href;
+  const page = pathToFileURL(pagePath).href;
+  const url = tradePath ? tradeLink(page, readFileSync(resolve(tradePath), 'utf8')) : page;
   const load = () =>
     loadavg()
       .map((x) => x.toFixed(2))
       .join(' ');
   console.log(`# Page (bench/page_bench.mjs): ${pagePath}`);
+  if (tradePath) console.log(`trade: ${tradePath}`);
   console.log(`file size: ${size} bytes (${(size / 1024 / 1024).toFixed(2)} MiB; budget 1 MiB)`);
   console.log(`load average before: ${load()} (1, 5, 15 min)`);
   const browser = await launchChromium();

@@ -71,6 +71,23 @@ bad_snapshots = [
 ]
 for doc in bad_snapshots:
     check(not market_validator.is_valid(doc), f"market schema refuses {json.dumps(doc)}")
+# The solve's bounds: above 0, except the volatility solve on a smile without a leg, which finds a
+# parallel move of the whole smile and may search below 0 (core/commands/solve.cpp); schema and CLI agree.
+smile_trade = {**base, "market": {**base["market"], "volatility": {"expiries": [1], "strikes": [80, 120],
+                                                                  "vols": [[0.2, 0.2]]}}}
+flat_price = json.loads(subprocess.run([cli, "price", "-"], input=json.dumps(base), capture_output=True,
+                                       text=True).stdout)["premium"]
+parallel = {**smile_trade, "solve": {"for": "volatility", "target_premium": flat_price, "lower": -0.05, "upper": 0.1}}
+check(validator.is_valid(parallel), "schema takes a parallel move of a smile searched from below 0")
+run = subprocess.run([cli, "solve", "-"], input=json.dumps(parallel), capture_output=True, text=True)
+check(run.returncode == 0 and abs(json.loads(run.stdout or "{}").get("solution", 1)) < 1e-6,
+      f"CLI solves the parallel move searched from below 0 (a flat 20 % grid: move 0): {run.stderr.strip()}")
+for doc in [{**base, "solve": {**parallel["solve"]}},
+            {**smile_trade, "solve": {**parallel["solve"], "leg": 0}},
+            {**base, "solve": {"for": "strike", "lower": -1}}]:
+    check(not validator.is_valid(doc), f"schema refuses solve bounds below 0 in {json.dumps(doc['solve'])}")
+    run = subprocess.run([cli, "solve", "-"], input=json.dumps(doc), capture_output=True, text=True)
+    check(run.returncode == 2, f"CLI refuses solve bounds below 0 in {json.dumps(doc['solve'])}")
 # A comparison the schema forbids, the CLI refuses too: five alternatives, one of them broken, a stray key.
 alternatives = [base] * 5
 bad_comparisons = [

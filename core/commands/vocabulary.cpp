@@ -120,8 +120,10 @@ void quote_fields(json& f) {
 void solve_fields(json& f) {
     f["solve.for"] = one_of(solve_unknowns);
     f["solve.leg"] = between(whole_field(), 0, max_legs - 1);
-    f["solve.lower"] = above(number_field(), 0);
-    f["solve.upper"] = above(number_field(), 0);
+    // Above 0 for every unknown but the parallel move of a smile, which may be negative (solve.cpp
+    // checks each case): the schema states the condition, the field itself is any number.
+    f["solve.lower"] = number_field();
+    f["solve.upper"] = number_field();
     f["solve.budget"] = positive_up_to(max_budget);
     f["solve.lot_size"] = between(number_field(), min_lot_size, max_quantity);
 }

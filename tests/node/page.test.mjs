@@ -19,7 +19,9 @@ import {
 } from '../../web/src/format.js';
 import { fromBase64Url, toBase64Url, tradeFromHash, autosave, parseTradeText } from '../../web/src/share.js';
 import { getPath, pathAncestors, setPath } from '../../web/src/paths.js';
-import { changeShape, defaultExerciseSchedule, readDateList, readWhen } from '../../web/src/form.js';
+import { changeShape, defaultExerciseSchedule, readDateList, readTime, readWhen } from '../../web/src/form.js';
+import { gridWords, isMarketTablePath } from '../../web/src/grid-words.js';
+import { cellNumber, readCurveBlock, readGridBlock, splitBlock } from '../../web/src/paste-block.js';
 import { addMonths, addYears, yearsBetween } from '../../web/src/dates.js';
 import { routeThrough } from '../../web/src/tree.js';
 
@@ -182,3 +184,68 @@ test(
     assert.ok(Buffer.byteLength(html) < 1024 * 1024, 'under 1 MiB');
   },
 );
+
+// A spreadsheet copies a selection as text/plain lines of tab-separated cells, CRLF between lines
+// (common practice: what Excel and LibreOffice Calc put on the clipboard); in a decimal-comma
+// locale the cells read "30,5".
+test('a block pasted from a spreadsheet fills the smile grid in file decimals, headings or not', () => {
+  const block = 'expiry\t80\t100\r\n3M\t30,5\t24\r\n2027-06-01\t29,8 %\tabc\r\n0,5\t29\t24,5\r\n';
+  const read = readGridBlock(block);
+  assert.deepEqual(read.strikes, [80, 100]);
+  assert.deepEqual(read.expiries, ['3m', '2027-06-01', 0.5]);
+  assert.deepEqual(read.vols, [
+    [0.305, 0.24],
+    [0.298, 'abc'],
+    [0.29, 0.245],
+  ]);
+  assert.equal(read.decimals, false, 'percent as on screen');
+  // decimals as a spreadsheet holds them: every plain value at most 1
+  const decimals = readGridBlock('0,25\t0,22\n0,24\t0,215');
+  assert.equal(decimals.decimals, true);
+  assert.equal(decimals.expiries, undefined, 'no headings: volatilities only');
+  assert.deepEqual(decimals.vols, [
+    [0.25, 0.22],
+    [0.24, 0.215],
+  ]);
+  // an expiry in the corner: a first column of expiries, no row of strikes
+  assert.deepEqual(readGridBlock('6m\t25\t24\n1y\t26\t25').expiries, ['6m', '1y']);
+  // commas separate cells when there is no tab or semicolon: then they are not decimal commas
+  assert.deepEqual(readGridBlock('expiry,90,110\n1y,25.5,22').vols, [[0.255, 0.22]]);
+  assert.deepEqual(splitBlock('a;b\n\n c ;d').rows, [
+    ['a', 'b'],
+    ['c', 'd'],
+  ]);
+  assert.deepEqual(cellNumber('1.234,5', true), { value: 1234.5, percent: false });
+  assert.equal(cellNumber('12x', true), null);
+  assert.equal(readGridBlock(' \n ').why, 'the pasted text holds no cells');
+});
+
+test('a pasted curve block reads tenor, date or years and a rate; a header line is skipped', () => {
+  assert.deepEqual(readCurveBlock('tenor\trate\n3m\t2,9\n2027-12-01\t3,1 %\n2\t3,3').points, [
+    { time: '3m', rate: 0.029 },
+    { time: '2027-12-01', rate: 0.031 },
+    { time: 2, rate: 0.033 },
+  ]);
+  assert.equal(readCurveBlock('3m\t0,029\n1y\t0,031').decimals, true);
+  assert.equal(readCurveBlock('3m\n1y').why, 'each line needs a time and a rate');
+});
+
+test('a grid or curve time typed in a cell keeps its kind; the engine speaks of cells in screen terms', () => {
+  assert.deepEqual(readTime(' 6M '), { key: 'tenor', value: '6m' });
+  assert.deepEqual(readTime('2027-06-30'), { key: 'date', value: '2027-06-30' });
+  assert.deepEqual(readTime('1.5'), { key: 'years', value: 1.5 });
+  assert.deepEqual(readTime('soon'), { key: 'tenor', value: 'soon' });
+  assert.equal(readTime('').value, undefined);
+  // the engine's calendar message (core/analytics/smile_checks.cpp): paths from 0, decimals
+  const engine =
+    'total variance 0.0128 (volatility 0.16 over 0.4986 years) is below 0.0142, that of vols[0][2] (0.24 over ' +
+    '0.2466 years): total variance must not fall with maturity (calendar arbitrage); raise this volatility to at ' +
+    'least 0.1688 or lower vols[0][2]';
+  const words = gridWords(engine);
+  assert.match(words, /\(volatility 16 % over 0\.4986 years\)/);
+  assert.match(words, /that of row 1, column 3 \(0\.24 over/);
+  assert.match(words, /raise this volatility to at least 16\.88 % or lower row 1, column 3$/);
+  assert.ok(isMarketTablePath('market.volatility.vols[1][2]'));
+  assert.ok(isMarketTablePath('market.borrow.points[0].rate'));
+  assert.ok(!isMarketTablePath('market.volatility'));
+});

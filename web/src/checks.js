@@ -25,6 +25,8 @@ const usualFloor = [
   [/volatility$/, 1], // a volatility of under 1 % a year
   [/^hedge\.path\.change$/, 1], // a stress of under 1 %
   [/(^market\.(rate|carry_yield)|drift|^quote\.margin)$/, 0.1], // a rate under 0.1 % (0.25 % is a real rate)
+  [/^market\.volatility\.vols\[\d+\]\[\d+\]$/, 1], // a grid's cell, as the volatility
+  [/^market\.(rate|carry_yield)\.points\[\d+\]\.rate$/, 0.1], // a curve's point, as the rate
 ];
 
 /** A note about a percent value that looks like a decimal fraction ("0.28" meant as 28 %), or null. */

@@ -35,7 +35,7 @@ export const maxTextChars = 10000;
 
 /** The most characters `input` takes: longer text is refused beside it and never reaches the document. */
 export function charLimit(input) {
-  return ['number', 'percent', 'index', 'tenor'].includes(input.dataset.kind) ? maxNumberChars : maxTextChars;
+  return ['number', 'percent', 'index', 'tenor', 'time'].includes(input.dataset.kind) ? maxNumberChars : maxTextChars;
 }
 
 /** Read an input's value as the document stores it (undefined = remove the field). */
@@ -50,6 +50,7 @@ export function readInput(input) {
   if (kind === 'text') return text.trim() === '' ? undefined : text;
   if (kind === 'choice') return text === '' ? undefined : text;
   if (kind === 'date') return text === '' ? undefined : text;
+  if (kind === 'time') return readTime(text).value;
   // a number the page cannot read goes into the document as typed (it stays on screen and in the
   // autosave); the page says why beside the field and prices nothing (checks.js)
   const value = kind === 'percent' ? parsePercent(text) : kind === 'tenor' ? parseTenor(text) : parseNumber(text);
@@ -66,7 +67,7 @@ export function showInput(input, value) {
   else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
   else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
   else if (kind === 'index') input.value = typeof value === 'number' ? inputText(value + 1) : (value ?? '');
-  else if (kind === 'tenor') input.value = value === undefined ? '' : tenorText(value);
+  else if (kind === 'tenor' || kind === 'time') input.value = value === undefined ? '' : tenorText(value);
   else if (kind === 'choice')
     input.value = value === undefined ? (input.querySelector('option[value=""]') ? '' : input.options[0].value) : value;
   else input.value = value ?? '';
@@ -76,6 +77,23 @@ export function showInput(input, value) {
 function tenorText(value) {
   return typeof value === 'number' ? decimalText(value) : String(value ?? '');
 }
+
+/**
+ * A time as a grid's expiry or a curve's point takes it (docs/market.md): a date "2027-06-30", a
+ * tenor "3m" (kept as text, for the engine to roll from the valuation date) or years "0.5" ("0,5"
+ * in de-DE) -> {key: "date" | "tenor" | "years", value}; text the page cannot read stays as typed.
+ */
+export function readTime(text) {
+  const trimmed = text.trim();
+  if (trimmed === '') return { key: 'tenor', value: undefined };
+  if (isIsoDate(trimmed)) return { key: 'date', value: trimmed };
+  const tenor = /^(\d+)\s*([dwmy])$/i.exec(trimmed);
+  if (tenor) return { key: 'tenor', value: `${tenor[1]}${tenor[2].toLowerCase()}` };
+  const years = parseNumber(trimmed);
+  return typeof years === 'number' ? { key: 'years', value: years } : { key: 'tenor', value: trimmed };
+}
+
+const pointTimeKeys = ['tenor', 'date', 'years'];
 
 /** "2027-03-15" or "0.25" -> {key, value} for a field that takes a date or years. */
 export function readWhen(text, dateKey, yearsKey) {
@@ -164,6 +182,12 @@ export function writeInput(doc, input) {
     setPath(doc, `${base}.${key}`, value);
     return `${base}.${key}`;
   }
+  if (role === 'point-time') {
+    const { key, value } = readTime(input.value);
+    for (const other of pointTimeKeys) setPath(doc, `${base}.${other}`, undefined);
+    setPath(doc, `${base}.${key}`, value === undefined ? '' : value); // an emptied time stays, refused beside it
+    return `${base}.${key}`;
+  }
   if (role === 'when') {
     const [dateKey, yearsKey] = input.dataset.keys.split(',');
     const { key, value } = readWhen(input.value, dateKey, yearsKey);
@@ -184,6 +208,8 @@ export function errorPathOf(doc, input) {
   if (role === 'expiry-date') return `${base}.expiry_date`;
   if (role === 'expiry-tenor') return `${base}.expiry_years`;
   if (role === 'exercise') return `${base}.exercise`;
+  if (role === 'point-time')
+    return `${base}.${pointTimeKeys.find((k) => getPath(doc, `${base}.${k}`) !== undefined) ?? 'tenor'}`;
   if (role === 'exercise-dates')
     return `${base}.${getPath(doc, `${base}.exercise_years`) !== undefined ? 'exercise_years' : 'exercise_dates'}`;
   if (role === 'when') {
@@ -205,6 +231,8 @@ export function fillInput(doc, input) {
   if (role === 'expiry-date') input.value = getPath(doc, `${base}.expiry_date`) ?? '';
   else if (role === 'expiry-tenor') input.value = tenorText(getPath(doc, `${base}.expiry_years`));
   else if (role === 'exercise') input.value = getPath(doc, `${base}.exercise`) ?? 'european';
+  else if (role === 'point-time')
+    input.value = tenorText(pointTimeKeys.map((k) => getPath(doc, `${base}.${k}`)).find((v) => v !== undefined));
   else if (role === 'exercise-dates') {
     const list = getPath(doc, `${base}.exercise_dates`) ?? getPath(doc, `${base}.exercise_years`) ?? [];
     input.value = Array.isArray(list) ? list.join(', ') : String(list);

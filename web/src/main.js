@@ -15,12 +15,14 @@ import { listenForEdits } from './edits.js';
 import { formatNumber } from './format.js';
 import { hedgePanel } from './hedge.js';
 import { localePicker } from './locale.js';
+import { marketEditor } from './market-editor.js';
 import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
 import { fillProfileRange } from './profile.js';
 import { recomputeCycle } from './recompute.js';
 import { describeWork, recentMenu } from './recent.js';
 import { fileActions, openingTrade, pageSeed } from './saving.js';
 import { simulatePanel } from './simulate.js';
+import { snapshotTools } from './snapshot.js';
 import { browserStore, commandsFrom, pageState } from './state.js';
 import { termsForm } from './terms.js';
 import { workStore } from './work.js';
@@ -74,12 +76,21 @@ const cycle = recomputeCycle({
   scope,
 });
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
+const market = marketEditor({
+  state,
+  refill: fillForm,
+  changed,
+  announce: (text) => notice(text, 'info', null, 'paste'),
+});
+const snapshot = snapshotTools({ state, live, refill: fillForm, changed });
 const files = fileActions({ state, work, live, refill: fillForm, changed });
 const recent = recentMenu({ work, state, adopt: files.adopt });
 
 /** Show the whole trade document: the terms form, every card's controls and their error lines. */
 function fillForm() {
+  market.fill(); // before the terms: the grid's and curves' cells are filled with the rest of the form
   terms.fill();
+  snapshot.showAge();
   fillProfileRange(state.doc);
   for (const card of cards) card.render();
   compare.render();
@@ -143,8 +154,10 @@ async function start() {
     desk.warmUp();
   });
   if (first.figures) setUpCards();
+  market.fill();
   terms.fill();
   compare.render();
+  snapshot.showAge();
   fillProfileRange(state.doc);
   bindControls();
   // The browser's number formats take some 30 ms to make the first time: make the two
@@ -165,6 +178,8 @@ async function start() {
   });
   byId('terms').addEventListener('submit', (event) => event.preventDefault());
   terms.wire();
+  market.wire();
+  snapshot.wire();
   files.wire();
   compare.wire();
   recent.wire();

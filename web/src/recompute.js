@@ -16,6 +16,7 @@ import { renderPrice, setResult } from './render.js';
 import { renderSheet } from './sheet.js';
 import { fingerprint } from './share.js';
 import { formatStamp } from './format.js';
+import { showMarketFigures } from './smile-chart.js';
 
 const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate', 'compare'];
 
@@ -122,6 +123,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     clearErrors();
     state.price = price;
     renderPrice(doc, price);
+    showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
     refreshSheet(doc, price, calls.fingerprinting);
@@ -144,6 +146,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   function showKept({ doc, price, profile, hedge: schedule }) {
     try {
       renderPrice(doc, price);
+      showMarketFigures(doc, price);
       renderCurrency(doc);
       if (profile) drawProfile(doc, price, profile);
       if (schedule) hedge.showSchedule(schedule);

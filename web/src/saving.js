@@ -12,6 +12,7 @@ import { EngineError } from './engine.js';
 import { contractKey } from './form.js';
 import { clearNotice, notice } from './messages.js';
 import { download, parseTradeText, slug, toBase64Url, tradeFileText, tradeFromHash } from './share.js';
+import { rememberedMarket } from './snapshot.js';
 
 const isTrade = (doc) => doc !== null && typeof doc === 'object' && !Array.isArray(doc);
 const pageAddress = () => location.href.split('#')[0];
@@ -31,6 +32,11 @@ export async function checkTradeText(text, live, what) {
   // a comparison opens whatever its alternatives hold (drafts too): the engine's refusal of one
   // is said beside the comparison once it is on the page, and nothing typed is lost
   if (isComparison(doc)) return comparisonProblem(doc) ? { why: comparisonProblem(doc) } : { doc };
+  const market = doc.market === undefined ? rememberedMarket() : null; // a trade without a market of its own
+  if (market) {
+    doc.market = market; // is priced in the snapshot imported on this page (snapshot.js)
+    text = JSON.stringify(doc);
+  }
   try {
     await live.call('price', text); // the text itself: the engine's checks (nesting, size) come first
   } catch (err) {
@@ -207,11 +213,13 @@ export function fileActions({ state, work, live, refill, changed }) {
   /** A fresh trade at the money, six months, European, valued today, at the spot on screen. */
   function newTrade() {
     const today = todayIso();
-    const spot = typeof state.doc.market?.spot === 'number' ? state.doc.market.spot : 100;
+    const snapshot = rememberedMarket(); // the market imported on this page, when there is one
+    const spotNow = snapshot?.spot ?? state.doc.market?.spot;
+    const spot = typeof spotNow === 'number' ? spotNow : 100;
     adopt(
       {
         valuation_date: today,
-        market: { spot, volatility: 0.25, rate: 0.03 },
+        market: snapshot ?? { spot, volatility: 0.25, rate: 0.03 },
         option: { type: 'call', strike: spot, expiry_date: addYears(today, 0.5) },
         quantity: 1000,
         side: 'buy',

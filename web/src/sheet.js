@@ -8,6 +8,7 @@
 import { byId, tableRow } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatSmart, formatWhen, inputText } from './format.js';
 import { describeContract, expiryText, methodName, priceText } from './render.js';
+import { marketAsOfText } from './snapshot.js';
 
 /** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
 function rows(table, entries) {
@@ -158,6 +159,7 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
   rows(byId('sheet-meta'), [
     ['Valuation date', formatDate(doc.valuation_date) ?? 'not given (times in years)'],
     ['Valued at', valuedAt],
+    ...(marketAsOfText(doc.market) ? [['Market as of', marketAsOfText(doc.market), 'market-as-of']] : []),
     [
       'Indicative until',
       formatWhen(text(quote.indicative_until)) ?? 'not stated: ask the desk before dealing',

@@ -7,6 +7,7 @@
 // gives one, else from the engine's sentence when it has the usual shape; anything else keeps
 // the engine's words after the field's name.
 import { formatNumber } from './format.js';
+import { gridWords, isMarketTablePath } from './grid-words.js';
 
 const relationWords = { '>': 'above', '>=': 'at least', '<': 'below', '<=': 'at most' };
 
@@ -26,6 +27,8 @@ function plain(x) {
 
 /** The field's name as its label shows it, with the row it sits in: "Volatility", "Leg 2 strike". */
 export function fieldName(input) {
+  const own = input.getAttribute('aria-label'); // a grid's cell names its row and column
+  if (own) return own;
   const holder = input.closest('label, fieldset');
   const caption = holder?.querySelector(':scope > span, :scope > legend');
   const first = caption?.firstChild;
@@ -43,6 +46,7 @@ export function fieldName(input) {
 // The engine's usual shapes after "<path>: must be ": "> 0, got -0.2", ">= -0.95 (a note), got -1.2",
 // "between 0 and 2, got 5", "between 1e-06 and 1e+09 (a note), got 1e-20". Short engine text, so these plain patterns cannot run long.
 const oneSided = /^must be (>=|<=|>|<) (-?[\d.e+-]+)( \([^)]*\))?, got (-?[\d.e+-]+)$/;
+const sidedNoteLast = /^must be (>=|<=|>|<) (-?[\d.e+-]+), got (-?[\d.e+-]+)( \([^)]*\))$/; // a grid's bound
 const between = /^must be between (-?[\d.e+-]+) and (-?[\d.e+-]+)( \([^)]*\))?, got (-?[\d.e+-]+)$/;
 
 /**
@@ -66,12 +70,18 @@ export function screenMessage(input, field, message, detail) {
     const tail = unit.converts ? '' : note;
     return `${name} must be ${relationWords[relation]} ${unit.show(Number(limit))}${tail}, got ${unit.show(Number(value))}`;
   }
+  const late = sidedNoteLast.exec(rest);
+  if (late) {
+    const [, relation, limit, value, note] = late;
+    return `${name} must be ${relationWords[relation]} ${unit.show(Number(limit))}, got ${unit.show(Number(value))}${unit.converts ? '' : note}`;
+  }
   const range = between.exec(rest);
   if (range) {
     const [, low, high, note = '', value] = range;
     const tail = unit.converts ? '' : note;
     return `${name} must be between ${unit.show(Number(low))} and ${unit.show(Number(high))}${tail}, got ${unit.show(Number(value))}`;
   }
+  if (isMarketTablePath(field)) return `${name}: ${gridWords(rest)}`;
   return `${name}: ${input.dataset.kind === 'index' ? screenNote(rest).replace(fromZero, fromOne) : rest}`;
 }
 
