@@ -40,9 +40,7 @@ market_data settle_currency_market(const market_data& quoted, currency_terms& te
     return m;
 }
 
-double forward_points(const currency_terms& terms, double spot) {
-    return (terms.forward - spot) / terms.pair.pip_size;
-}
+double forward_points(const currency_terms& terms, double spot) { return (terms.forward - spot) / terms.pair.pip_size; }
 
 forward_view forward_view_of(const market_data& m, double years) {
     return {m.spot, m.forward(years), m.rate.discount(0, years)};
@@ -90,8 +88,8 @@ double strike_for_currency_delta(const market_data& m, option_leg leg, delta_con
         leg.strike = std::exp(log_strike);
         return leg_delta_in(m, leg, convention) - delta;
     };
-    const bool adjusted =
-        convention == delta_convention::spot_premium_adjusted || convention == delta_convention::forward_premium_adjusted;
+    const bool adjusted = convention == delta_convention::spot_premium_adjusted ||
+                          convention == delta_convention::forward_premium_adjusted;
     if (adjusted && leg.type == payoff_kind::call) {
         // The falling branch starts at the highest delta: find it on a fine grid of strikes.
         constexpr int points = 2000;

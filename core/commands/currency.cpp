@@ -10,8 +10,9 @@ namespace hedgeleaf {
 
 namespace {
 
-const char* const pair_rates = "a currency pair takes domestic_rate (the quote currency's) and foreign_rate (the base "
-                               "currency's)";
+const char* const pair_rates =
+    "a currency pair takes domestic_rate (the quote currency's) and foreign_rate (the base "
+    "currency's)";
 
 std::string read_code(field_reader& r, const std::string& key) {
     const std::string code = r.text(key, 8);
@@ -29,8 +30,7 @@ quoted_rate read_quoted_rate(const json& node, const std::string& path) {
     require_at_least(out.rate, -max_abs_rate, q.child("rate"));
     require_at_most(out.rate, max_abs_rate, q.child("rate"));
     out.basis = enum_of<day_count>(day_counts, q.choice_or("day_count", day_counts, "ACT/360"));
-    out.compounds =
-        enum_of<compounding>(compoundings, q.choice_or("compounding", compoundings, "simple"));
+    out.compounds = enum_of<compounding>(compoundings, q.choice_or("compounding", compoundings, "simple"));
     q.finish();
     return out;
 }
@@ -60,8 +60,9 @@ date expiry_date_of(const currency_terms& terms, double years, const std::string
     const double days = years * 365;
     const long whole = std::lround(days);
     if (!(std::fabs(days - static_cast<double>(whole)) < 1e-6))
-        fail(path, "a currency option's expiry is a date: give expiry_date or expiry_tenor (valuation_date is the "
-                   "trade date)");
+        fail(path,
+             "a currency option's expiry is a date: give expiry_date or expiry_tenor (valuation_date is the "
+             "trade date)");
     return add_days(terms.dates.trade, whole);
 }
 
@@ -71,8 +72,8 @@ void settle_terms(currency_terms& terms, const date& expiry, const std::string& 
     terms.dates = settle_dates(trade, expiry, terms.spot_lag_days);
     if (terms.premium_date) {
         if (days_from_civil(*terms.premium_date) > days_from_civil(terms.dates.delivery))
-            fail("conventions.premium_date", "is " + to_iso(*terms.premium_date) + ", after the delivery date " +
-                                                 to_iso(terms.dates.delivery));
+            fail("conventions.premium_date",
+                 "is " + to_iso(*terms.premium_date) + ", after the delivery date " + to_iso(terms.dates.delivery));
         terms.dates.premium = *terms.premium_date;
     }
     const long days = days_from_civil(terms.dates.delivery) - days_from_civil(terms.dates.spot);
@@ -109,8 +110,8 @@ json premium_json(const trade& t, double value) {
     json all = json::object();
     for (std::size_t i = 0; i < premium_conventions.size(); ++i) {
         const auto convention = static_cast<premium_convention>(i);
-        const bool needs_strike = convention == premium_convention::percent_of_domestic ||
-                                  convention == premium_convention::foreign_pips;
+        const bool needs_strike =
+            convention == premium_convention::percent_of_domestic || convention == premium_convention::foreign_pips;
         all[premium_conventions[i]] = needs_strike && strike == 0
                                           ? json(nullptr)
                                           : json(premium_in(convention, value, spot, strike, c.pair.pip_size));
@@ -132,8 +133,7 @@ json delta_json(const trade& t, const trade_result& r) {
     const forward_view f = forward_view_of(t.market, c.volatility_years);
     json all = json::object();
     for (std::size_t i = 0; i < delta_conventions.size(); ++i)
-        all[delta_conventions[i]] =
-            delta_in(static_cast<delta_convention>(i), r.premium, r.sensitivities.delta, f);
+        all[delta_conventions[i]] = delta_in(static_cast<delta_convention>(i), r.premium, r.sensitivities.delta, f);
     const double value = all[to_string(c.delta)].get<double>();
     return {{"convention", to_string(c.delta)},
             {"value", value},
@@ -158,12 +158,12 @@ std::optional<currency_terms> read_underlying_kind(const json& document, const s
     terms.pair.pip_size = r.number_or("pip_size", default_pip_size(terms.pair.quote));
     require_positive(terms.pair.pip_size, r.child("pip_size"));
     require_at_most(terms.pair.pip_size, max_pip_size, r.child("pip_size"));
-    terms.spot_lag_days =
-        static_cast<int>(r.integer_or("spot_lag_days", default_spot_lag_days, 0, max_spot_lag_days));
+    terms.spot_lag_days = static_cast<int>(r.integer_or("spot_lag_days", default_spot_lag_days, 0, max_spot_lag_days));
     r.finish();
     if (!valuation_date)
-        fail("valuation_date", "is required for a currency pair: it is the trade date the spot and delivery dates "
-                               "count from");
+        fail("valuation_date",
+             "is required for a currency pair: it is the trade date the spot and delivery dates "
+             "count from");
     terms.dates.trade = *valuation_date;
     terms.premium_currency = terms.pair.quote;
     return terms;
@@ -176,8 +176,9 @@ market_data read_currency_market(const json& node, const years_reader& times, cu
     if (r.has("borrow")) fail(r.child("borrow"), "a currency pair has no borrow fee");
     if (r.has("dividends")) fail(r.child("dividends"), "a currency pair pays no dividends");
     if (r.has("underlying"))
-        fail(r.child("underlying"), "a currency pair is named by underlying.base and underlying.quote at the top of "
-                                    "the trade");
+        fail(r.child("underlying"),
+             "a currency pair is named by underlying.base and underlying.quote at the top of "
+             "the trade");
     market_data m;
     if (const auto text = r.text_optional("as_of", max_as_of_chars)) {
         parse_as_of(*text, r.child("as_of"));
@@ -206,13 +207,13 @@ std::optional<date> read_conventions(const json& document, currency_terms& terms
     const json* node = document.contains("conventions") ? &document.at("conventions") : nullptr;
     static const json empty = json::object();
     field_reader r(node ? *node : empty, "conventions");
-    terms.premium = enum_of<premium_convention>(
-        premium_conventions, r.choice_or("premium", premium_conventions, "domestic_per_foreign"));
+    terms.premium = enum_of<premium_convention>(premium_conventions,
+                                                r.choice_or("premium", premium_conventions, "domestic_per_foreign"));
     if (r.has("premium_currency")) {
         terms.premium_currency = read_code(r, "premium_currency");
         if (terms.premium_currency != terms.pair.base && terms.premium_currency != terms.pair.quote)
-            fail(r.child("premium_currency"), "must be " + terms.pair.base + " or " + terms.pair.quote + ", got " +
-                                                  terms.premium_currency);
+            fail(r.child("premium_currency"),
+                 "must be " + terms.pair.base + " or " + terms.pair.quote + ", got " + terms.premium_currency);
     }
     // A premium paid in the foreign currency is what the premium-adjusted deltas allow for.
     const bool foreign_premium = terms.premium_currency == terms.pair.base;
@@ -251,8 +252,8 @@ void settle_currency_trade(const json& document, std::optional<date> premium_dat
         fail("quantity", "a currency trade's size is its notional: {\"amount\": 5000000, \"currency\": \"" +
                              terms.pair.base + "\"}");
     if (!document.contains("notional"))
-        fail("notional", "is required for a currency pair: {\"amount\": 5000000, \"currency\": \"" + terms.pair.base +
-                             "\"}");
+        fail("notional",
+             "is required for a currency pair: {\"amount\": 5000000, \"currency\": \"" + terms.pair.base + "\"}");
     field_reader n(document.at("notional"), "notional");
     terms.notional_amount = n.number("amount");
     require_positive(terms.notional_amount, n.child("amount"));
@@ -269,8 +270,8 @@ void settle_currency_trade(const json& document, std::optional<date> premium_dat
                                           terms.pair.base);
         t.quantity = terms.notional_amount / strike;
     } else {
-        fail("notional.currency", "must be " + terms.pair.base + " or " + terms.pair.quote + ", got " +
-                                      terms.notional_currency);
+        fail("notional.currency",
+             "must be " + terms.pair.base + " or " + terms.pair.quote + ", got " + terms.notional_currency);
     }
 }
 
@@ -303,8 +304,9 @@ json write_currency_section(const trade& t, const trade_result& r) {
         {"rates",
          {{"domestic", rate_json(c.domestic, c.domestic_quoted)},
           {"foreign", rate_json(c.foreign, c.foreign_quoted)},
-          {"note", "zero_rate: continuously compounded ACT/365F from the spot date to the delivery date; "
-                   "discount_factor over the same days"}}},
+          {"note",
+           "zero_rate: continuously compounded ACT/365F from the spot date to the delivery date; "
+           "discount_factor over the same days"}}},
         {"forward", c.forward},
         {"forward_points", forward_points(c, t.market.spot)},
         {"discount_factor", c.discount},
@@ -312,9 +314,10 @@ json write_currency_section(const trade& t, const trade_result& r) {
          {{"rate", t.market.rate.first_rate()},
           {"carry", t.market.carry_yield.first_rate()},
           {"years", c.volatility_years},
-          {"note", "flat continuously compounded rate and carry over the volatility time: exp(-rate x years) is "
-                   "the domestic discount factor from delivery to the premium date, spot x exp((rate - carry) x "
-                   "years) the forward"}}},
+          {"note",
+           "flat continuously compounded rate and carry over the volatility time: exp(-rate x years) is "
+           "the domestic discount factor from delivery to the premium date, spot x exp((rate - carry) x "
+           "years) the forward"}}},
         {"notional",
          {{"amount", c.notional_amount},
           {"currency", c.notional_currency},

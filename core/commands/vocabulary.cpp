@@ -94,7 +94,6 @@ void currency_fields(json& f) {
     f["conventions.premium"] = by_default(one_of(premium_conventions), "domestic_per_foreign");
     f["conventions.premium_currency"] = json{{"type", "string"}};
     f["conventions.delta"] = one_of(delta_conventions);
-    f["conventions.premium_date"] = json{{"type", "string"}, {"maxLength", max_date_chars}};
 }
 
 void trade_fields(json& f) {

@@ -46,7 +46,14 @@ double growth_over(const quoted_rate& q, long days) {
 }
 
 double continuous_act365f(const quoted_rate& q, long days) {
-    return std::log(growth_over(q, days)) * 365.0 / static_cast<double>(days);
+    // ln(growth) x 365 / days, written so that no digits are lost to a growth near 1.
+    const double basis = q.basis == day_count::act_360 ? 360.0 : 365.0;
+    switch (q.compounds) {
+        case compounding::simple: return std::log1p(q.rate * static_cast<double>(days) / basis) * 365.0 / days;
+        case compounding::annual: return std::log1p(q.rate) * 365.0 / basis;
+        case compounding::continuous: return q.rate * 365.0 / basis;
+    }
+    return q.rate;
 }
 
 std::string to_string(day_count d) { return word_of(day_counts, d); }

@@ -68,7 +68,13 @@ double continuous_act365f(const quoted_rate& q, long days);
 /// How a premium is written (contract/limits.hpp premium_conventions, docs/currency.md), for a
 /// premium V in domestic per unit of foreign, spot S, strike K and pip p: V; V / p; 100 V / S
 /// (% of the foreign notional); 100 V / K (% of the domestic notional); V / (S K) / 0.0001.
-enum class premium_convention { domestic_per_foreign, domestic_pips, percent_of_foreign, percent_of_domestic, foreign_pips };
+enum class premium_convention {
+    domestic_per_foreign,
+    domestic_pips,
+    percent_of_foreign,
+    percent_of_domestic,
+    foreign_pips
+};
 /// Which delta a currency desk means: d(value)/d(spot) or d(value)/d(forward), each with or
 /// without the premium paid in the foreign currency taken off (premium-adjusted).
 enum class delta_convention { spot, forward, spot_premium_adjusted, forward_premium_adjusted };
@@ -82,15 +88,15 @@ struct currency_terms {
     std::string premium_currency;  ///< pair.base or pair.quote
     delta_convention delta = delta_convention::spot;
     std::optional<date> premium_date;  ///< as written (else the spot date)
-    double notional_amount = 0;  ///< as written, in notional_currency
+    double notional_amount = 0;        ///< as written, in notional_currency
     std::string notional_currency;
     /// Continuously compounded ACT/365F zero-rate curves from the trade date (a money-market
     /// quote becomes the flat rate with the same growth from the spot to the delivery date).
     curve domestic, foreign;
     std::optional<quoted_rate> domestic_quoted, foreign_quoted;  ///< as written, when quoted
-    double forward = 0;          ///< outright forward for the delivery date
-    double discount = 1;         ///< domestic discount factor from delivery back to the premium date
-    double volatility_years = 0; ///< trade -> expiry, ACT/365F
+    double forward = 0;                                          ///< outright forward for the delivery date
+    double discount = 1;          ///< domestic discount factor from delivery back to the premium date
+    double volatility_years = 0;  ///< trade -> expiry, ACT/365F
 };
 
 /// The words of contract/limits.hpp (day_counts, compoundings) and back.

@@ -51,9 +51,8 @@ inline const std::vector<std::string> command_sections = {"quote", "hedge", "sim
 /// `underlying.kind`: what the trade is written on (equity: a share or an index, the default).
 inline const std::vector<std::string> underlying_kinds = {"equity", "currency_pair"};
 /// `conventions.premium` of a currency pair (docs/currency.md), in the order of premium_convention.
-inline const std::vector<std::string> premium_conventions = {"domestic_per_foreign", "domestic_pips",
-                                                             "percent_of_foreign", "percent_of_domestic",
-                                                             "foreign_pips"};
+inline const std::vector<std::string> premium_conventions = {
+    "domestic_per_foreign", "domestic_pips", "percent_of_foreign", "percent_of_domestic", "foreign_pips"};
 /// `conventions.delta` of a currency pair, in the order of delta_convention.
 inline const std::vector<std::string> delta_conventions = {"spot", "forward", "spot_premium_adjusted",
                                                            "forward_premium_adjusted"};
@@ -119,7 +118,7 @@ inline constexpr std::size_t max_underlying_chars = 80;
 inline constexpr std::size_t max_as_of_chars = 40;
 inline constexpr int default_spot_lag_days = 2;  ///< business days from trade to spot (common practice)
 inline constexpr int max_spot_lag_days = 5;
-inline constexpr double max_pip_size = 1.0;  ///< a pip of a whole unit of the quote currency
+inline constexpr double max_pip_size = 1.0;         ///< a pip of a whole unit of the quote currency
 inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs/performance.md)
 
 // ---- quote ---------------------------------------------------------------

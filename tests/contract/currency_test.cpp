@@ -23,12 +23,12 @@ TEST_CASE("spot and delivery dates across weekends and month ends", "[currency]"
     // Calendar facts (checked with Python's datetime): 2026-12-03 is a Thursday, 2026-12-04 a
     // Friday, 2027-04-29 and 2027-12-30 Thursdays, 2027-09-03 a Friday, 2028-02-28 a Monday.
     // Spot two business days after the trade date, weekends only (common practice, T+2).
-    CHECK(add_business_days({2026, 12, 3}, 2) == date{2026, 12, 7});   // Thursday -> Monday
-    CHECK(add_business_days({2026, 12, 4}, 2) == date{2026, 12, 8});   // Friday -> Tuesday
-    CHECK(add_business_days({2027, 4, 29}, 2) == date{2027, 5, 3});    // across a month end
-    CHECK(add_business_days({2027, 12, 30}, 2) == date{2028, 1, 3});   // across a year end
-    CHECK(add_business_days({2028, 2, 28}, 2) == date{2028, 3, 1});    // through 29 February 2028
-    CHECK(add_business_days({2026, 12, 5}, 1) == date{2026, 12, 7});   // a Saturday: next Monday
+    CHECK(add_business_days({2026, 12, 3}, 2) == date{2026, 12, 7});  // Thursday -> Monday
+    CHECK(add_business_days({2026, 12, 4}, 2) == date{2026, 12, 8});  // Friday -> Tuesday
+    CHECK(add_business_days({2027, 4, 29}, 2) == date{2027, 5, 3});   // across a month end
+    CHECK(add_business_days({2027, 12, 30}, 2) == date{2028, 1, 3});  // across a year end
+    CHECK(add_business_days({2028, 2, 28}, 2) == date{2028, 3, 1});   // through 29 February 2028
+    CHECK(add_business_days({2026, 12, 5}, 1) == date{2026, 12, 7});  // a Saturday: next Monday
     CHECK(add_business_days({2026, 12, 3}, 0) == date{2026, 12, 3});
     const currency_dates d = settle_dates({2026, 12, 3}, {2027, 9, 3}, 2);
     CHECK(d.spot == date{2026, 12, 7});
