@@ -1,6 +1,8 @@
 // Hedgeleaf analytics: the client price (see client_price.hpp).
 #include "analytics/client_price.hpp"
 
+#include "numerics/rounding.hpp"
+
 #include <algorithm>
 #include <cmath>
 
@@ -13,8 +15,12 @@ namespace {
 double round_up(double x, double tick) { return std::ceil(x / tick - 1e-9) * tick; }
 double round_down(double x, double tick) { return std::floor(x / tick + 1e-9) * tick; }
 double round_near(double x, double tick) { return std::round(x / tick) * tick; }
-// Show 1.1, not 1.1000000000000001, after multiplying by a tick.
-double tidy(double x) { return x == 0 ? 0.0 : std::round(x * 1e10) / 1e10; }
+// A whole number of ticks, shown as 1.1 rather than 1.1000000000000001 at any price level
+// (and 0 rather than -1e-17 when it is no tick at all).
+double in_ticks(double x, double tick) {
+    const double n = std::round(x / tick);
+    return n == 0 ? 0.0 : round_significant(n * tick);
+}
 
 price_level level_of(double per_unit, double quantity, double spot) {
     return {per_unit, per_unit * quantity + 0.0, per_unit / spot};
@@ -47,9 +53,9 @@ client_price price_for_client(const trade& t, const trade_result& priced, const 
     }
     double shown_mid = mid;
     if (terms.tick) {
-        bid = tidy(round_down(bid, *terms.tick));
-        offer = tidy(round_up(offer, *terms.tick));
-        shown_mid = tidy(round_near(mid, *terms.tick));
+        bid = in_ticks(round_down(bid, *terms.tick), *terms.tick);
+        offer = in_ticks(round_up(offer, *terms.tick), *terms.tick);
+        shown_mid = in_ticks(round_near(mid, *terms.tick), *terms.tick);
     }
 
     const double q = t.quantity;
@@ -64,7 +70,7 @@ client_price price_for_client(const trade& t, const trade_result& priced, const 
     out.fraction_of_notional = out.per_unit / spot;
     out.notional = q * spot;
     out.desk_margin_total = (out.client_buys ? out.per_unit - mid : mid - out.per_unit) * q;
-    out.spread = terms.tick ? tidy(offer - bid) : offer - bid;
+    out.spread = terms.tick ? in_ticks(offer - bid, *terms.tick) : offer - bid;
     return out;
 }
 

@@ -5,6 +5,7 @@
 #include "contract/errors.hpp"
 #include "numerics/lattice.hpp"
 #include "numerics/lattice_price.hpp"
+#include "numerics/rounding.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -80,7 +81,7 @@ ladder_row row_of(const trade& t, const scenario& s, const scenario_value& v, co
     row.position_pnl = unsigned_zero(q * (v.value - today.value));
     row.position_delta = unsigned_zero(q * v.delta);
     row.position_gamma = unsigned_zero(q * v.gamma);
-    row.spot = tidy_decimal(t.market.spot * (1 + s.spot_shift));
+    row.spot = round_significant(t.market.spot * (1 + s.spot_shift));
     row.volatility = tidy_decimal(t.market.volatility + s.vol_shift);
     return row;
 }
@@ -95,7 +96,7 @@ double scenario_work(std::size_t scenarios, std::size_t legs, int steps) {
 
 scenario_value value_scenario(const trade& t, const scenario& s, int steps, smile_move move) {
     market_data m = t.market;
-    m.spot = tidy_decimal(t.market.spot * (1 + s.spot_shift));  // the spot shown in the row
+    m.spot = round_significant(t.market.spot * (1 + s.spot_shift));  // the spot shown in the row
     m.volatility = t.market.volatility + s.vol_shift;
     if (m.smile) {
         m.smile_shift += s.vol_shift;

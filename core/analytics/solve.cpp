@@ -4,6 +4,7 @@
 #include "analytics/leg_market.hpp"
 #include "analytics/strikes.hpp"
 #include "contract/errors.hpp"
+#include "contract/limits.hpp"
 #include "numerics/closed_form.hpp"
 #include "numerics/lattice_price.hpp"
 
@@ -280,6 +281,22 @@ solve_result solve_quantity(const trade& t, const solve_settings& settings) {
     return out;
 }
 
+// Why the premium is not smooth enough near a solution, naming the cause the user can act on.
+std::string why_not_smooth(const trade& t) {
+    const auto digital = [](const option_leg& l) {
+        return l.type == payoff_kind::digital_call || l.type == payoff_kind::digital_put;
+    };
+    if (std::any_of(t.legs.begin(), t.legs.end(), digital))
+        return "a digital leg's premium changes sharply near its strike, so no input gives the target exactly; "
+               "check the legs at the solution";
+    if (std::any_of(t.legs.begin(), t.legs.end(), on_lattice) && t.lattice.method != lattice_method::leisen_reimer)
+        return "the " + to_string(t.lattice.method) +
+               " lattice's premium moves in small jumps as its nodes cross the strikes (at any number of "
+               "steps); lattice.method \"leisen-reimer\" moves smoothly";
+    return "the premium moves in small jumps near the solution at lattice.steps " + std::to_string(t.lattice.steps) +
+           "; more steps make them smaller";
+}
+
 // The figures every solve reports: residual, evaluations, the position at the solution.
 void report_figures(const trade& t, const solve_settings& settings, solve_result& out) {
     const bool for_quantity = settings.unknown == solve_unknown::quantity;
@@ -292,9 +309,7 @@ void report_figures(const trade& t, const solve_settings& settings, solve_result
     out.position_premium = (t.client_sells ? -1.0 : 1.0) * out.quantity * out.premium_at_solution;
     out.within_tolerance = std::fabs(out.residual * out.quantity) <= target_tolerance * out.notional;
     if (!out.within_tolerance)
-        out.notes.push_back(
-            "the residual is larger than 1e-8 of notional: the premium jumps near the solution "
-            "(a digital leg or a coarse lattice); check the legs at the solution");
+        out.notes.push_back("the residual is larger than 1e-8 of notional: " + why_not_smooth(t));
     out.pricing = pricing_label(t.legs);
 }
 
@@ -309,7 +324,7 @@ double solver_net_premium(const market_data& market, const std::vector<option_le
 
 volatility_range default_volatility_range(const trade& t, std::optional<std::size_t> leg) {
     const bool any_lattice = std::any_of(t.legs.begin(), t.legs.end(), on_lattice);
-    const double floor = any_lattice ? 0.01 : 1e-4;
+    const double floor = any_lattice ? 0.01 : min_volatility;
     if (leg) return {floor, highest_volatility(t.legs[*leg].expiry_years)};
     if (!t.market.smile) return {floor, highest_volatility(t.final_expiry_years())};
     // The parallel move that keeps every leg between the floor and its lattice's limit.

@@ -42,7 +42,7 @@ std::vector<double> read_spot_list(field_reader& r, const std::string& key) {
     for (std::size_t i = 0; i < given->size(); ++i) {
         const double x = as_number((*given)[i], index_path(path, i));
         require_positive(x, index_path(path, i));
-        require_at_most(x, max_price_level, index_path(path, i));
+        require_at_most(x, max_scenario_level, index_path(path, i));
         spots.push_back(x);
     }
     std::sort(spots.begin(), spots.end());
@@ -60,7 +60,7 @@ comparison_settings read_settings(field_reader& c) {
     if (s.spot_low) require_positive(*s.spot_low, c.child("spot_low"));
     if (s.spot_high) {
         require_positive(*s.spot_high, c.child("spot_high"));
-        require_at_most(*s.spot_high, max_price_level, c.child("spot_high"));
+        require_at_most(*s.spot_high, max_scenario_level, c.child("spot_high"));
     }
     if (s.spot_low && s.spot_high && !(*s.spot_high > *s.spot_low))
         fail(c.child("spot_high"),

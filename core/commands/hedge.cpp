@@ -46,7 +46,7 @@ std::vector<double> read_spots(field_reader& r) {
     for (std::size_t i = 0; i < list.size(); ++i) {
         const double s = as_number(list[i], index_path(path, i));
         require_positive(s, index_path(path, i));
-        require_at_most(s, max_price_level, index_path(path, i));
+        require_at_most(s, max_scenario_level, index_path(path, i));
         spots.push_back(s);
     }
     return spots;

@@ -313,4 +313,30 @@ void require_at_least(double value, double limit, const std::string& path) {
     if (!(value >= limit)) fail_bound(path, value, ">=", limit);
 }
 
+namespace {
+// Zero, negative and too large read as they always have ("must be > 0", "must be <= 5"); a
+// positive value below the floor names the whole range and why it is there.
+void require_between(double value, double lo, double hi, const std::string& path, const std::string& why) {
+    require_positive(value, path);
+    require_at_most(value, hi, path);
+    if (!(value >= lo))
+        fail(path, "must be between " + format_number(lo) + " and " + format_number(hi) + why + ", got " +
+                       format_number(value));
+}
+}  // namespace
+
+void require_price_level(double value, const std::string& path) {
+    require_between(value, min_price_level, max_price_level, path,
+                    " (outside that range a price level is a typo, not a trade)");
+}
+void require_volatility(double value, const std::string& path) {
+    require_between(value, min_volatility, max_volatility, path,
+                    " (" + format_number(min_volatility * 100) + " % to " + format_number(max_volatility * 100) +
+                        " % a year, as a decimal)");
+}
+void require_tick(double tick, double spot, const std::string& path) {
+    require_between(tick, spot * min_tick_fraction, spot, path,
+                    " (from " + format_number(min_tick_fraction) + " of spot " + format_number(spot) + " to spot)");
+}
+
 }  // namespace hedgeleaf

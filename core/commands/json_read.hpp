@@ -73,5 +73,12 @@ void require_positive(double value, const std::string& path);
 void require_non_negative(double value, const std::string& path);
 void require_at_most(double value, double limit, const std::string& path);
 void require_at_least(double value, double limit, const std::string& path);
+/// A price level (spot, typed strike, payout): between min_price_level and max_price_level,
+/// the range named in the message: "must be between 1e-06 and 1e+09 (...), got 1e-20".
+void require_price_level(double value, const std::string& path);
+/// A volatility: between min_volatility and max_volatility, in the same words.
+void require_volatility(double value, const std::string& path);
+/// A tick (quote.tick, strike_tick): at least min_tick_fraction of spot and at most spot.
+void require_tick(double tick, double spot, const std::string& path);
 
 }  // namespace hedgeleaf

@@ -281,15 +281,13 @@ market_data read_market(const json& node, const years_reader& times, const std::
     }
     m.underlying = read_underlying(r);
     m.spot = r.number("spot");
-    require_positive(m.spot, r.child("spot"));
-    require_at_most(m.spot, max_price_level, r.child("spot"));
+    require_price_level(m.spot, r.child("spot"));
     // One number is checked at once (as always); a grid after the curves it needs.
     const json& volatility = r.raw("volatility");
     const bool grid = volatility.is_object();
     if (!grid) {
         m.volatility = as_number(volatility, r.child("volatility"));
-        require_positive(m.volatility, r.child("volatility"));
-        require_at_most(m.volatility, max_volatility, r.child("volatility"));
+        require_volatility(m.volatility, r.child("volatility"));
     }
     m.rate = read_curve(r, "rate", times, true, -max_abs_rate);
     m.carry_yield = read_curve(r, "carry_yield", times, false, -max_abs_rate);

@@ -39,7 +39,7 @@ profile_settings read_profile_settings(const json& document, const trade& t) {
     s.spot_low = r.number_or("spot_low", 0.5 * spot);
     s.spot_high = r.number_or("spot_high", 1.5 * spot);
     require_positive(s.spot_low, r.child("spot_low"));
-    require_at_most(s.spot_high, max_price_level, r.child("spot_high"));
+    require_at_most(s.spot_high, max_scenario_level, r.child("spot_high"));
     if (!(s.spot_high > s.spot_low))
         fail(r.child("spot_high"),
              "must be above spot_low " + format_number(s.spot_low) + ", got " + format_number(s.spot_high));

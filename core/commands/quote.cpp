@@ -186,8 +186,7 @@ std::optional<quote_terms> read_quote_terms(const json& document, const trade& t
     check_margin(t, q.margin_type, q.margin, margin_path);
     q.tick = r.number_optional("tick");
     if (q.tick) {
-        require_positive(*q.tick, r.child("tick"));
-        require_at_most(*q.tick, t.market.spot, r.child("tick"));
+        require_tick(*q.tick, t.market.spot, r.child("tick"));
     }
     q.two_way = r.boolean_or("two_way", false);
     q.label = optional_text(r, "label", max_label_chars);

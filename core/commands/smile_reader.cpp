@@ -91,6 +91,7 @@ double read_vol(const json& value, std::size_t i, std::size_t j, double years, c
     const std::string field = at.vol(i, j), prefix = at.vol_at(i, j);
     const double v = as_number(value, field);
     check_bound(v > 0, field, prefix, v, ">", 0);
+    check_bound(v >= min_volatility, field, prefix, v, ">=", min_volatility);
     check_bound(v <= max_volatility, field, prefix, v, "<=", max_volatility,
                 v <= 100 * max_volatility ? " (volatilities are decimals: 0.25 = 25 %)" : "");
     const double highest = highest_volatility(years);

@@ -69,7 +69,7 @@ void read_quantity_terms(field_reader& r, solve_settings& s) {
     require_at_most(s.budget, max_budget, budget_path);
     s.lot_size = r.number_optional("lot_size");
     if (s.lot_size) {
-        require_positive(*s.lot_size, r.child("lot_size"));
+        require_at_least(*s.lot_size, min_lot_size, r.child("lot_size"));
         require_at_most(*s.lot_size, max_quantity, r.child("lot_size"));
     }
 }

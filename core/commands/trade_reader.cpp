@@ -82,8 +82,7 @@ double read_payout(field_reader& r, const option_leg& leg) {
         fail(r.child("exercise"), "digital options are European only, got \"" + to_string(leg.exercise) + "\"");
     if (digital) {
         const double payout = r.number_or("payout", 1.0);
-        require_positive(payout, r.child("payout"));
-        require_at_most(payout, max_price_level, r.child("payout"));
+        require_price_level(payout, r.child("payout"));
         return payout;
     }
     if (r.has("payout")) {
@@ -128,8 +127,7 @@ strike_terms read_strike_terms(const json& value, const std::string& path, payof
     strike_terms out;
     if (!value.is_object()) {
         out.value = as_number(value, path);
-        require_positive(out.value, path);
-        require_at_most(out.value, max_price_level, path);
+        require_price_level(out.value, path);
         out.unrounded = out.value;
         return out;
     }
@@ -360,8 +358,7 @@ trade read_trade(const json& document) {
     }
     t.strike_tick = r.number_optional("strike_tick");
     if (t.strike_tick) {
-        require_positive(*t.strike_tick, "strike_tick");
-        require_at_most(*t.strike_tick, t.market.spot, "strike_tick");
+        require_tick(*t.strike_tick, t.market.spot, "strike_tick");
     }
 
     read_contract(r, times, t);

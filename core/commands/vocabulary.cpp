@@ -28,14 +28,16 @@ json at_most(json rules, const json& hi) { return with(std::move(rules), "maximu
 json between(json rules, const json& lo, const json& hi) { return at_most(at_least(std::move(rules), lo), hi); }
 json positive_up_to(const json& hi) { return at_most(above(number_field(), 0), hi); }
 json by_default(json rules, const json& value) { return with(std::move(rules), "default", value); }
+json price_level() { return between(number_field(), min_price_level, max_price_level); }
+json volatility_field() { return between(number_field(), min_volatility, max_volatility); }
 json one_of(const std::vector<std::string>& words) { return json{{"enum", words}}; }
 json list_of(std::size_t min_items, std::size_t max_items) {
     return json{{"type", "array"}, {"minItems", min_items}, {"maxItems", max_items}};
 }
 
 void market_fields(json& f) {
-    f["market.spot"] = positive_up_to(max_price_level);
-    f["market.volatility"] = positive_up_to(max_volatility);
+    f["market.spot"] = price_level();
+    f["market.volatility"] = volatility_field();
     f["market.rate"] = between(number_field(), -max_abs_rate, max_abs_rate);
     f["market.carry_yield"] = by_default(between(number_field(), -max_abs_rate, max_abs_rate), 0);
     f["market.dividends"] = json{{"type", "array"}, {"maxItems", max_dividends}};
@@ -51,7 +53,7 @@ void market_fields(json& f) {
     f["market.volatility.strikes[]"] = above(number_field(), 0);
     f["market.volatility.vols"] = list_of(1, max_smile_expiries);
     f["market.volatility.vols[]"] = list_of(1, max_smile_strikes);
-    f["market.volatility.vols[][]"] = positive_up_to(max_volatility);
+    f["market.volatility.vols[][]"] = volatility_field();
     // Curves (rate, carry_yield and borrow as objects; the numbers' bounds above).
     for (const char* name : {"rate", "carry_yield", "borrow", "domestic_rate", "foreign_rate"}) {
         const std::string at = std::string("market.") + name + ".points";
@@ -63,7 +65,7 @@ void market_fields(json& f) {
 
 // The option fields of `option` and of every `legs` element.
 void option_fields(json& f, const std::string& at) {
-    f[at + ".strike"] = positive_up_to(max_price_level);
+    f[at + ".strike"] = price_level();
     f[at + ".strike.percent_of_spot"] = positive_up_to(max_strike_percent);
     f[at + ".strike.percent_of_forward"] = positive_up_to(max_strike_percent);
     f[at + ".expiry_years"] = positive_up_to(max_expiry_years);
@@ -72,7 +74,7 @@ void option_fields(json& f, const std::string& at) {
     f[at + ".exercise_dates"] = list_of(1, max_exercise_dates);
     f[at + ".exercise_years"] = list_of(1, max_exercise_dates);
     f[at + ".exercise_years[]"] = above(number_field(), 0);
-    f[at + ".payout"] = by_default(positive_up_to(max_price_level), 1);
+    f[at + ".payout"] = by_default(price_level(), 1);
 }
 
 // A currency pair (docs/currency.md): the pair, its rates, its notional and its conventions.
@@ -108,7 +110,7 @@ void trade_fields(json& f) {
         most_strikes = std::max(most_strikes, static_cast<std::size_t>(shape_strike_count(shape)));
     f["structure.shape"] = one_of(structure_shapes());
     f["structure.strikes"] = list_of(1, most_strikes);
-    f["structure.strikes[]"] = positive_up_to(max_price_level);
+    f["structure.strikes[]"] = price_level();
     f["structure.strikes[].percent_of_spot"] = positive_up_to(max_strike_percent);
     f["structure.strikes[].percent_of_forward"] = positive_up_to(max_strike_percent);
     f["structure.expiry_years"] = positive_up_to(max_expiry_years);
@@ -142,7 +144,7 @@ void solve_fields(json& f) {
     f["solve.lower"] = above(number_field(), 0);
     f["solve.upper"] = above(number_field(), 0);
     f["solve.budget"] = positive_up_to(max_budget);
-    f["solve.lot_size"] = positive_up_to(max_quantity);
+    f["solve.lot_size"] = between(number_field(), min_lot_size, max_quantity);
 }
 
 void ladder_fields(json& f) {
@@ -161,7 +163,7 @@ void ladder_fields(json& f) {
 
 void profile_fields(json& f) {
     f["profile.spot_low"] = above(number_field(), 0);
-    f["profile.spot_high"] = at_most(number_field(), max_price_level);
+    f["profile.spot_high"] = at_most(number_field(), max_scenario_level);
     f["profile.points"] = by_default(between(whole_field(), 2, max_profile_points), default_profile_points);
     f["profile.steps"] = by_default(between(whole_field(), 1, max_profile_steps), default_ladder_steps);
     f["profile.finance_premium"] = json{{"type", "boolean"}, {"default", false}};
@@ -183,7 +185,7 @@ void hedge_fields(json& f) {
     f["hedge.path.volatility"] = between(number_field(), 0, max_volatility);
     f["hedge.path.seed"] = by_default(between(whole_field(), 0, max_seed), 1);
     f["hedge.path.spots"] = list_of(1, max_rebalancing_dates);
-    f["hedge.path.spots[]"] = positive_up_to(max_price_level);
+    f["hedge.path.spots[]"] = positive_up_to(max_scenario_level);
     f["hedge.path.moves"] = json{{"type", "string"}, {"maxLength", max_moves_chars}};
     f["hedge.path.nodes"] = list_of(2, static_cast<std::size_t>(max_tree_steps) + 1);
     f["hedge.path.nodes[]"] = between(whole_field(), 0, max_tree_steps);
@@ -244,6 +246,11 @@ json limits() {
                 {"first_year", min_year},
                 {"last_year", max_year},
                 {"spread", max_spread},
+                {"price_level_floor", min_price_level},
+                {"price_level_ceiling", max_price_level},
+                {"scenario_spot_ceiling", max_scenario_level},
+                {"tick_fraction_floor", min_tick_fraction},
+                {"volatility_floor", min_volatility},
                 {"ladder_volatility_floor", min_ladder_volatility},
                 {"ladder_axis_points", max_points_per_axis},
                 {"ladder_grid_cells", max_grid_cells},

@@ -89,9 +89,23 @@ inline constexpr std::size_t max_tenor_chars = 6;  ///< "18250d"
 
 // ---- market and trade ----------------------------------------------------
 
-inline constexpr double max_price_level = 1e9;  ///< spot, strike, payout, spots: larger is a typo, not a trade
-inline constexpr double max_abs_rate = 1.0;     ///< rate, carry yield, drift: +-100 % a year, negative allowed
-inline constexpr double max_volatility = 5.0;   ///< 500 % a year
+/// Spot, a typed strike, a payout, a path's spots: outside [min, max] a price level is a typo, not a
+/// trade. Inside it every figure scales with the price level (the lattice, the Greeks and the
+/// rounding work in relative terms), so a spot of 1e-6 prices like one of 1 with the strike scaled.
+inline constexpr double min_price_level = 1e-6;
+inline constexpr double max_price_level = 1e9;
+/// Spots a scenario may reach (ladders, profiles, hedge paths): today's highest spot moved up
+/// by the largest spot shift.
+inline constexpr double max_scenario_level = 5e9;
+/// A tick (quote.tick, strike_tick) smaller than this fraction of spot is below any market's
+/// resolution and would overflow the rounding (price / tick).
+inline constexpr double min_tick_fraction = 1e-9;
+/// A lot (solve.lot_size) smaller than this many units is a typo.
+inline constexpr double min_lot_size = 1e-6;
+/// 0.1 % a year: below it a lattice's up and down moves differ by less than rounding.
+inline constexpr double min_volatility = 1e-3;
+inline constexpr double max_abs_rate = 1.0;    ///< rate, carry yield, drift: +-100 % a year, negative allowed
+inline constexpr double max_volatility = 5.0;  ///< 500 % a year
 /// The widest spread of log-spot a lattice holds: volatility x sqrt(years to the
 /// last expiry). Beyond about 26 the spots that carry a call's value lie past
 /// e^500 from spot, where a double-precision lattice clamps them; 20 keeps a
@@ -178,9 +192,11 @@ inline constexpr int max_ladder_steps = 2001;
 /// Node updates a ladder or a profile may ask for (scenarios x legs x steps^2 / 2 for the
 /// fine and coarse lattices): about a second natively.
 inline constexpr double max_ladder_work = 2e9;
-inline constexpr double min_ladder_volatility = 1e-3;
+inline constexpr double min_ladder_volatility = min_volatility;
 inline constexpr double min_spot_shift = -0.95;  ///< spot 95 % lower
 inline constexpr double max_spot_shift = 4.0;    ///< spot five times today's
+static_assert(max_scenario_level == max_price_level * (1 + max_spot_shift),
+              "a scenario reaches the highest spot moved up");
 /// A ladder axis when the section gives none: from, to, step.
 struct axis_defaults {
     double from, to, step;

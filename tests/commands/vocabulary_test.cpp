@@ -202,9 +202,11 @@ bool states(const std::string& message, const std::string& rule, const json& rul
            (whole && message.find(std::to_string(static_cast<long long>(bound))) != std::string::npos);
 }
 
-/// A value just past a bound: integers by one, other numbers by half their size (at least 1).
+/// A value just past a bound: integers by one, other numbers by half their size (at least 1);
+/// below a positive floor under 1 (a price level's 1e-6, a volatility's 0.001), half the floor.
 json past(double bound, int direction, bool whole) {
     if (whole) return static_cast<long long>(bound) + direction;
+    if (direction < 0 && bound > 0 && bound < 1) return bound * 0.5;
     return bound + direction * std::max(1.0, std::fabs(bound) * 0.5);
 }
 
