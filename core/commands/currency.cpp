@@ -186,13 +186,11 @@ market_data read_currency_market(const json& node, const years_reader& times, cu
     }
     m.underlying = terms.pair.name();
     m.spot = r.number("spot");
-    require_positive(m.spot, r.child("spot"));
-    require_at_most(m.spot, max_price_level, r.child("spot"));
+    require_price_level(m.spot, r.child("spot"));
     const json& volatility = r.raw("volatility");
     if (!volatility.is_object()) {
         m.volatility = as_number(volatility, r.child("volatility"));
-        require_positive(m.volatility, r.child("volatility"));
-        require_at_most(m.volatility, max_volatility, r.child("volatility"));
+        require_volatility(m.volatility, r.child("volatility"));
     }
     read_pair_rate(r, "domestic_rate", times, terms.domestic, terms.domestic_quoted);
     read_pair_rate(r, "foreign_rate", times, terms.foreign, terms.foreign_quoted);
