@@ -52,7 +52,7 @@ test('the limits and bounds it states are the ones the module enforces', () => {
     /nested more than 64 levels/,
   );
   const volatility = vocabulary.fields['market.volatility'];
-  assert.deepEqual(volatility, { type: 'number', exclusiveMinimum: 0, maximum: 5 });
+  assert.deepEqual(volatility, { type: 'number', minimum: 0.001, maximum: 5 });
   const tooHigh = refusal('price', { ...put, market: { ...put.market, volatility: volatility.maximum + 0.5 } });
   assert.equal(tooHigh.message, `market.volatility: must be <= ${volatility.maximum}, got 5.5`);
   const methods = vocabulary.fields['lattice.method'];
