@@ -122,8 +122,9 @@ export interface EngineError {
 
 /** Trade document (the file the CLI reads); the full format is schema/trade.schema.json. */
 export interface TradeDocument {
-  valuation_date?: string;               // YYYY-MM-DD; lets other fields be dates
-  market: Market;
+  valuation_date?: string;               // YYYY-MM-DD; lets other fields be dates; a pair's trade date (required)
+  underlying?: Underlying;               // default: an equity
+  market: Market | CurrencyMarket;       // CurrencyMarket for a currency pair
   option?: OptionTerms;                  // exactly one of option, legs, structure
   legs?: (OptionTerms & { quantity: number })[] | { type: "stock"; quantity: number }[];
   structure?: {
@@ -133,7 +134,9 @@ export interface TradeDocument {
     exercise?: "european" | "american";
   };
   strike_tick?: number;                  // > 0: derived and solved strikes round to a multiple of it
-  quantity?: number;                     // > 0, default 1
+  quantity?: number;                     // > 0, default 1 (not for a currency pair: notional)
+  notional?: { amount: number; currency: string };  // a currency pair's size, in its base or quote currency
+  conventions?: CurrencyConventions;     // a currency pair's quoting conventions
   side?: "buy" | "sell";                 // the client's side, default buy
   lattice?: { method?: "leisen-reimer" | "crr" | "jarrow-rudd" | "tian"; steps?: number; extrapolate?: boolean };
   // Sections read by their own commands (schema/trade.schema.json): quote, hedge, simulate, solve, ladder, profile.
@@ -150,6 +153,64 @@ export interface Market {
   carry_yield?: number | Curve;          // decimal, -1..1, default 0
   borrow?: number | Curve;               // stock-loan fee, decimal, 0..1, default 0
   dividends?: { date?: string; time_years?: number; amount: number }[];
+}
+
+/** What the trade is written on (docs/currency.md). A pair BASE/QUOTE is quoted in QUOTE per one BASE. */
+export type Underlying =
+  | { kind: "equity" }
+  | { kind: "currency_pair";
+      base: string; quote: string;       // ISO 4217 codes (three capital letters); base = foreign, quote = domestic
+      pip_size?: number;                 // > 0, <= 1; default 0.01 for a JPY quote, else 0.0001
+      spot_lag_days?: number;            // 0..5 business days (weekends only), default 2
+    };
+
+/** A currency pair's market: the two currencies' rates instead of rate, carry_yield, borrow, dividends. */
+export interface CurrencyMarket {
+  as_of?: string;
+  spot: number;                          // quote currency per one base unit, > 0
+  volatility: number | VolatilityGrid;
+  domestic_rate: number | Curve | MoneyMarketRate;  // the quote currency's
+  foreign_rate: number | Curve | MoneyMarketRate;   // the base currency's
+}
+
+/** A money-market quote, converted exactly to the continuous ACT/365F rate over spot -> delivery. */
+export interface MoneyMarketRate {
+  rate: number;                          // decimal, -1..1
+  day_count?: "ACT/360" | "ACT/365";     // default ACT/360
+  compounding?: "simple" | "annual" | "continuous";  // default simple
+}
+
+export type PremiumConvention =
+  "domestic_per_foreign" | "domestic_pips" | "percent_of_foreign" | "percent_of_domestic" | "foreign_pips";
+export type DeltaConvention = "spot" | "forward" | "spot_premium_adjusted" | "forward_premium_adjusted";
+
+export interface CurrencyConventions {
+  premium?: PremiumConvention;           // default domestic_per_foreign
+  premium_currency?: string;             // the base or the quote currency, default the quote
+  premium_date?: string;                 // YYYY-MM-DD, default the spot date; trade date .. delivery date
+  delta?: DeltaConvention;               // default spot_premium_adjusted when paid in the base currency, else spot
+}
+
+/** The `currency` section of a currency pair's price result (docs/currency.md). */
+export interface CurrencySection {
+  pair: string; base: string; quote: string; pip_size: number; spot_lag_days: number;
+  dates: { trade: string; spot: string; expiry: string; delivery: string; premium: string };
+  years: { volatility: number; discounting: number; forward: number };  // ACT/365F
+  rates: { domestic: CurrencyRate; foreign: CurrencyRate; note: string };
+  forward: number;                       // outright forward for the delivery date
+  forward_points: number;                // (forward - spot) / pip_size
+  discount_factor: number;               // domestic, delivery back to the premium date
+  lattice: { rate: number; carry: number; years: number; note: string };
+  notional: { amount: number; currency: string; [currency: string]: number | string | null };
+  premium: { convention: PremiumConvention; value: number | null; currency: string; amount: number;
+             in_each_convention: Record<PremiumConvention, number | null>; note: string };
+  delta: { convention: DeltaConvention; value: number; in_each_convention: Record<DeltaConvention, number>;
+           [position: string]: unknown };  // position_<BASE>: the position's delta in base currency
+}
+export interface CurrencyRate {
+  zero_rate: number;                     // continuous ACT/365F, spot -> delivery
+  discount_factor: number;
+  quoted: MoneyMarketRate | null;
 }
 
 /** A market snapshot file: a market that says when it was taken. */
@@ -193,6 +254,8 @@ export interface PriceResult {
   early_exercise_premium: number | null; // premium - closed_form.premium; null when all legs are European
   lattice: { method: string; steps: number; coarse_steps: number; extrapolated: boolean; error_estimate: number };
   replication: { spot: number; shares: number; cash: number; value: number };  // per unit: shares*spot + cash = value
+  // (A currency pair's results name "foreign" wherever an equity's name "shares": replication.foreign, ...)
+  currency?: CurrencySection;            // a currency pair only
   position: { quantity: number; side: "buy" | "sell"; premium: number; greeks: Greeks };  // signed by side
   legs: { type: string; quantity: number; premium: number; greeks: Greeks; closed_form_premium: number;
           error_estimate: number; strike?: number; expiry_years?: number; exercise?: string;

@@ -11,9 +11,6 @@
 
 namespace hedgeleaf {
 
-namespace {
-
-// The highest volatility anywhere on the market (the smile's highest cell), for a search range.
 double widest_volatility(const market_data& m) {
     double v = m.volatility;
     if (m.smile)
@@ -21,6 +18,8 @@ double widest_volatility(const market_data& m) {
             for (double x : row) v = std::max(v, x);
     return v + std::max(0.0, m.smile_shift);
 }
+
+namespace {
 
 double strike_for_delta(const market_data& m, option_leg leg, double delta, const std::string& path) {
     const bool call = leg.type == payoff_kind::call;

@@ -22,6 +22,10 @@ double strike_from_terms(const market_data& market, const option_leg& leg, const
 /// The spot delta of `leg` as a European option at its own volatility (for strikes by delta).
 double spot_delta(const market_data& market, const option_leg& leg);
 
+/// The highest volatility anywhere on the market (the smile's highest cell, shifted): the
+/// width of a strike search.
+double widest_volatility(const market_data& m);
+
 /// `strike` rounded to the nearest multiple of `tick` (tidy decimals: 102.5, not 102.50000000001).
 double round_to_tick(double strike, double tick);
 

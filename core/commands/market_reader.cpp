@@ -112,32 +112,6 @@ curve read_points(const json& list, const point_place& place, const years_reader
     return curve::from_points(std::move(years), std::move(rates));
 }
 
-/// `rate`, `carry_yield` or `borrow`: one number, or a curve {"points": [...]} or {"table": "..."}.
-curve read_curve(field_reader& r, const std::string& key, const years_reader& times, bool required, double floor) {
-    const json* node = required ? &r.raw(key) : r.raw_optional(key);
-    if (!node) return curve::flat(0);
-    const std::string path = r.child(key);
-    if (!node->is_object()) {
-        const double rate = as_number(*node, path);
-        check_rate(rate, floor, path, "");
-        return curve::flat(rate);
-    }
-    field_reader c(*node, path);
-    const json* table = c.raw_optional("table");
-    const json* points = c.raw_optional("points");
-    if (table && points) fail(c.child("table"), "give the curve either as points or as table text, not both");
-    if (!table && !points) {
-        c.finish();  // an unknown key is the likelier mistake
-        fail(c.child("points"), "is required: a curve is {\"points\": [{\"tenor\": \"3m\", \"rate\": 0.031}, ...]}");
-    }
-    c.finish();
-    if (points) return read_points(*points, {c.child("points"), {}}, times, floor);
-    const std::string field = c.child("table");
-    if (!table->is_string()) fail(field, "must be text, one point a line: time, rate; got " + describe(*table));
-    const curve_table parsed = read_curve_table(table->get<std::string>(), {field});
-    return read_points(parsed.curve["points"], {field, parsed.lines}, times, floor);
-}
-
 void read_dividends(field_reader& r, const years_reader& times, market_data& m) {
     const json* divs = r.raw_optional("dividends");
     if (!divs) return;
@@ -187,6 +161,31 @@ int digits(const std::string& s, std::size_t from, std::size_t count) {
 }
 
 }  // namespace
+
+curve read_curve(field_reader& r, const std::string& key, const years_reader& times, bool required, double floor) {
+    const json* node = required ? &r.raw(key) : r.raw_optional(key);
+    if (!node) return curve::flat(0);
+    const std::string path = r.child(key);
+    if (!node->is_object()) {
+        const double rate = as_number(*node, path);
+        check_rate(rate, floor, path, "");
+        return curve::flat(rate);
+    }
+    field_reader c(*node, path);
+    const json* table = c.raw_optional("table");
+    const json* points = c.raw_optional("points");
+    if (table && points) fail(c.child("table"), "give the curve either as points or as table text, not both");
+    if (!table && !points) {
+        c.finish();  // an unknown key is the likelier mistake
+        fail(c.child("points"), "is required: a curve is {\"points\": [{\"tenor\": \"3m\", \"rate\": 0.031}, ...]}");
+    }
+    c.finish();
+    if (points) return read_points(*points, {c.child("points"), {}}, times, floor);
+    const std::string field = c.child("table");
+    if (!table->is_string()) fail(field, "must be text, one point a line: time, rate; got " + describe(*table));
+    const curve_table parsed = read_curve_table(table->get<std::string>(), {field});
+    return read_points(parsed.curve["points"], {field, parsed.lines}, times, floor);
+}
 
 double years_reader::years_from_date(const json& value, const std::string& path) const {
     if (!value.is_string()) fail(path, "must be a date written YYYY-MM-DD, got " + describe(value));

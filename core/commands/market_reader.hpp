@@ -28,6 +28,11 @@ struct years_reader {
     double time_point(const json& value, const std::string& path, const std::string& prefix = "") const;
 };
 
+/// `key` of `r` (`rate`, `carry_yield`, `borrow`, a pair's `domestic_rate`...): one number, or
+/// a curve {"points": [...]} or {"table": "..."}; a flat 0 when absent and not `required`.
+/// Rates below `floor` (-max_abs_rate, or 0 for a fee) are refused.
+curve read_curve(field_reader& r, const std::string& key, const years_reader& times, bool required, double floor);
+
 /// The date of an ISO 8601 date-time ("2026-12-03T16:30:00Z", "2026-12-03T17:30+01:00",
 /// seconds and the zone optional); throws input_error naming `path` for anything else.
 date parse_as_of(const std::string& text, const std::string& path);

@@ -2,6 +2,7 @@
 #include "commands/price.hpp"
 
 #include "analytics/leg_market.hpp"
+#include "commands/currency.hpp"
 #include "commands/quote.hpp"
 
 #include <algorithm>
@@ -100,6 +101,7 @@ json write_price_result(const trade& t, const price_settings& settings, const pr
                           "curves (ACT/365F) from today to the leg's expiry"}};
         if (t.strike_tick) out["strike_tick"] = *t.strike_tick;
     }
+    if (t.currency) out["currency"] = write_currency_section(t, r);
     if (result.quote)
         out["client_price"] = write_client_price(t, *settings.quote, *result.quote, *result.client, result.outcomes);
     return out;

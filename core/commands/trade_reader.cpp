@@ -1,8 +1,10 @@
 // Hedgeleaf commands: reading and validating the trade document (see trade_reader.hpp).
 #include "commands/trade_reader.hpp"
 
+#include "analytics/currency.hpp"
 #include "analytics/leg_market.hpp"
 #include "analytics/strikes.hpp"
+#include "commands/currency.hpp"
 #include "contract/structures.hpp"
 
 #include <algorithm>
@@ -163,7 +165,11 @@ strike_terms read_strike_terms(const json& value, const std::string& path, payof
 /// The strike of a leg written as a percentage or a delta, rounded to the trade's strike_tick.
 void resolve_strike(const trade& t, option_leg& leg, const std::string& path) {
     if (leg.type == payoff_kind::stock || leg.strike_given.form == strike_form::price) return;
-    const double k = strike_from_terms(t.market, leg, leg.strike_given, path);
+    // A pair's strikes: its forward to delivery, its delta in the trade's convention.
+    const market_data market = t.currency ? currency_leg_market(t, leg, path) : t.market;
+    const double k = t.currency && leg.strike_given.form == strike_form::delta
+                         ? strike_for_currency_delta(market, leg, t.currency->delta, leg.strike_given.value, path)
+                         : strike_from_terms(market, leg, leg.strike_given, path);
     leg.strike_given.unrounded = k;
     leg.strike = t.strike_tick ? round_to_tick(k, *t.strike_tick) : k;
     if (!(leg.strike > 0))
@@ -337,7 +343,19 @@ trade read_trade(const json& document) {
     times.valuation_date =
         read_valuation_date(r, document.is_object() && document.contains("market") ? &document.at("market") : nullptr);
     t.valuation_date = times.valuation_date;
-    t.market = read_market(r.raw("market"), times, "market");
+    r.raw_optional("underlying");
+    t.currency = read_underlying_kind(document, times.valuation_date);
+    std::optional<date> premium_date;
+    if (t.currency) {
+        t.market = read_currency_market(r.raw("market"), times, *t.currency);
+        premium_date = read_conventions(document, *t.currency);
+    } else {
+        t.market = read_market(r.raw("market"), times, "market");
+        for (const char* key : {"notional", "conventions"})
+            if (r.has(key))
+                fail(key, "only a currency pair (underlying.kind \"currency_pair\") takes " + std::string(key) +
+                              "; an equity trade's size is quantity");
+    }
     t.strike_tick = r.number_optional("strike_tick");
     if (t.strike_tick) {
         require_tick(*t.strike_tick, t.market.spot, "strike_tick");
@@ -346,9 +364,14 @@ trade read_trade(const json& document) {
     read_contract(r, times, t);
     if (t.final_expiry_years() <= 0) fail("legs", "need at least one option leg (stock alone has no expiry)");
 
-    t.quantity = r.number_or("quantity", 1.0);
-    require_positive(t.quantity, "quantity");
-    require_at_most(t.quantity, max_quantity, "quantity");
+    if (t.currency) {
+        for (const char* key : {"notional", "conventions", "quantity"}) r.raw_optional(key);
+        settle_currency_trade(document, premium_date, t);
+    } else {
+        t.quantity = r.number_or("quantity", 1.0);
+        require_positive(t.quantity, "quantity");
+        require_at_most(t.quantity, max_quantity, "quantity");
+    }
     t.client_sells = r.choice_or("side", sides, "buy") == "sell";
     t.lattice = read_lattice(r.raw_optional("lattice"));
 

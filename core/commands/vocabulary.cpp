@@ -55,7 +55,7 @@ void market_fields(json& f) {
     f["market.volatility.vols[]"] = list_of(1, max_smile_strikes);
     f["market.volatility.vols[][]"] = volatility_field();
     // Curves (rate, carry_yield and borrow as objects; the numbers' bounds above).
-    for (const char* name : {"rate", "carry_yield", "borrow"}) {
+    for (const char* name : {"rate", "carry_yield", "borrow", "domestic_rate", "foreign_rate"}) {
         const std::string at = std::string("market.") + name + ".points";
         f[at] = list_of(1, max_curve_points);
         f[at + "[].years"] = positive_up_to(max_expiry_years);
@@ -75,6 +75,27 @@ void option_fields(json& f, const std::string& at) {
     f[at + ".exercise_years"] = list_of(1, max_exercise_dates);
     f[at + ".exercise_years[]"] = above(number_field(), 0);
     f[at + ".payout"] = by_default(price_level(), 1);
+}
+
+// A currency pair (docs/currency.md): the pair, its rates, its notional and its conventions.
+void currency_fields(json& f) {
+    f["underlying.kind"] = one_of(underlying_kinds);
+    f["underlying.base"] = json{{"type", "string"}};
+    f["underlying.quote"] = json{{"type", "string"}};
+    f["underlying.pip_size"] = positive_up_to(max_pip_size);
+    f["underlying.spot_lag_days"] = by_default(between(whole_field(), 0, max_spot_lag_days), default_spot_lag_days);
+    for (const char* name : {"domestic_rate", "foreign_rate"}) {
+        const std::string at = std::string("market.") + name;
+        f[at] = between(number_field(), -max_abs_rate, max_abs_rate);
+        f[at + ".rate"] = between(number_field(), -max_abs_rate, max_abs_rate);
+        f[at + ".day_count"] = by_default(one_of(day_counts), "ACT/360");
+        f[at + ".compounding"] = by_default(one_of(compoundings), "simple");
+    }
+    f["notional.amount"] = positive_up_to(max_quantity);
+    f["notional.currency"] = json{{"type", "string"}};
+    f["conventions.premium"] = by_default(one_of(premium_conventions), "domestic_per_foreign");
+    f["conventions.premium_currency"] = json{{"type", "string"}};
+    f["conventions.delta"] = one_of(delta_conventions);
 }
 
 void trade_fields(json& f) {
@@ -213,6 +234,11 @@ json lists() {
                 {"strike_bases", strike_bases},
                 {"strike_forms", strike_forms},
                 {"smile_moves", smile_moves},
+                {"underlying_kinds", underlying_kinds},
+                {"premium_conventions", premium_conventions},
+                {"delta_conventions", delta_conventions},
+                {"day_counts", day_counts},
+                {"compoundings", compoundings},
                 {"sections", command_sections}};
 }
 
@@ -254,6 +280,7 @@ json vocabulary_json() {
     json fields = json::object();
     market_fields(fields);
     trade_fields(fields);
+    currency_fields(fields);
     quote_fields(fields);
     solve_fields(fields);
     ladder_fields(fields);

@@ -48,6 +48,17 @@ inline const std::vector<std::string> strike_forms = {"percent_of_spot", "percen
 inline const std::vector<std::string> smile_moves = {"sticky-strike", "sticky-moneyness"};
 /// Sections of the trade document each read by its own command.
 inline const std::vector<std::string> command_sections = {"quote", "hedge", "simulate", "solve", "ladder", "profile"};
+/// `underlying.kind`: what the trade is written on (equity: a share or an index, the default).
+inline const std::vector<std::string> underlying_kinds = {"equity", "currency_pair"};
+/// `conventions.premium` of a currency pair (docs/currency.md), in the order of premium_convention.
+inline const std::vector<std::string> premium_conventions = {
+    "domestic_per_foreign", "domestic_pips", "percent_of_foreign", "percent_of_domestic", "foreign_pips"};
+/// `conventions.delta` of a currency pair, in the order of delta_convention.
+inline const std::vector<std::string> delta_conventions = {"spot", "forward", "spot_premium_adjusted",
+                                                           "forward_premium_adjusted"};
+/// Day counts and compoundings of a money-market rate (`market.domestic_rate.day_count`, ...).
+inline const std::vector<std::string> day_counts = {"ACT/360", "ACT/365"};
+inline const std::vector<std::string> compoundings = {"simple", "annual", "continuous"};
 /// The top-level key of a comparison document (several trades side by side, read by `compare`).
 inline const std::string comparison_key = "comparison";
 // The structure shapes live in their table (contract/structures.hpp); the commands in
@@ -119,6 +130,9 @@ inline constexpr double max_strike_percent = 1000;     ///< a strike of ten time
 inline constexpr std::size_t max_table_cells = 5000;   ///< cells of a pasted table (CSV or tab-separated)
 inline constexpr std::size_t max_underlying_chars = 80;
 inline constexpr std::size_t max_as_of_chars = 40;
+inline constexpr int default_spot_lag_days = 2;  ///< business days from trade to spot (common practice)
+inline constexpr int max_spot_lag_days = 5;
+inline constexpr double max_pip_size = 1.0;         ///< a pip of a whole unit of the quote currency
 inline constexpr int default_lattice_steps = 1601;  // chosen from bench/accuracy_bench (docs/performance.md)
 
 // ---- quote ---------------------------------------------------------------

@@ -7,6 +7,7 @@
 // A time measured from valuation is named *_years throughout the C++.
 #pragma once
 
+#include "contract/currency.hpp"
 #include "contract/curve.hpp"
 #include "contract/dates.hpp"
 #include "contract/limits.hpp"
@@ -144,6 +145,10 @@ struct trade {
     bool client_sells = false;     ///< side: "sell"
     lattice_settings lattice;
     std::optional<double> strike_tick;  ///< derived and solved strikes round to a multiple of it
+    /// A currency pair's terms (docs/currency.md); none for an equity. With a pair, `market`
+    /// holds the lattice's flat effective rate and carry (analytics/currency.hpp), the legs'
+    /// expiry_years the volatility time and `quantity` the foreign notional.
+    std::optional<currency_terms> currency;
 
     /// +quantity for buy, -quantity for sell.
     double signed_quantity() const { return client_sells ? -quantity : quantity; }

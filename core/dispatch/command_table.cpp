@@ -2,6 +2,7 @@
 #include "dispatch/command_table.hpp"
 
 #include "commands/compare.hpp"
+#include "commands/currency.hpp"
 #include "commands/hedge.hpp"
 #include "commands/ladder.hpp"
 #include "commands/price.hpp"
@@ -64,6 +65,7 @@ struct steps {
         const work_meter meter(budget, self.work_field);
         json out = write(t, settings, run(t, settings));
         if (!t.market.as_of.empty()) out["market_as_of"] = t.market.as_of;  // a market snapshot's time
+        if (t.currency) use_currency_words(out);
         return out;
     }
 };

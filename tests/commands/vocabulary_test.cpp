@@ -43,6 +43,23 @@ json frequency_for(json& doc, const std::string& path) {
 /// A document in which `path` is read, and the command that reads it.
 std::pair<json, std::string> base_for(const std::string& path) {
     const auto starts = [&](const char* prefix) { return path.rfind(prefix, 0) == 0; };
+    if (starts("underlying") || starts("notional") || starts("conventions") || starts("market.domestic_rate") ||
+        starts("market.foreign_rate")) {  // a currency pair (docs/currency.md)
+        json pair{{"valuation_date", "2026-12-03"},
+                  {"underlying", {{"kind", "currency_pair"}, {"base", "EUR"}, {"quote", "USD"}}},
+                  {"market",
+                   {{"spot", 1.085},
+                    {"volatility", 0.08},
+                    {"domestic_rate", {{"rate", 0.03}}},
+                    {"foreign_rate", {{"rate", 0.015}}}}},
+                  {"option", {{"type", "put"}, {"strike", 1.06}, {"expiry_date", "2027-09-03"}}},
+                  {"notional", {{"amount", 1e6}, {"currency", "EUR"}}},
+                  {"lattice", {{"steps", 101}}}};
+        for (const char* curve : {"domestic_rate", "foreign_rate"})
+            if (starts((std::string("market.") + curve + ".points").c_str()))
+                pair["market"][curve] = {{"points", json::array({{{"years", 1}, {"rate", 0.01}}})}};
+        return {pair, "price"};
+    }
     json doc{{"market", market}, {"option", call}, {"lattice", {{"steps", 101}}}};
     if (starts("market.dividends")) doc["market"]["dividends"] = json::array({{{"time_years", 0.5}, {"amount", 1}}});
     if (starts("market.volatility."))
