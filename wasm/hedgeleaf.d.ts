@@ -168,9 +168,21 @@ export type Underlying =
 export interface CurrencyMarket {
   as_of?: string;
   spot: number;                          // quote currency per one base unit, > 0
-  volatility: number | VolatilityGrid;
+  volatility: number | VolatilityGrid | SmileByDelta;
   domestic_rate: number | Curve | MoneyMarketRate;  // the quote currency's
   foreign_rate: number | Curve | MoneyMarketRate;   // the base currency's
+}
+
+/** A pair's smile as desks quote it, per expiry (docs/currency.md); decimals. Wings: call = atm + bf + rr/2,
+ *  put = atm + bf - rr/2, strikes solved from their deltas in conventions.delta; at-the-money is the
+ *  delta-neutral straddle. Becomes a grid in percent of the forward. */
+export interface SmileByDelta {
+  quotes_by_delta: {
+    expiry: number | string;             // years, YYYY-MM-DD or a tenor (1m, 1y); strictly increasing
+    atm: number;                         // 0.001..5
+    rr25: number; bf25: number;          // 25-delta risk reversal (call - put) and butterfly
+    rr10?: number; bf10?: number;        // 10-delta, both or neither
+  }[];                                   // 1..30 expiries
 }
 
 /** A money-market quote, converted exactly to the continuous ACT/365F rate over spot -> delivery. */
@@ -206,6 +218,10 @@ export interface CurrencySection {
              in_each_convention: Record<PremiumConvention, number | null>; note: string };
   delta: { convention: DeltaConvention; value: number; in_each_convention: Record<DeltaConvention, number>;
            [position: string]: unknown };  // position_<BASE>: the position's delta in base currency
+  /** Only with a smile quoted by delta: per expiry, the points its quotes gave. */
+  smile_by_delta?: { expiry_years: number; forward: number;
+                     points: Record<"atm" | "put_25" | "call_25" | "put_10" | "call_10",
+                                    { strike: number; volatility: number; percent_of_forward: number }> }[];
 }
 export interface CurrencyRate {
   zero_rate: number;                     // continuous ACT/365F, spot -> delivery

@@ -141,6 +141,20 @@ json delta_json(const trade& t, const trade_result& r) {
             {"position_" + c.pair.base, t.signed_quantity() * value}};
 }
 
+/// The points a smile quoted by delta gave, per expiry.
+json smile_by_delta_json(const currency_terms& c) {
+    json rows = json::array();
+    for (const auto& row : c.smile_by_delta) {
+        json points = json::object();
+        for (const auto& p : row.points)
+            points[p.name] = {{"strike", p.strike},
+                              {"volatility", p.volatility},
+                              {"percent_of_forward", 100 * p.strike / row.forward}};
+        rows.push_back({{"expiry_years", row.expiry_years}, {"forward", row.forward}, {"points", points}});
+    }
+    return rows;
+}
+
 }  // namespace
 
 std::optional<currency_terms> read_underlying_kind(const json& document, const std::optional<date>& valuation_date) {
@@ -196,7 +210,9 @@ market_data read_currency_market(const json& node, const years_reader& times, cu
     read_pair_rate(r, "foreign_rate", times, terms.foreign, terms.foreign_quoted);
     m.rate = terms.domestic;
     m.carry_yield = terms.foreign;
-    if (volatility.is_object()) read_smile(volatility, r.child("volatility"), times, m);
+    // A smile quoted by delta waits for the delta convention (read_smile_by_delta).
+    if (volatility.is_object() && !volatility.contains("quotes_by_delta"))
+        read_smile(volatility, r.child("volatility"), times, m);
     r.finish();
     return m;
 }
@@ -226,10 +242,15 @@ std::optional<date> read_conventions(const json& document, currency_terms& terms
     return terms.premium_date;
 }
 
+market_data currency_market_to(const currency_terms& terms, const market_data& quoted, const date& expiry,
+                               const std::string& path) {
+    currency_terms settled = terms;
+    settle_terms(settled, expiry, path);
+    return settle_currency_market(quoted, settled);
+}
+
 market_data currency_leg_market(const trade& t, const option_leg& leg, const std::string& path) {
-    currency_terms terms = *t.currency;
-    settle_terms(terms, expiry_date_of(terms, leg.expiry_years, path), path);
-    return settle_currency_market(t.market, terms);
+    return currency_market_to(*t.currency, t.market, expiry_date_of(*t.currency, leg.expiry_years, path), path);
 }
 
 void settle_currency_trade(const json& document, std::optional<date> premium_date, trade& t) {
@@ -283,7 +304,7 @@ json write_currency_section(const trade& t, const trade_result& r) {
                     {"discount_factor", k.discount(spot_years, delivery_years)},
                     {"quoted", quoted_json(q)}};
     };
-    return {
+    json out = {
         {"pair", c.pair.name()},
         {"base", c.pair.base},
         {"quote", c.pair.quote},
@@ -324,6 +345,8 @@ json write_currency_section(const trade& t, const trade_result& r) {
         {"premium", premium_json(t, r.premium)},
         {"delta", delta_json(t, r)},
     };
+    if (!c.smile_by_delta.empty()) out["smile_by_delta"] = smile_by_delta_json(c);
+    return out;
 }
 
 namespace {

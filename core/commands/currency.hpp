@@ -29,6 +29,10 @@ market_data read_currency_market(const json& node, const years_reader& times, cu
 /// Returns the premium date when one was given.
 std::optional<date> read_conventions(const json& document, currency_terms& terms);
 
+/// The lattice market of a pair for an option expiring on `expiry` (its dates settled from it).
+market_data currency_market_to(const currency_terms& terms, const market_data& quoted, const date& expiry,
+                               const std::string& path);
+
 /// The market a leg of a pair is priced in, and its strikes by delta solved in (the dates
 /// settled from the leg's expiry). Throws input_error naming `path` when the expiry is no date.
 market_data currency_leg_market(const trade& t, const option_leg& leg, const std::string& path);

@@ -133,6 +133,10 @@ std::vector<std::vector<double>> read_vols(const json& rows, const grid_places& 
 
 void read_smile(const json& node, const std::string& path, const years_reader& times, market_data& m) {
     field_reader r(node, path);
+    if (r.has("quotes_by_delta"))
+        fail(r.child("quotes_by_delta"),
+             "a smile quoted by delta (at-the-money, risk reversals, butterflies) is a currency pair's; "
+             "give this trade's smile as a strike grid (expiries, strikes, vols)");
     smile_grid g;
     g.basis = enum_of<strike_basis>(strike_bases, r.choice_or("strike_basis", strike_bases, "percent_of_spot"));
     g.spot = m.spot;

@@ -5,6 +5,7 @@
 #include "analytics/leg_market.hpp"
 #include "analytics/strikes.hpp"
 #include "commands/currency.hpp"
+#include "commands/smile_by_delta.hpp"
 #include "contract/structures.hpp"
 
 #include <algorithm>
@@ -349,6 +350,9 @@ trade read_trade(const json& document) {
     if (t.currency) {
         t.market = read_currency_market(r.raw("market"), times, *t.currency);
         premium_date = read_conventions(document, *t.currency);
+        const json& market = document.at("market");
+        if (market.contains("volatility") && is_smile_by_delta(market.at("volatility")))
+            read_smile_by_delta(market.at("volatility"), "market.volatility", times, *t.currency, t.market);
     } else {
         t.market = read_market(r.raw("market"), times, "market");
         for (const char* key : {"notional", "conventions"})

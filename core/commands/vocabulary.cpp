@@ -54,6 +54,11 @@ void market_fields(json& f) {
     f["market.volatility.vols"] = list_of(1, max_smile_expiries);
     f["market.volatility.vols[]"] = list_of(1, max_smile_strikes);
     f["market.volatility.vols[][]"] = volatility_field();
+    // A currency pair's smile quoted by delta (commands/smile_by_delta.hpp).
+    f["market.volatility.quotes_by_delta"] = list_of(1, max_smile_expiries);
+    f["market.volatility.quotes_by_delta[].atm"] = volatility_field();
+    for (const char* key : {"rr25", "bf25", "rr10", "bf10"})
+        f[std::string("market.volatility.quotes_by_delta[].") + key] = number_field();
     // Curves (rate, carry_yield and borrow as objects; the numbers' bounds above).
     for (const char* name : {"rate", "carry_yield", "borrow", "domestic_rate", "foreign_rate"}) {
         const std::string at = std::string("market.") + name + ".points";

@@ -12,8 +12,8 @@
 #include "contract/dates.hpp"
 
 #include <optional>
-
 #include <string>
+#include <vector>
 
 namespace hedgeleaf {
 
@@ -79,6 +79,20 @@ enum class premium_convention {
 /// without the premium paid in the foreign currency taken off (premium-adjusted).
 enum class delta_convention { spot, forward, spot_premium_adjusted, forward_premium_adjusted };
 
+/// One point a smile quoted by delta gave: "atm", "call_25", "put_25", "call_10" or "put_10",
+/// its strike (domestic per unit of foreign) and its volatility (decimal).
+struct delta_smile_point {
+    std::string name;
+    double strike = 0;
+    double volatility = 0;
+};
+/// One expiry of a smile quoted by delta (docs/currency.md) and the points its quotes gave.
+struct delta_smile_row {
+    double expiry_years = 0;                ///< ACT/365F from the trade date
+    double forward = 0;                     ///< outright forward to that expiry's delivery date
+    std::vector<delta_smile_point> points;  ///< in increasing strike
+};
+
 /// A currency option's terms as a desk writes them, and what the trade reader derived.
 struct currency_terms {
     currency_pair pair;
@@ -97,6 +111,8 @@ struct currency_terms {
     double forward = 0;                                          ///< outright forward for the delivery date
     double discount = 1;          ///< domestic discount factor from delivery back to the premium date
     double volatility_years = 0;  ///< trade -> expiry, ACT/365F
+    /// The smile's points when it was quoted by delta (market.volatility.quotes_by_delta), else empty.
+    std::vector<delta_smile_row> smile_by_delta;
 };
 
 /// The words of contract/limits.hpp (day_counts, compoundings) and back.
