@@ -86,6 +86,9 @@ void read_smile_by_delta(const json& node, const std::string& path, const years_
              "must be a list of quotes, one per expiry: {expiry, atm, rr25, bf25, rr10, bf10}, got " + describe(list));
     if (list.size() > max_smile_expiries)
         fail(field, "has " + std::to_string(list.size()) + " expiries, at most " + std::to_string(max_smile_expiries));
+    // Quotes are the market's: their premium is paid on the spot date, whatever the trade's.
+    currency_terms quoted = terms;
+    quoted.premium_date.reset();
     std::vector<delta_smile_row> rows;
     for (std::size_t i = 0; i < list.size(); ++i) {
         const std::string entry = index_path(field, i);
@@ -98,7 +101,7 @@ void read_smile_by_delta(const json& node, const std::string& path, const years_
                      " years; list the quotes once each, in increasing expiry");
         // Each expiry's forward and discounting from its own dates (an expiry in years: the nearest day).
         const date expiry = add_days(terms.dates.trade, std::lround(q.expiry_years * 365));
-        const market_data at_expiry = currency_market_to(terms, m, expiry, join_path(entry, "expiry"));
+        const market_data at_expiry = currency_market_to(quoted, m, expiry, join_path(entry, "expiry"));
         rows.push_back(smile_row_of(at_expiry, q, terms.delta, entry));
     }
     m.smile = std::make_shared<const volatility_smile>(grid_of_rows(rows, m.spot));
