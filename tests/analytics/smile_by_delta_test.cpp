@@ -110,7 +110,8 @@ TEST_CASE("the grid in percent of the forward holds every expiry's points", "[sm
         CHECK(s.at(100 * p.strike / row2.forward, 2 * years).volatility == Approx(p.volatility));
     // A flat quote gives a flat grid: every cell the at-the-money volatility, exactly.
     const delta_smile_row flat = smile_row_of(m, quote(0.08, 0, 0), delta_convention::forward, "q");
-    for (const auto& v : grid_of_rows({flat}, spot).vols[0]) CHECK(v == 0.08);
+    const smile_grid flat_grid = grid_of_rows({flat}, spot);
+    for (const auto& v : flat_grid.vols[0]) CHECK(v == 0.08);
 }
 
 TEST_CASE("wings on the wrong side of at-the-money name the butterfly", "[smile_by_delta]") {

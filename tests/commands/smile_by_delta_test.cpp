@@ -29,6 +29,12 @@ json treasurer(const json& volatility) {
 }
 
 json quotes(const json& list) { return {{"quotes_by_delta", list}}; }
+// One element per entry (a braced single object would be the object itself, not a list of one).
+json quotes(std::initializer_list<json> entries) {
+    json list = json::array();
+    for (const json& e : entries) list.push_back(e);
+    return quotes(list);
+}
 
 json nine_months(double atm, double rr25, double bf25) {
     return {{"expiry", "2027-09-03"}, {"atm", atm}, {"rr25", rr25}, {"bf25", bf25}};
@@ -90,7 +96,7 @@ TEST_CASE("each bad quote by delta has its own message naming the field", "[smil
     // An equity trade's smile is a strike grid.
     json equity = parse_json_text(R"({"market": {"spot": 100, "rate": 0.03},
                                       "option": {"type": "call", "strike": 100, "expiry_years": 1}})");
-    equity["market"]["volatility"] = quotes({{{"expiry", 1}, {"atm", 0.2}, {"rr25", 0}, {"bf25", 0}}});
+    equity["market"]["volatility"] = quotes({json{{"expiry", 1}, {"atm", 0.2}, {"rr25", 0}, {"bf25", 0}}});
     CHECK_THAT(refusal(equity), Catch::StartsWith("market.volatility.quotes_by_delta: a smile quoted by delta") &&
                                     Catch::Contains("currency pair"));
     // A calendar arbitrage between two expiries names the quote that makes it.
