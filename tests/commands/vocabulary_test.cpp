@@ -44,7 +44,8 @@ json frequency_for(json& doc, const std::string& path) {
 std::pair<json, std::string> base_for(const std::string& path) {
     const auto starts = [&](const char* prefix) { return path.rfind(prefix, 0) == 0; };
     if (starts("underlying") || starts("notional") || starts("conventions") || starts("market.domestic_rate") ||
-        starts("market.foreign_rate")) {  // a currency pair (docs/currency.md)
+        starts("market.foreign_rate") ||
+        starts("market.volatility.quotes_by_delta")) {  // a currency pair (docs/currency.md)
         json pair{{"valuation_date", "2026-12-03"},
                   {"underlying", {{"kind", "currency_pair"}, {"base", "EUR"}, {"quote", "USD"}}},
                   {"market",
@@ -58,6 +59,9 @@ std::pair<json, std::string> base_for(const std::string& path) {
         for (const char* curve : {"domestic_rate", "foreign_rate"})
             if (starts((std::string("market.") + curve + ".points").c_str()))
                 pair["market"][curve] = {{"points", json::array({{{"years", 1}, {"rate", 0.01}}})}};
+        if (starts("market.volatility.quotes_by_delta"))
+            pair["market"]["volatility"] = {
+                {"quotes_by_delta", json::array({{{"expiry", "9m"}, {"atm", 0.08}, {"rr25", 0}, {"bf25", 0}}})}};
         return {pair, "price"};
     }
     json doc{{"market", market}, {"option", call}, {"lattice", {{"steps", 101}}}};
