@@ -5,10 +5,10 @@
 // clicked on a small tree (kind "lattice", moves "UDDU..."), spots typed per
 // date ("spots"), a random path ("scenario", the engine's default) and a
 // stress shape ("stress"). The tree view (tree.js) comes from the `tree` command.
-import { isPair, pairCodes } from './currency.js';
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, started } from './compute.js';
+import { isPair, pairCodes } from './currency.js';
 import {
   bound,
   boundFields,
