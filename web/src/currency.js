@@ -116,7 +116,9 @@ export function toPair(doc, aside) {
     if (isQuote(kept) && kept.rate === market[key]) market[key] = kept;
     delete aside[`market.${key}`];
   }
-  doc.underlying = aside.underlying ?? { kind: 'currency_pair' };
+  // a new pair is quoted in the currency the trade's client price is in, if it names one
+  const quoteCode = /^[A-Z]{3}$/.test(doc.quote?.currency ?? '') ? { quote: doc.quote.currency } : {};
+  doc.underlying = aside.underlying ?? { kind: 'currency_pair', ...quoteCode };
   doc.underlying.kind = 'currency_pair';
   delete aside.underlying;
   doc.valuation_date ??= todayIso();
@@ -184,7 +186,8 @@ export function pairForm({ state, refill, changed }) {
     const { base, quote } = pairCodes(state.doc);
     const doc = state.doc;
     const codes = (current) => [...new Set([base, quote, ...(current ? [current] : [])])].map((c) => [c, c]);
-    setOptions(byId('notional-currency'), codes(doc.notional?.currency), doc.notional?.currency);
+    const notional = doc.notional?.currency;
+    setOptions(byId('notional-currency'), [...(notional ? [] : [['', 'choose']]), ...codes(notional)], notional);
     setOptions(
       byId('premium-currency'),
       [['', `${quote} (default)`], ...codes(doc.conventions?.premium_currency)],
