@@ -58,7 +58,12 @@ test('a currency pair: its fields, forward points, premium as quoted, client she
   assert.match(await page.locator('#results').innerText(), /Foreign, EUR \(Δ\)/);
 
   // The forward points (to the hundredth of a pip) and the premium in the chosen convention.
-  assert.equal(await page.textContent('#pair-forward-points'), `${forwardPoints.toFixed(2)} (pip 0.0001)`);
+  assert.equal(await page.textContent('#pair-forward-points'), `${forwardPoints.toFixed(2)} pips (pip 0.0001)`);
+  // the dates: Thursday 3 December 2026 + 2 business days; Friday 3 September 2027 + 2 (common practice)
+  const dateLine = await page.textContent('#pair-date-line');
+  for (const date of ['spot 12/07/2026', 'expiry 09/03/2027', 'delivery 09/07/2027', 'premium 12/07/2026'])
+    assert.ok(dateLine.includes(date), `${date} in "${dateLine}" (the browser's en-US dates)`);
+  assert.match(await page.locator('#pair-figures').innerText(), /Position delta \(EUR\)/);
   assert.match(await page.textContent('#pair-forward'), new RegExp(`^${forward.toFixed(6)} USD per EUR`));
   assert.match(await page.textContent('#pair-premium'), /^\d+\.\d\d USD pips per EUR$/);
   assert.match(await page.textContent('#pair-delta-position'), /^−1,46\d,\d{3} EUR$/);
@@ -83,8 +88,8 @@ test('a currency pair: its fields, forward points, premium as quoted, client she
   // The client sheet: the pair, its dates and the price as quoted; no shares, no dividends.
   const sheet = await printedSheet(page);
   assert.match(sheet, /EUR\/USD/);
-  for (const label of ['Trade date', 'Spot date', 'Expiry date', 'Delivery date', 'Premium date'])
-    assert.match(sheet, new RegExp(label), `${label} on the sheet`);
+  for (const date of ['Spot date 12/07/2026', 'Expiry date 09/03/2027', 'Delivery date 09/07/2027'])
+    assert.match(sheet, new RegExp(date), `${date} on the sheet`);
   assert.match(sheet, /Client price, as quoted 1\.\d{4} % of the EUR/);
   assert.match(sheet, new RegExp(`Forward points ${pointsAct365.toFixed(2)}`));
   assert.match(sheet, /Indicative only/);

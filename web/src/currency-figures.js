@@ -40,7 +40,7 @@ function dateRows(c) {
 function forwardRows(c, digits) {
   return [
     ['Forward', `${formatNumber(c.forward, digits + 2)} ${c.quote} per ${c.base}`],
-    ['Forward points', `${formatNumber(c.forward_points, 2)} (pip ${formatNumber(c.pip_size, digits)})`],
+    ['Forward points', `${formatNumber(c.forward_points, 2)} pips (pip ${formatNumber(c.pip_size, digits)})`],
   ];
 }
 
@@ -62,6 +62,11 @@ export function renderPairFigures(r, digits) {
   set('pair-premium-amount', `${formatNumber(c.premium.amount, 2)} ${c.premium.currency}`);
   set('pair-delta', `${formatNumber(c.delta.value, 4)} (${deltaWords(c.delta.convention)})`);
   set('pair-delta-position', `${formatNumber(c.delta[`position_${c.base}`], 0)} ${c.base}`);
+  const d = c.dates;
+  set(
+    'pair-date-line',
+    `spot ${formatDate(d.spot)} · expiry ${formatDate(d.expiry)} · delivery ${formatDate(d.delivery)} · premium ${formatDate(d.premium)}`,
+  );
   byId('pair-premium').dataset.value = String(c.premium.value);
   byId('pair-forward-points').dataset.value = String(c.forward_points);
   const others = Object.keys(c.premium.in_each_convention).map((key) => [
