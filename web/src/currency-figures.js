@@ -36,11 +36,17 @@ function dateRows(c) {
   ];
 }
 
+/** Decimals that show a pip as written: 0.0001 -> 4, 0.01 -> 2, 0.00005 -> 5. */
+const pipDigits = (pip) => Math.min(8, Math.max(0, Math.ceil(-Math.log10(pip) - 1e-9)));
+
 /** The forward "1.097247" and its points "122.47 pips" with the pip size. */
 function forwardRows(c, digits) {
   return [
     ['Forward', `${formatNumber(c.forward, digits + 2)} ${c.quote} per ${c.base}`],
-    ['Forward points', `${formatNumber(c.forward_points, 2)} pips (pip ${formatNumber(c.pip_size, digits)})`],
+    [
+      'Forward points',
+      `${formatNumber(c.forward_points, 2)} pips (pip ${formatNumber(c.pip_size, pipDigits(c.pip_size))})`,
+    ],
   ];
 }
 
