@@ -8,7 +8,7 @@
 // aside in this tab and comes back when that kind is chosen again, so nothing typed is lost.
 // The pair's fields are ordinary bound inputs (form.js); this file builds their choices, picks
 // where the rate inputs write (a number or a money-market quote's `rate`) and swaps the words.
-import { byId } from './dom.js';
+import { byId, field, make, optionList } from './dom.js';
 import { switchExpiryMode } from './form.js';
 import { todayIso } from './dates.js';
 
@@ -158,8 +158,10 @@ export function toEquity(doc, aside) {
  */
 export function pairForm({ state, refill, changed }) {
   const aside = {}; // what the other kind holds, kept in this tab while the kind is switched
-  for (const key of rateKeys)
-    byId(`${key}-basis`).replaceChildren(...rateBases.map(([value, text]) => new Option(text, value)));
+  byId('pair-rates').replaceChildren(
+    rateRow('domestic_rate', 'Domestic rate', "the quote currency's rate, percent a year"),
+    rateRow('foreign_rate', 'Foreign rate', "the base currency's rate, percent a year"),
+  );
 
   /** Build the choices, point the rate inputs at their field, swap the words: before the form is filled. */
   function fill() {
@@ -234,6 +236,22 @@ export function pairForm({ state, refill, changed }) {
   }
 
   return { fill, wire };
+}
+
+/** A rate's row: its percent input (pointed at its field by `fill`), its basis and the note for a curve. */
+function rateRow(key, name, title) {
+  const label = make('span', {}, [`${name} `, make('abbr', { title, text: '% p.a.' })]);
+  const input = make('input', { id: `${key}-input`, dataset: { kind: 'percent' }, inputMode: 'decimal' });
+  const basis = make('select', { id: `${key}-basis` }, optionList(rateBases));
+  return make('div', { className: 'row' }, [
+    make('label', { className: 'field', id: `${key}-field` }, [label, input]),
+    field(`${name} quoted as`, basis),
+    make('p', {
+      className: 'hint',
+      id: `${key}-curve-note`,
+      text: `${name}: a curve of zero rates, kept as the file gives it.`,
+    }),
+  ]);
 }
 
 /** Show the fields of the trade's kind and put the pair's words in place of the share's. */
