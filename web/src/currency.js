@@ -257,6 +257,8 @@ function rateRow(key, name, title) {
 /** Show the fields of the trade's kind and put the pair's words in place of the share's. */
 function showKind(pair) {
   document.body.classList.toggle('pair-trade', pair);
+  // the figures sit inside the price card, whose parts are shown or hidden (not left undrawn)
+  for (const id of ['pair-figures', 'pair-more']) byId(id).hidden = !pair;
 }
 
 /**
