@@ -8,6 +8,7 @@
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, started } from './compute.js';
+import { isPair, pairCodes } from './currency.js';
 import {
   bound,
   boundFields,
@@ -234,14 +235,16 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
 
   function drawSchedule(result) {
     const digits = priceDigits(state.doc);
+    // a pair's hedge holds foreign currency (docs/currency.md): its words name it
+    const held = isPair(state.doc) ? `${pairCodes(state.doc).base}` : 'Shares';
     const head = [
       'Date',
       'Event',
       'Spot',
       'Option value',
       'Target delta',
-      'Shares held',
-      'Shares traded',
+      `${held} held`,
+      `${held} traded`,
       'Cash',
       'Portfolio',
       'Portfolio − option',
@@ -252,8 +255,8 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
       formatNumber(row.spot, digits),
       formatNumber(row.option_value, 4),
       row.delta === null ? '–' : formatNumber(row.delta, 4),
-      formatNumber(row.shares_held, 4),
-      formatNumber(row.shares_traded, 4),
+      formatNumber(row.shares_held ?? row.foreign_held, 4),
+      formatNumber(row.shares_traded ?? row.foreign_traded, 4),
       formatNumber(row.cash, 4),
       formatNumber(row.portfolio_value, 4),
       formatSmart(row.tracking_error, 2, 4),
@@ -264,15 +267,15 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const desk = result.desk;
     byId('hedge-totals').textContent =
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
-      `replication error ${formatSmart(t.replication_error, 2, 4)}, shares traded ${formatNumber(t.total_shares_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
-      `The desk holds ${formatNumber(desk.shares_at_start, 0)} shares at the start and ${formatNumber(desk.shares_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
+      `replication error ${formatSmart(t.replication_error, 2, 4)}, ${held.toLowerCase()} traded ${formatNumber(t.total_shares_traded ?? t.total_foreign_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
+      `The desk holds ${formatNumber(desk.shares_at_start ?? desk.foreign_at_start, 0)} ${held.toLowerCase()} at the start and ${formatNumber(desk.shares_at_end ?? desk.foreign_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
       (result.notes?.length ? ` Note: ${result.notes.map(screenNote).join('; ')}.` : '');
     const xs = (row) => row.years;
     drawChart(byId('hedge-chart'), {
       series: [
         {
           kind: 'portfolio',
-          label: 'Hedge portfolio (shares + cash)',
+          label: `Hedge portfolio (${held.toLowerCase()} + cash)`,
           dots: true,
           points: result.rows.map((r) => [xs(r), r.portfolio_value]),
         },

@@ -8,6 +8,7 @@
 // and out of the page; the cards (hedge.js, simulate.js, desk.js) get what they
 // use passed in here.
 import { comparisonPanel, openDocument } from './compare.js';
+import { pairForm } from './currency.js';
 import { EngineChannel, engineWorkers } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
@@ -76,6 +77,7 @@ const cycle = recomputeCycle({
   scope,
 });
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
+const pair = pairForm({ state, refill: fillForm, changed });
 const market = marketEditor({
   state,
   refill: fillForm,
@@ -89,6 +91,7 @@ const recent = recentMenu({ work, state, adopt: files.adopt });
 /** Show the whole trade document: the terms form, every card's controls and their error lines. */
 function fillForm() {
   market.fill(); // before the terms: the grid's and curves' cells are filled with the rest of the form
+  pair.fill(); // the pair's choices and where its rates write, before the terms fill them
   terms.fill();
   snapshot.showAge();
   fillProfileRange(state.doc);
@@ -155,6 +158,7 @@ async function start() {
   });
   if (first.figures) setUpCards();
   market.fill();
+  pair.fill();
   terms.fill();
   compare.render();
   snapshot.showAge();
@@ -178,6 +182,7 @@ async function start() {
   });
   byId('terms').addEventListener('submit', (event) => event.preventDefault());
   terms.wire();
+  pair.wire();
   market.wire();
   snapshot.wire();
   files.wire();

@@ -6,6 +6,7 @@
 import { byId } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
+import { renderPairFigures } from './currency-figures.js';
 
 function writeFigure(nodes, text, value) {
   for (const node of nodes) {
@@ -176,7 +177,8 @@ function writeFigures(doc, r, set) {
   if (r.early_exercise_premium === null) set('early-exercise-premium', 'none (exercise only at expiry)');
   else set('early-exercise-premium', formatNumber(r.early_exercise_premium, perUnitDigits), r.early_exercise_premium);
 
-  const rep = r.replication;
+  // a pair's replication holds foreign currency where a share's holds shares (docs/currency.md)
+  const rep = { ...r.replication, shares: r.replication.shares ?? r.replication.foreign };
   set('replication-shares', formatNumber(rep.shares, 4), rep.shares);
   set('replication-cash', formatNumber(rep.cash, 4), rep.cash);
   set('replication-shares-position', formatNumber(sign * q * rep.shares, 2), sign * q * rep.shares);
@@ -189,9 +191,11 @@ function writeFigures(doc, r, set) {
   set('engine-version', r.engine_version);
 
   const side = r.position.side === 'sell' ? 'Client sells' : 'Client buys';
+  const size = r.currency ? `${r.currency.base} ${inputText(q)} of ${r.currency.pair}` : inputText(q);
   set('trade-summary', '');
   byId('trade-summary').textContent =
-    `${side} ${inputText(q)} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${priceText(doc, r.spot)}`;
+    `${side} ${size} × ${describeContract(doc)} · expiry ${expiryText(doc, r)} · spot ${priceText(doc, r.spot)}`;
+  renderPairFigures(r, priceDigits(doc));
 }
 
 /** `big` (an integer in units of 10^-digits) as text: 12345n, 2 -> "123.45". */

@@ -7,7 +7,8 @@
 // figures are printed only on the internal sheet, which says so at its head.
 import { byId, tableRow } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatSmart, formatWhen, inputText } from './format.js';
-import { describeContract, expiryText, methodName, priceText } from './render.js';
+import { describeContract, expiryText, methodName, priceDigits, priceText } from './render.js';
+import { pairSheetPremium, pairSheetTerms } from './currency-figures.js';
 import { marketAsOfText } from './snapshot.js';
 
 /** Fill a sheet table with [label, value, name?] rows; a named value cell carries data-sheet="name". */
@@ -114,7 +115,7 @@ function deskRows(r, ccy) {
   ];
   if (r.client_price) out.push(['Desk margin in total', `${formatNumber(r.client_price.desk_margin_total, 2)}${ccy}`]);
   out.push(['Delta per unit', formatNumber(r.greeks.delta, 4)]);
-  out.push(['Position delta (shares)', formatNumber(r.position.greeks.delta, 2)]);
+  out.push([`Position delta (${r.currency ? r.currency.base : 'shares'})`, formatNumber(r.position.greeks.delta, 2)]);
   out.push(['Vega per vol point, position', `${formatNumber(r.position.greeks.vega / 100, 2)}${ccy}`]);
   out.push(['Theta per day, position', `${formatNumber(r.position.greeks.theta / 365, 2)}${ccy}`]);
   out.push(['European closed-form value', formatNumber(r.closed_form.premium, 4)]);
@@ -138,9 +139,12 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
   if (text(quote.client)) terms.push(['Client', quote.client]);
   terms.push(['Trade', describeContract(doc)]);
   terms.push(['Client side', r.position.side === 'sell' ? 'sells' : 'buys']);
-  terms.push(['Quantity', inputText(r.position.quantity)]);
-  terms.push(['Notional (quantity × spot)', `${formatNumber(r.position.quantity * r.spot, 0)}${ccy}`]);
-  terms.push(['Spot', `${priceText(doc, r.spot)}${ccy}`]);
+  if (r.currency) terms.push(...pairSheetTerms(r, priceDigits(doc)));
+  else {
+    terms.push(['Quantity', inputText(r.position.quantity)]);
+    terms.push(['Notional (quantity × spot)', `${formatNumber(r.position.quantity * r.spot, 0)}${ccy}`]);
+    terms.push(['Spot', `${priceText(doc, r.spot)}${ccy}`]);
+  }
   if (r.client_price?.holding) terms.push(['Shares the client holds', inputText(r.client_price.holding.shares)]);
   rows(byId('sheet-terms'), terms);
   grid(
@@ -150,7 +154,8 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
   );
 
   const cp = r.client_price;
-  rows(byId('sheet-figures'), [...priceRows(r, ccy), ...(cp ? expiryRows(doc, cp) : [])]);
+  const quoted = r.currency ? pairSheetPremium(r) : [];
+  rows(byId('sheet-figures'), [...quoted, ...priceRows(r, ccy), ...(cp ? expiryRows(doc, cp) : [])]);
   const outcomes = byId('sheet-outcomes');
   if (cp) grid(outcomes, ...outcomeRows(doc, cp, ccy));
   else outcomes.replaceChildren();

@@ -8,6 +8,7 @@
 import { cardBasics, cardParts, showControls } from './card.js';
 import { drawChart } from './chart.js';
 import { Cancelled, EngineChannel } from './compute.js';
+import { isPair } from './currency.js';
 import { boundFields, button, errorLine, fieldRow, fillTable, make, scrollRegion } from './dom.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatSmart, inputText } from './format.js';
@@ -98,7 +99,7 @@ export function simulatePanel({
       [
         make('p', {
           className: 'hint',
-          text: 'Many random spot paths, each hedged in shares on the chosen dates: how far the hedge ends from what the trade pays (per unit; the desk that sold the trade keeps this).',
+          text: `Many random spot paths, each hedged in ${isPair(state.doc) ? 'foreign currency' : 'shares'} on the chosen dates: how far the hedge ends from what the trade pays (per unit; the desk that sold the trade keeps this).`,
         }),
         fieldRow(
           boundFields([

@@ -111,13 +111,15 @@ export function drawTree(host, tree, moves, pick, digits = 2) {
 function legend(tree) {
   // the forward growth of one step under the pricing probabilities: p u + (1 - p) d
   const growth = tree.p_up * tree.up + (1 - tree.p_up) * tree.down;
+  // a pair's nodes hold foreign currency where a share's hold shares (docs/currency.md)
+  const held = tree.nodes?.[0]?.[0]?.foreign !== undefined ? 'in foreign currency' : 'shares';
   return make('p', {
     className: 'hint',
     text:
       `Spot above each node, the trade's value (V) on the path. ` +
       `Per ${formatNumber(tree.dt_years * 365, 1)} days: up ×${formatNumber(tree.up, 4)}, down ×${formatNumber(tree.down, 4)}, ` +
       `forward growth ×${formatNumber(growth, 4)} (down < growth < up: no arbitrage), up-probability ${formatNumber(tree.p_up, 4)}. ` +
-      'At each node the hedge holds Δ = (V up − V down) / (S up − S down) shares and B = V − Δ·S in cash. ' +
+      `At each node the hedge holds Δ = (V up − V down) / (S up − S down) ${held} and B = V − Δ·S in cash. ` +
       'Ringed nodes: the holder exercises early.',
   });
 }

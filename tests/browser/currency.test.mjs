@@ -1,0 +1,124 @@
+// Browser test: a currency pair on the page (the built page from file://, Chromium, offline):
+// examples/currency-receivable-put.json opens with the pair's fields and words, shows the
+// forward points and the premium in the chosen convention, prints them with the pair's dates on
+// the client sheet (and no word of shares or dividends), and keeps every convention through
+// Save file and a link; axe-core finds nothing serious with the pair's fields open.
+import assert from 'node:assert/strict';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { after, before, test } from 'node:test';
+import { fileURLToPath } from 'node:url';
+
+import { chromiumForFile, linkToPage, offlineContext, openPage, savedTrade, settled, until } from './harness.mjs';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
+const exampleText = readFileSync(join(root, 'examples/currency-receivable-put.json'), 'utf8');
+const axeSource = readFileSync(join(root, 'web/node_modules/axe-core/axe.min.js'), 'utf8');
+const run = chromiumForFile(before, after);
+
+/** The client sheet as printed to PDF and read back by pdftotext (poppler-utils), spaces folded. */
+async function printedSheet(page) {
+  await page.emulateMedia({ media: 'print' });
+  await page.evaluate(() => window.dispatchEvent(new Event('beforeprint')));
+  const path = join(mkdtempSync(join(tmpdir(), 'hedgeleaf-pair-')), 'sheet.pdf');
+  writeFileSync(path, await page.pdf({ format: 'A4' }));
+  await page.emulateMedia({ media: 'screen' });
+  return execFileSync('pdftotext', ['-layout', path, '-'], { encoding: 'utf8' }).replace(/[ \t]+/g, ' ');
+}
+
+// Covered interest parity with money-market deposits (common practice; docs/currency.md "Rates as
+// quoted"): F = S (1 + r_d d/360) / (1 + r_f d/360) over the d = 274 days from the spot date
+// 2026-12-07 (Thursday 3 December + 2 business days) to the delivery date 2027-09-07 (Friday
+// 3 September + 2 business days); points = (F - S) / 0.0001.
+const days = 274;
+const forward = (1.085 * (1 + (0.03 * days) / 360)) / (1 + (0.015 * days) / 360);
+const forwardPoints = (forward - 1.085) / 0.0001;
+// the same with the domestic deposit quoted ACT/365 (the sheet is printed after that change)
+const pointsAct365 = ((1.085 * (1 + (0.03 * days) / 365)) / (1 + (0.015 * days) / 360) - 1.085) / 0.0001;
+
+test('a currency pair: its fields, forward points, premium as quoted, client sheet, saved and reopened', async () => {
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const page = await openPage(context, linkToPage(exampleText), problems);
+
+  // The pair's fields, in the pair's words; the share's fields are not shown.
+  assert.equal(await page.inputValue('#underlying-kind'), 'currency_pair');
+  assert.equal(await page.inputValue('[data-path="underlying.base"]'), 'EUR');
+  assert.equal(await page.inputValue('#domestic_rate-input'), '3');
+  assert.equal(await page.inputValue('#foreign_rate-input'), '1.5');
+  assert.equal(await page.inputValue('#domestic_rate-basis'), 'ACT/360 simple');
+  assert.equal(await page.inputValue('#premium-convention'), 'domestic_pips');
+  assert.equal(await page.inputValue('[data-path="notional.amount"]'), '5,000,000');
+  for (const hidden of ['#carry_yield-field', '#rate-field', '#dividends', '[data-path="quantity"]'])
+    assert.equal(await page.locator(hidden).isVisible(), false, `${hidden} is not shown for a pair`);
+  const terms = await page.locator('#terms').innerText();
+  assert.doesNotMatch(terms, /dividend|shares/i, 'the terms form speaks of the pair');
+  assert.match(await page.locator('#results').innerText(), /Foreign, EUR \(Δ\)/);
+
+  // The forward points (to the hundredth of a pip) and the premium in the chosen convention.
+  assert.equal(await page.textContent('#pair-forward-points'), `${forwardPoints.toFixed(2)} pips (pip 0.0001)`);
+  // the dates: Thursday 3 December 2026 + 2 business days; Friday 3 September 2027 + 2 (common practice)
+  const dateLine = await page.textContent('#pair-date-line');
+  for (const date of ['spot 12/07/2026', 'expiry 09/03/2027', 'delivery 09/07/2027', 'premium 12/07/2026'])
+    assert.ok(dateLine.includes(date), `${date} in "${dateLine}" (the browser's en-US dates)`);
+  assert.match(await page.locator('#pair-figures').innerText(), /Position delta \(EUR\)/);
+  assert.match(await page.textContent('#pair-forward'), new RegExp(`^${forward.toFixed(6)} USD per EUR`));
+  assert.match(await page.textContent('#pair-premium'), /^\d+\.\d\d USD pips per EUR$/);
+  assert.match(await page.textContent('#pair-delta-position'), /^−1,46\d,\d{3} EUR$/);
+
+  // Another convention, the forward delta and the domestic rate quoted ACT/365: written into the trade.
+  await page.selectOption('#premium-convention', 'percent_of_foreign');
+  await page.selectOption('#delta-convention', 'forward');
+  await page.selectOption('#domestic_rate-basis', 'ACT/365 simple');
+  await settled(page);
+  assert.match(await page.textContent('#pair-premium'), /^1\.\d{4} % of the EUR notional$/);
+  assert.match(await page.textContent('#pair-delta'), /\(forward delta\)$/);
+
+  // axe-core with the pair's fields and its folded conventions open.
+  await page.click('#pair-more summary');
+  await page.evaluate(axeSource);
+  const findings = await page.evaluate(async () => {
+    const r = await window.axe.run(document, { resultTypes: ['violations'] });
+    return r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id);
+  });
+  assert.deepEqual(findings, [], 'axe-core: no serious or critical violation with the pair open');
+
+  // The client sheet: the pair, its dates and the price as quoted; no shares, no dividends.
+  const sheet = await printedSheet(page);
+  assert.match(sheet, /EUR\/USD/);
+  for (const date of ['Spot date 12/07/2026', 'Expiry date 09/03/2027', 'Delivery date 09/07/2027'])
+    assert.match(sheet, new RegExp(date), `${date} on the sheet`);
+  assert.match(sheet, /Client price, as quoted 1\.\d{4} % of the EUR/);
+  assert.match(sheet, new RegExp(`Forward points ${pointsAct365.toFixed(2)}`));
+  assert.match(sheet, /Indicative only/);
+  assert.doesNotMatch(sheet, /shares|dividend/i);
+
+  // Save file keeps every convention as the engine reads it; a link to the saved trade reopens it.
+  const { trade } = await savedTrade(page);
+  assert.deepEqual(trade.conventions, { premium: 'percent_of_foreign', premium_currency: 'USD', delta: 'forward' });
+  assert.deepEqual(trade.market.domestic_rate, { rate: 0.03, day_count: 'ACT/365', compounding: 'simple' });
+  assert.deepEqual(trade.market.foreign_rate, { rate: 0.015, day_count: 'ACT/360', compounding: 'simple' });
+  assert.deepEqual(trade.notional, { amount: 5000000, currency: 'EUR' });
+  assert.deepEqual(trade.underlying, { kind: 'currency_pair', base: 'EUR', quote: 'USD' });
+  const again = await openPage(context, linkToPage(JSON.stringify(trade)), problems);
+  assert.equal(await again.inputValue('#premium-convention'), 'percent_of_foreign');
+  assert.equal(await again.inputValue('#delta-convention'), 'forward');
+  assert.equal(await again.inputValue('#domestic_rate-basis'), 'ACT/365 simple');
+  assert.match(await again.textContent('#pair-premium'), /% of the EUR notional$/);
+
+  // To a share and back: the pair's conventions and quotes come back as they were.
+  await again.selectOption('#underlying-kind', 'equity');
+  await settled(again);
+  assert.equal(await again.locator('#carry_yield-field').isVisible(), true);
+  await again.selectOption('#underlying-kind', 'currency_pair');
+  await settled(again);
+  await until(again, () => document.querySelector('#premium-convention').value === 'percent_of_foreign');
+  const back = (await savedTrade(again)).trade;
+  assert.deepEqual(back.conventions, trade.conventions);
+  assert.deepEqual(back.notional, trade.notional);
+  assert.deepEqual(back.market.domestic_rate, trade.market.domestic_rate, 'the quote comes back with its day count');
+  assert.deepEqual(problems, []);
+  await context.close();
+});
