@@ -4,6 +4,7 @@
 #include "commands/json_read.hpp"
 #include "commands/trade_reader.hpp"
 
+#include <cmath>
 #include <string>
 
 namespace hedgeleaf {
@@ -29,5 +30,18 @@ auto run_steps(const std::string& text, Read read, Run run) {
     const trade t = read_trade(doc);
     return run(t, read(doc, t));
 }
+
+/// The treasurer's EUR/USD market of examples/currency-receivable-put.json, shared by the
+/// currency tests: spot 1.0850, volatility 8 %, 274 days trade to expiry (ACT/365F), forward
+/// 1.0972472604432726 and domestic discount factor 0.9776763891152029 from 3 % and 1.5 %
+/// ACT/360 simple over 274 days (computed with Python).
+namespace treasurer_eurusd {
+inline constexpr double spot = 1.0850, forward = 1.0972472604432726, discount = 0.9776763891152029;
+inline const double years = 274 / 365.0;
+inline market_data market() {
+    const double rate = -std::log(discount) / years;
+    return flat_market(spot, 0.08, rate, rate - std::log(forward / spot) / years);
+}
+}  // namespace treasurer_eurusd
 
 }  // namespace hedgeleaf

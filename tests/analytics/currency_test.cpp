@@ -6,6 +6,8 @@
 #include "contract/errors.hpp"
 #include "numerics/closed_form.hpp"
 
+#include "test_support.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -14,16 +16,11 @@ using namespace hedgeleaf;
 
 namespace {
 
-// The treasurer's EUR/USD market of examples/currency-receivable-put.json: spot 1.0850,
-// volatility 8 %, 274 days trade to expiry (ACT/365F), forward 1.0972472604432726 and domestic
-// discount factor 0.9776763891152029 from 3 % and 1.5 % ACT/360 simple over 274 days (Python).
-constexpr double spot = 1.0850, forward = 1.0972472604432726, discount = 0.9776763891152029;
-const double years = 274 / 365.0;
-
-market_data treasurer_market() {
-    const double rate = -std::log(discount) / years;
-    return flat_market(spot, 0.08, rate, rate - std::log(forward / spot) / years);
-}
+using treasurer_eurusd::discount;
+using treasurer_eurusd::forward;
+using treasurer_eurusd::spot;
+using treasurer_eurusd::years;
+market_data treasurer_market() { return treasurer_eurusd::market(); }
 
 option_leg european(payoff_kind type, double strike) { return single_leg(type, strike, years); }
 

@@ -5,6 +5,8 @@
 #include "analytics/currency.hpp"
 #include "contract/errors.hpp"
 
+#include "test_support.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -13,15 +15,11 @@ using namespace hedgeleaf;
 
 namespace {
 
-// The treasurer's EUR/USD market (examples/currency-receivable-put.json; tests/analytics/
-// currency_test.cpp): 274 days to expiry, forward and discount factor from 3 % and 1.5 % ACT/360.
-constexpr double spot = 1.0850, forward = 1.0972472604432726, discount = 0.9776763891152029;
-const double years = 274 / 365.0;
-
-market_data treasurer_market() {
-    const double rate = -std::log(discount) / years;
-    return flat_market(spot, 0.08, rate, rate - std::log(forward / spot) / years);
-}
+using treasurer_eurusd::discount;
+using treasurer_eurusd::forward;
+using treasurer_eurusd::spot;
+using treasurer_eurusd::years;
+market_data treasurer_market() { return treasurer_eurusd::market(); }
 
 delta_quote quote(double atm, double rr25, double bf25) {
     delta_quote q;
