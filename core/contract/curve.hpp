@@ -49,6 +49,9 @@ public:
     /// The curve as seen `years` from now: its zero rates run from then (forward rates kept).
     curve seen_from(double years) const;
 
+    /// The same rates at the same points (analytics/pricing.cpp remembers prices by their inputs).
+    friend bool operator==(const curve&, const curve&) = default;
+
 private:
     // A curve given by points is kept as its integral r(t) t, linear between knots
     // (years_[i], integrals_[i]) that start at (0, 0) implicitly, with the last forward

@@ -31,6 +31,8 @@ struct smile_grid {
     std::vector<std::vector<double>> vols;  ///< vols[i][j]: expiry i, strike j; decimals
     strike_basis basis = strike_basis::percent_of_spot;
     double spot = 0;  ///< the market's spot when the grid was given (absolute strikes move with it)
+
+    friend bool operator==(const smile_grid&, const smile_grid&) = default;
 };
 
 /// A volatility read off the smile and whether it lies beyond the grid.
@@ -51,6 +53,8 @@ public:
     smile_point at(double x, double years) const;
     /// Expiry row `i` read at strike coordinate `x` (monotone cubic in log x, flat beyond).
     double row_at(std::size_t i, double x) const;
+    /// The same grid (the rest is derived from it).
+    friend bool operator==(const volatility_smile& a, const volatility_smile& b) { return a.grid_ == b.grid_; }
 
 private:
     smile_grid grid_;

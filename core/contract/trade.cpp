@@ -8,6 +8,16 @@
 
 namespace hedgeleaf {
 
+bool operator==(const market_data& a, const market_data& b) {
+    // Field by field (a defaulted comparison would compare the smile's pointer, not its grid);
+    // a field added to market_data belongs here too.
+    const bool same_smile = a.smile == b.smile || (a.smile && b.smile && *a.smile == *b.smile);
+    return same_smile && a.spot == b.spot && a.volatility == b.volatility && a.rate == b.rate &&
+           a.carry_yield == b.carry_yield && a.borrow == b.borrow && a.dividends == b.dividends &&
+           a.smile_spot == b.smile_spot && a.smile_shift == b.smile_shift && a.as_of == b.as_of &&
+           a.underlying == b.underlying;
+}
+
 double market_data::dividend_pv(double from_years, double until_years) const {
     double pv = 0;
     for (const auto& d : dividends)

@@ -29,6 +29,8 @@ enum class lattice_method { crr, jarrow_rudd, tian, leisen_reimer };
 struct dividend {
     double years = 0;   ///< paid this many years from valuation
     double amount = 0;  ///< cash per share
+
+    friend bool operator==(const dividend&, const dividend&) = default;
 };
 
 struct market_data {
@@ -73,6 +75,9 @@ struct market_data {
     /// The volatility for `strike` at `years`: the smile's (at its own spot, plus its shift),
     /// or `volatility` when there is no smile.
     smile_point volatility_at(double strike, double years) const;
+
+    /// Every field equal, the smile by its grid (analytics/pricing.cpp remembers prices by their inputs).
+    friend bool operator==(const market_data& a, const market_data& b);
 };
 
 /// How a strike was written (contract/limits.hpp: strike_forms, after "price").
@@ -84,6 +89,8 @@ struct strike_terms {
     strike_form form = strike_form::price;
     double value = 0;      ///< the number written (a price, a percentage, or a delta such as -0.25)
     double unrounded = 0;  ///< the strike before rounding to strike_tick (a price: the strike itself)
+
+    friend bool operator==(const strike_terms&, const strike_terms&) = default;
 };
 
 /// One option (or share) position inside a trade.
@@ -99,6 +106,8 @@ struct option_leg {
     /// The leg's own volatility when it is fixed: solved for this leg alone, or held at today's
     /// smile while time moves (schedules, time ladders). None: market_data::volatility_at.
     std::optional<double> volatility;
+
+    friend bool operator==(const option_leg&, const option_leg&) = default;
 };
 
 /// A market without cash dividends, in one line (tests, benchmarks).
@@ -127,6 +136,8 @@ struct lattice_settings {
     lattice_method method = lattice_method::leisen_reimer;
     int steps = 0;  ///< 0 = default for the method
     bool extrapolate = true;
+
+    friend bool operator==(const lattice_settings&, const lattice_settings&) = default;
 };
 
 /// The highest volatility the lattice takes for a trade whose last expiry is `years` away

@@ -33,9 +33,10 @@ const state = pageState(commandsFrom(byId('engine-commands').textContent));
 
 // The engine's WebAssembly is compiled once, by the first worker, and every later
 // worker gets the compiled module (compute.js engineWorkers). Two engines on two
-// workers: `live` prices, `desk` runs the profile, hedge schedule, ladder and solve
-// for the same edit at the same time, so the slowest of them, not their sum, sets
-// how long a recompute takes. The simulation has a worker of its own.
+// workers share an edit's calls, so that the slower of them, not the sum, sets how
+// long a recompute takes: `live` prices and then runs the hedge schedule (it takes
+// the trade's premium from the price just made: analytics/pricing.cpp), `desk` runs
+// the profile, ladder, solve and comparison. The simulation has a worker of its own.
 const workers = engineWorkers(
   byId('engine-js').textContent,
   byId('worker-js').textContent,
@@ -53,7 +54,7 @@ const bindControls = () => syncErrorPaths(scope, state.doc);
 // the cards are made first, with this forward call into the cycle made after them.
 const changed = (delay) => cycle.changed(delay);
 const shared = { state, showError, setStale, changed, bindControls };
-const hedge = hedgePanel({ ...shared, live: desk });
+const hedge = hedgePanel({ ...shared, live });
 const simulate = simulatePanel({ ...shared, makeWorker, mainThreadFactory, clearErrors });
 const ladder = ladderPanel({ ...shared, live: desk });
 const solve = solvePanel({ ...shared, live: desk, notice, refill: fillForm });
