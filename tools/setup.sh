@@ -71,11 +71,9 @@ build_page() {
 }
 
 # The whole native suite again under ASan + UBSan with clang (preset "sanitize", build/sanitize,
-# which also builds the libFuzzer target from the same instrumented core), then the deterministic
-# libFuzzer replay over every command (tests/fuzz/run.sh replay: the committed inputs and 20,000
-# mutations from a fixed seed). Each step prints its time: CI has 2 cores and a 15-minute budget
-# for the whole test command.
-sanitize_and_fuzz() {
+# which also builds the libFuzzer target from the same instrumented core). Prints its time: CI
+# has 2 cores and a 15-minute budget for the whole test command.
+sanitize() {
     local start=$SECONDS
     say "native tests and the fuzz target under AddressSanitizer + UndefinedBehaviorSanitizer (clang)"
     cmake --preset sanitize >/dev/null
@@ -83,16 +81,27 @@ sanitize_and_fuzz() {
     # (the style and layering checks run no engine code: the native run covers them)
     (cd build/sanitize && UBSAN_OPTIONS=print_stacktrace=1 ctest --output-on-failure -j"$jobs" -E '^(format|layering|layering_self_test)$')
     say "sanitizer build and tests took $((SECONDS - start)) s"
-    start=$SECONDS
-    say "fuzzing every command: committed inputs and 20,000 fixed-seed mutations (libFuzzer + ASan + UBSan)"
+}
+
+# The deterministic libFuzzer replay over every command (tests/fuzz/run.sh replay: the committed
+# inputs and 20,000 mutations from a fixed seed), into build/fuzz.log. One process on one core:
+# the test command runs it beside the WebAssembly build (fuzz_start, then fuzz_result).
+fuzz_start() {
+    say "fuzzing every command (committed inputs and 20,000 fixed-seed mutations; libFuzzer + ASan + UBSan), beside the page build"
     mkdir -p build
-    if ! bash tests/fuzz/run.sh replay > build/fuzz.log 2>&1; then
+    fuzz_began=$SECONDS
+    bash tests/fuzz/run.sh replay > build/fuzz.log 2>&1 &
+    fuzz_pid=$!
+}
+
+fuzz_result() {
+    if ! wait "$fuzz_pid"; then
         tail -n 60 build/fuzz.log
         echo "fuzzing found a problem: the reproducer is in build/fuzz/artifacts (log: build/fuzz.log)" >&2
         return 1
     fi
     grep -E '^(#[0-9]+ +(INITED|DONE)|stat::)' build/fuzz.log || true
-    say "fuzz run took $((SECONDS - start)) s"
+    say "fuzz run took $((SECONDS - fuzz_began)) s (beside the page build)"
 }
 
 # The browser tests, each engine with its time (CI: 2 cores, 15 minutes for everything). The
@@ -106,7 +115,8 @@ browser_tests() {
     for f in tests/browser/*.test.mjs; do
         case "$f" in *.engine.test.mjs) ;; *) files+=("$f") ;; esac
     done
-    node --test "${files[@]}"
+    # two files at a time: each mostly waits on its page (debounces, engine workers), so two share the cores
+    node --test --test-concurrency=2 "${files[@]}"
     say "chromium browser tests took $((SECONDS - start)) s"
     start=$SECONDS
     say "browser tests: firefox and webkit, side by side"
@@ -143,8 +153,10 @@ case "$mode" in
         build_native
         say "native tests"
         (cd build/native && ctest --output-on-failure -j"$jobs")
-        sanitize_and_fuzz
+        sanitize
+        fuzz_start
         build_page
+        fuzz_result
         say "module tests (node)"
         node --test tests/node/
         browser_tests

@@ -158,12 +158,13 @@ test('a huge paste is refused beside its field at once, and the page never block
       new Promise((resolve) => setTimeout(() => resolve(Infinity), 5000)),
     ]);
     assert.ok(ms < 1000, `reading the paste took ${ms} ms`);
-    // the page answers: the refusal beside the field within a second, nothing at the top
+    // the page answers: the refusal beside the field (a 250 ms pause after typing; 3 s allows for a
+    // busy machine), nothing at the top
     const answered = await until(
       page,
       () => document.querySelector('[data-error="market.spot"]').textContent,
       undefined,
-      1500,
+      3000,
     );
     assert.match(answered, /too long/);
     assert.equal(await errorAt(page, ''), '', 'no message about the whole document');
@@ -184,7 +185,9 @@ test('a huge paste is refused beside its field at once, and the page never block
           }, 1000);
         }),
     );
-    assert.ok(longest < 300, `the page stalled for ${longest} ms`);
+    // A blocked page stalls for seconds; a busy 2-core machine running other tests beside this
+    // one has held a healthy page's timer back some 300 ms: a second is the line.
+    assert.ok(longest < 1000, `the page stalled for ${longest} ms`);
     assert.equal((await page.inputValue('[data-path="market.spot"]')).length, (1 << 20) + tail.length, 'kept');
   }
   await typeSpot(page, '48.20');
