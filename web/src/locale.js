@@ -29,6 +29,9 @@ function example(tag) {
 /**
  * Wire the format picker (`select#number-format`): the remembered choice applies before anything is
  * drawn; a new one is kept in `store` (localStorage, may be null) and `redraw` shows the page in it.
+ * Writing each choice's example makes the browser load that locale's data (some 30-90 ms for all
+ * of them on a fast machine), so the list starts with the current choice alone and is filled once
+ * the first figures are in (the returned fillChoices()), or as soon as the picker is reached.
  */
 export function localePicker({ store, redraw }) {
   const picker = byId('number-format');
@@ -39,14 +42,23 @@ export function localePicker({ store, redraw }) {
     kept = '';
   }
   if (!offered.includes(kept)) kept = '';
-  const browser = new Intl.NumberFormat().resolvedOptions().locale;
-  picker.replaceChildren(
-    ...offered.map((tag) =>
-      make('option', { value: tag, text: tag ? `${example(tag)} (${tag})` : `As this browser (${browser})` }),
-    ),
-  );
+  const option = (tag) =>
+    make('option', {
+      value: tag,
+      text: tag ? `${example(tag)} (${tag})` : `As this browser (${new Intl.NumberFormat().resolvedOptions().locale})`,
+    });
+  picker.replaceChildren(option(kept));
   picker.value = kept;
   setPageLocale(kept || null);
+  let filled = false;
+  function fillChoices() {
+    if (filled) return;
+    filled = true;
+    const current = picker.value;
+    picker.replaceChildren(...offered.map(option));
+    picker.value = current;
+  }
+  for (const reached of ['focus', 'pointerdown', 'mousedown']) picker.addEventListener(reached, fillChoices);
   picker.addEventListener('change', () => {
     try {
       store?.setItem(storeKey, picker.value);
@@ -56,4 +68,5 @@ export function localePicker({ store, redraw }) {
     setPageLocale(picker.value || null);
     redraw();
   });
+  return { fillChoices };
 }

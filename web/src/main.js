@@ -139,7 +139,7 @@ function wirePresentSwitch() {
 async function start() {
   state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
-  localePicker({ store: browserStore('localStorage'), redraw: () => (fillForm(), changed(0)) });
+  const locales = localePicker({ store: browserStore('localStorage'), redraw: () => (fillForm(), changed(0)) });
   const first = await openingTrade(state, work, live);
   openDocument(state, first.doc);
   // The price is asked for first, before the form is drawn, so that the engine worker
@@ -156,6 +156,8 @@ async function start() {
   cycle.recompute().finally(() => {
     if (!first.figures) setUpCards();
     desk.warmUp();
+    // the format picker's other choices (each loads its locale's data) once the browser is idle
+    (globalThis.requestIdleCallback ?? setTimeout)(() => locales.fillChoices());
   });
   if (first.figures) setUpCards();
   market.fill();
