@@ -31,6 +31,27 @@ auto run_steps(const std::string& text, Read read, Run run) {
     return run(t, read(doc, t));
 }
 
+/// A smile skewed to the downside, percent of spot, two expiries (invented figures).
+inline constexpr const char* downside_skew = R"({"expiries": [0.5, 2], "strikes": [70, 85, 100, 115, 130],
+    "vols": [[0.33, 0.27, 0.22, 0.195, 0.19], [0.3, 0.26, 0.225, 0.205, 0.2]]})";
+
+/// Three legs, one of each exercise style (an American 90 put, a European 115 call sold, half a
+/// Bermudan 120 call), with a cash dividend, at `volatility` (a number or a smile document).
+inline json three_styles(const json& volatility) {
+    json d = json::parse(R"({
+      "market": {"spot": 100, "rate": 0.03, "carry_yield": 0.01,
+                 "dividends": [{"time_years": 0.4, "amount": 1.2}]},
+      "legs": [
+        {"type": "put", "strike": 90, "expiry_years": 1, "quantity": 1, "exercise": "american"},
+        {"type": "call", "strike": 115, "expiry_years": 1, "quantity": -1},
+        {"type": "call", "strike": 120, "expiry_years": 1.5, "quantity": 0.5, "exercise": "bermudan",
+         "exercise_years": [0.75, 1.25]}
+      ]
+    })");
+    d["market"]["volatility"] = volatility;
+    return d;
+}
+
 /// The treasurer's EUR/USD market of examples/currency-receivable-put.json, shared by the
 /// currency tests: spot 1.0850, volatility 8 %, 274 days trade to expiry (ACT/365F), forward
 /// 1.0972472604432726 and domestic discount factor 0.9776763891152029 from 3 % and 1.5 %

@@ -16,11 +16,7 @@ using namespace hedgeleaf;
 
 namespace {
 
-using treasurer_eurusd::discount;
-using treasurer_eurusd::forward;
-using treasurer_eurusd::spot;
-using treasurer_eurusd::years;
-market_data treasurer_market() { return treasurer_eurusd::market(); }
+using namespace treasurer_eurusd;  // spot, forward, discount, years (tests/test_support.hpp)
 
 option_leg european(payoff_kind type, double strike) { return single_leg(type, strike, years); }
 
@@ -41,7 +37,7 @@ TEST_CASE("Garman-Kohlhagen: a handbook example and scipy", "[currency]") {
 }
 
 TEST_CASE("the lattice market reproduces D x Black(F, K) and put-call parity with forward points", "[currency]") {
-    const market_data m = treasurer_market();
+    const market_data m = treasurer_eurusd::market();
     const forward_view f = forward_view_of(m, years);
     CHECK(f.forward == Approx(forward).epsilon(1e-14));
     CHECK(f.discount == Approx(discount).epsilon(1e-14));
@@ -78,7 +74,7 @@ TEST_CASE("premium conventions: a worked example and round trips", "[currency]")
 }
 
 TEST_CASE("delta conventions: closed forms and their relations", "[currency]") {
-    const market_data m = treasurer_market();
+    const market_data m = treasurer_eurusd::market();
     const option_leg put = european(payoff_kind::put, 1.06);
     // scipy.stats.norm: forward delta -N(-d1) = -0.29704847281389646; spot delta D F / S times
     // it; premium-adjusted forward -(K/F) N(-d2) = -0.31055642025506647 (Reiswich and Wystup
@@ -91,7 +87,7 @@ TEST_CASE("delta conventions: closed forms and their relations", "[currency]") {
 }
 
 TEST_CASE("strikes by delta in each convention", "[currency]") {
-    const market_data m = treasurer_market();
+    const market_data m = treasurer_eurusd::market();
     // scipy: unadjusted strikes in closed form, F exp(-phi N^-1(phi Delta_f) sigma sqrt T +
     // sigma^2 T / 2); adjusted ones by brentq (the call's on the branch above its highest delta).
     const struct {

@@ -5,6 +5,8 @@
 #include "commands/trade_reader.hpp"
 #include "dispatch/dispatch.hpp"
 
+#include "../test_support.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -14,24 +16,6 @@ using namespace hedgeleaf;
 namespace {
 json doc_of(const char* text) { return json::parse(text); }
 
-// A smile skewed to the downside, percent of spot, two expiries.
-const char* skew = R"({"expiries": [0.5, 2], "strikes": [70, 85, 100, 115, 130],
-                       "vols": [[0.33, 0.27, 0.22, 0.195, 0.19], [0.3, 0.26, 0.225, 0.205, 0.2]]})";
-
-json collar(const json& volatility) {
-    json d = doc_of(R"({
-      "market": {"spot": 100, "rate": 0.03, "carry_yield": 0.01,
-                 "dividends": [{"time_years": 0.4, "amount": 1.2}]},
-      "legs": [
-        {"type": "put", "strike": 90, "expiry_years": 1, "quantity": 1, "exercise": "american"},
-        {"type": "call", "strike": 115, "expiry_years": 1, "quantity": -1},
-        {"type": "call", "strike": 120, "expiry_years": 1.5, "quantity": 0.5, "exercise": "bermudan",
-         "exercise_years": [0.75, 1.25]}
-      ]
-    })");
-    d["market"]["volatility"] = volatility;
-    return d;
-}
 }  // namespace
 
 TEST_CASE("a flat grid prices exactly as the same volatility given as one number", "[leg_market]") {
@@ -39,8 +23,8 @@ TEST_CASE("a flat grid prices exactly as the same volatility given as one number
         "vols": [[0.23, 0.23, 0.23], [0.23, 0.23, 0.23], [0.23, 0.23, 0.23]]})");
     for (const char* command : {"price", "tree", "hedge"}) {
         INFO(command);
-        const json a = run_command(command, collar(0.23));
-        const json b = run_command(command, collar(flat_grid));
+        const json a = run_command(command, three_styles(0.23));
+        const json b = run_command(command, three_styles(flat_grid));
         if (std::string(command) == "price") {
             CHECK(a["premium"].get<double>() == b["premium"].get<double>());
             for (std::size_t i = 0; i < 3; ++i)
@@ -54,8 +38,8 @@ TEST_CASE("a flat grid prices exactly as the same volatility given as one number
 }
 
 TEST_CASE("each leg is priced at the smile's volatility for its own strike and expiry", "[leg_market]") {
-    const json out = run_command("price", collar(json::parse(skew)));
-    const trade t = read_trade(collar(json::parse(skew)));
+    const json out = run_command("price", three_styles(json::parse(downside_skew)));
+    const trade t = read_trade(three_styles(json::parse(downside_skew)));
     for (std::size_t i = 0; i < 3; ++i) {
         const double want = t.market.volatility_at(t.legs[i].strike, t.legs[i].expiry_years).volatility;
         CHECK(out["legs"][i]["market"]["volatility"].get<double>() == want);
@@ -199,7 +183,7 @@ TEST_CASE("a zero-cost collar solved to a strike tick shows what rounding leaves
                {"type": "call", "strike": 110, "expiry_years": 1, "quantity": -1}],
       "solve": {"for": "strike", "leg": 1, "target_premium": 0}
     })");
-    d["market"]["volatility"] = json::parse(skew);
+    d["market"]["volatility"] = json::parse(downside_skew);
     const json out = run_command("solve", d);
     const double rounded = out["rounded"]["strike"].get<double>();
     CHECK(std::fabs(rounded - out["solution"].get<double>()) <= 0.25);
@@ -215,9 +199,9 @@ TEST_CASE("the volatility solve on a smile finds a parallel move, or one leg's v
     // The move is added to the volatility read off the smile; on the grid's own expiries that
     // is the same as adding it to every cell (between expiries total variance interpolates,
     // which is not linear in the move), so the legs sit on expiries here.
-    json grid = json::parse(skew);
+    json grid = json::parse(downside_skew);
     grid["expiries"] = {1, 1.5};
-    json d = collar(grid);
+    json d = three_styles(grid);
     json shifted = d;
     // Price the collar with the whole smile 2 points higher: the solve must find 0.02.
     for (auto& row : shifted["market"]["volatility"]["vols"])
@@ -245,7 +229,7 @@ TEST_CASE("ladders say how the smile moves with spot: sticky strike or sticky mo
       "option": {"type": "put", "strike": 100, "expiry_years": 1},
       "ladder": {"kind": "spot", "spot_from": 0.1, "spot_to": 0.1, "spot_step": 0.05}
     })");
-    d["market"]["volatility"] = json::parse(skew);
+    d["market"]["volatility"] = json::parse(downside_skew);
     const trade t = read_trade(d);
     const auto value_with = [&](const json& volatility, const char* move) {
         json x = d;
@@ -254,8 +238,8 @@ TEST_CASE("ladders say how the smile moves with spot: sticky strike or sticky mo
         const json out = run_command("ladder", x);
         return out["rows"][0]["value"].get<double>();
     };
-    const double sticky_strike = value_with(json::parse(skew), nullptr);
-    const double sticky_moneyness = value_with(json::parse(skew), "sticky-moneyness");
+    const double sticky_strike = value_with(json::parse(downside_skew), nullptr);
+    const double sticky_moneyness = value_with(json::parse(downside_skew), "sticky-moneyness");
     CHECK(sticky_strike == Approx(value_with(t.market.volatility_at(100, 1).volatility, nullptr)).epsilon(1e-12));
     CHECK(sticky_moneyness ==
           Approx(value_with(t.market.volatility_at(100 * 100 / 110.0, 1).volatility, nullptr)).epsilon(1e-12));

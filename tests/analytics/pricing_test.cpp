@@ -17,25 +17,15 @@ using namespace hedgeleaf;
 
 namespace {
 
-// Three legs (American, European, Bermudan) on a smile with rate, yield and borrow curves and a
-// cash dividend: every part of the market a leg's lattice reads.
+// The three-style structure on the downside skew (tests/test_support.hpp) with rate, yield and
+// borrow curves: every part of the market a leg's lattice reads.
 json base_document() {
-    return json::parse(R"({
-      "market": {"spot": 100,
-                 "volatility": {"expiries": [0.5, 2], "strikes": [70, 85, 100, 115, 130],
-                                "vols": [[0.33, 0.27, 0.22, 0.195, 0.19], [0.3, 0.26, 0.225, 0.205, 0.2]]},
-                 "rate": {"points": [{"years": 0.5, "rate": 0.03}, {"years": 2, "rate": 0.035}]},
-                 "carry_yield": {"points": [{"years": 1, "rate": 0.01}]},
-                 "borrow": 0.004,
-                 "dividends": [{"time_years": 0.4, "amount": 1.2}]},
-      "legs": [
-        {"type": "put", "strike": 90, "expiry_years": 1, "quantity": 1, "exercise": "american"},
-        {"type": "call", "strike": 115, "expiry_years": 1, "quantity": -1},
-        {"type": "call", "strike": 120, "expiry_years": 1.5, "quantity": 0.5, "exercise": "bermudan",
-         "exercise_years": [0.75, 1.25]}
-      ],
-      "lattice": {"steps": 201}
-    })");
+    json d = three_styles(json::parse(downside_skew));
+    d["market"]["rate"] = json::parse(R"({"points": [{"years": 0.5, "rate": 0.03}, {"years": 2, "rate": 0.035}]})");
+    d["market"]["carry_yield"] = json::parse(R"({"points": [{"years": 1, "rate": 0.01}]})");
+    d["market"]["borrow"] = 0.004;
+    d["lattice"]["steps"] = 201;
+    return d;
 }
 
 /// The trade's premium with every leg priced afresh (numerics, no memory).

@@ -15,11 +15,7 @@ using namespace hedgeleaf;
 
 namespace {
 
-using treasurer_eurusd::discount;
-using treasurer_eurusd::forward;
-using treasurer_eurusd::spot;
-using treasurer_eurusd::years;
-market_data treasurer_market() { return treasurer_eurusd::market(); }
+using namespace treasurer_eurusd;  // spot, forward, discount, years (tests/test_support.hpp)
 
 delta_quote quote(double atm, double rr25, double bf25) {
     delta_quote q;
@@ -54,7 +50,7 @@ TEST_CASE("wing volatilities from a risk reversal and a butterfly, by hand", "[s
 }
 
 TEST_CASE("at-the-money is the delta-neutral straddle in each convention", "[smile_by_delta]") {
-    const market_data m = treasurer_market();
+    const market_data m = treasurer_eurusd::market();
     for (const auto c : all_conventions) {
         const delta_smile_point atm{"atm", atm_strike(forward, 0.08, years, c), 0.08};
         // Reiswich and Wystup 2010 (from memory): a straddle at this strike has no delta.
@@ -66,7 +62,7 @@ TEST_CASE("at-the-money is the delta-neutral straddle in each convention", "[smi
 }
 
 TEST_CASE("each wing's strike has its delta in the convention, at its own volatility", "[smile_by_delta]") {
-    const market_data m = treasurer_market();
+    const market_data m = treasurer_eurusd::market();
     delta_quote q = quote(0.08, -0.006, 0.0025);
     q.rr10 = -0.011;
     q.bf10 = 0.009;
@@ -93,7 +89,7 @@ TEST_CASE("each wing's strike has its delta in the convention, at its own volati
 }
 
 TEST_CASE("the grid in percent of the forward holds every expiry's points", "[smile_by_delta]") {
-    const market_data m = treasurer_market();
+    const market_data m = treasurer_eurusd::market();
     const delta_smile_row row = smile_row_of(m, quote(0.08, -0.006, 0.0025), delta_convention::spot, "q");
     delta_quote later = quote(0.085, -0.007, 0.003);
     later.expiry_years = 2 * years;
@@ -117,6 +113,6 @@ TEST_CASE("wings on the wrong side of at-the-money name the butterfly", "[smile_
     q.rr10 = -0.011;
     q.bf10 = -0.045;  // 10-delta wings far below the 25-delta ones: their strikes fall inside
     CHECK_THROWS_WITH(
-        smile_row_of(treasurer_market(), q, delta_convention::spot, "market.volatility.quotes_by_delta[0]"),
+        smile_row_of(treasurer_eurusd::market(), q, delta_convention::spot, "market.volatility.quotes_by_delta[0]"),
         Catch::StartsWith("market.volatility.quotes_by_delta[0].bf10: puts the 10-delta strikes"));
 }
