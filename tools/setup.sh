@@ -92,10 +92,15 @@ fuzz_start() {
     fuzz_began=$SECONDS
     bash tests/fuzz/run.sh replay > build/fuzz.log 2>&1 &
     fuzz_pid=$!
+    # a failed page build ends the command: take the replay with it
+    trap 'kill "$fuzz_pid" 2>/dev/null || true' EXIT
 }
 
 fuzz_result() {
-    if ! wait "$fuzz_pid"; then
+    local status=0
+    wait "$fuzz_pid" || status=$?
+    trap - EXIT
+    if [ "$status" -ne 0 ]; then
         tail -n 60 build/fuzz.log
         echo "fuzzing found a problem: the reproducer is in build/fuzz/artifacts (log: build/fuzz.log)" >&2
         return 1

@@ -2,8 +2,8 @@
 //
 // An edit calls changed(): the page autosaves and, after a short pause (so that
 // typing is not priced key by key), recompute() posts every call the edit needs
-// at once to the two engine channels: the price on `live`, the profile and the
-// cards' calls on `desk`. Results are drawn as they come back, each only if no
+// at once to the two engine channels: the price and then the hedge schedule on
+// `live`, the profile and the other cards' calls on `desk` (main.js). Results are drawn as they come back, each only if no
 // newer edit came first (state.generation). If the price fails, the engine's
 // message goes beside its field and the last good figures stay, greyed.
 // <body data-computing> is set while the figures catch up with the inputs (the
