@@ -27,10 +27,12 @@ leg_work count_legs(const trade& t) {
     return c;
 }
 
-// One lattice price: a fine and a coarse induction (numerics/lattice_price.hpp).
-double price_work(lattice_method method, int steps) {
+// One lattice price: a fine and a coarse induction (numerics/lattice_price.hpp); `summed`: a
+// European leg whose induction is a binomial sum (numerics/lattice.hpp, sums_directly).
+double price_work(lattice_method method, int steps, bool summed = false) {
     const int fine = effective_steps(method, steps > 0 ? steps : default_steps(method));
     const int coarse = effective_steps(method, std::max(1, fine / 2));
+    if (summed) return summed_work(fine) + summed_work(coarse);
     return induction_work(fine) + induction_work(coarse);
 }
 
@@ -46,7 +48,10 @@ std::string legs_text(int n) { return std::to_string(n) + (n == 1 ? " option leg
 work_estimate repricing_work(const trade& t, int prices, const std::string& how) {
     const leg_work legs = count_legs(t);
     work_estimate w;
-    w.node_updates = prices * legs.option_legs * price_work(t.lattice.method, t.lattice.steps);
+    for (const auto& leg : t.legs)
+        if (leg.type != payoff_kind::stock)
+            w.node_updates +=
+                prices * price_work(t.lattice.method, t.lattice.steps, sums_directly(t.market, leg, t.lattice.method));
     w.what = legs_text(legs.option_legs) + " at " + steps_text(t) + ", " + how;
     return w;
 }

@@ -167,12 +167,22 @@ lattice_geometry curve_geometry(lattice_method method, const market_data& m, con
     g.per_step.resize(static_cast<std::size_t>(n_steps));
     g.offsets.resize(static_cast<std::size_t>(n_steps) + 1);
     double offset = 0;
+    // Each row's time is read off the curves once: a step's log growth and log discount are
+    // differences of the curves' integrals (curve.hpp), and log d_n = log(d / g) + log g_n.
+    const auto carry_integral = [&m](double t) { return m.carry_yield.integral(t) + m.borrow.integral(t); };
+    double rate_before = m.rate.integral(grid.time(0)), carry_before = carry_integral(grid.time(0));
+    const double log_down_per_growth = std::log(base.down) - std::log(base.growth);
+    const double log_crr_down = std::log(base.down);
     for (int n = 0; n < n_steps; ++n) {
         lattice_step& st = g.per_step[static_cast<std::size_t>(n)];
         const double from = grid.time(n), to = grid.time(n + 1);
+        const double rate_after = m.rate.integral(to), carry_after = carry_integral(to);
+        const double log_growth = (rate_after - rate_before) - (carry_after - carry_before);
         st.dt = base.dt;
-        st.growth = m.forward_growth(from, to);
-        st.discount = m.rate.discount(from, to);
+        st.growth = std::exp(log_growth);
+        st.discount = std::exp(-(rate_after - rate_before));
+        rate_before = rate_after;
+        carry_before = carry_after;
         if (method == lattice_method::crr) {
             st.up = base.up;
             st.down = base.down;
@@ -190,7 +200,7 @@ lattice_geometry curve_geometry(lattice_method method, const market_data& m, con
             st.p_up = base.p_up;
         }
         g.offsets[static_cast<std::size_t>(n)] = offset;
-        offset += std::log(st.down);
+        offset += method == lattice_method::crr ? log_crr_down : log_down_per_growth + log_growth;
     }
     g.offsets[static_cast<std::size_t>(n_steps)] = offset;
     return g;
@@ -207,6 +217,12 @@ lattice_geometry make_geometry(lattice_method method, const market_data& m, doub
     g.step = base;
     g.log_ratio = std::log(g.step.up) - std::log(g.step.down);
     return g;
+}
+
+bool sums_directly(const market_data& market, const option_leg& leg, lattice_method method) {
+    if (leg.exercise != exercise_style::european || leg.type == payoff_kind::stock) return false;
+    if (!leg_events(market, leg).empty()) return false;  // steps of different lengths: p moves
+    return method != lattice_method::crr || market.flat_rates();
 }
 
 std::vector<char> exercise_steps(const option_leg& leg, const time_grid& grid) {

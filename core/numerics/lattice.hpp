@@ -101,8 +101,18 @@ enum class lattice_extent {
     full,      ///< every node (for the benchmarks' loop-speed figures)
 };
 
+/// True when `leg` on a `method` lattice is European with one up probability on every step
+/// (its grid has equal steps, leg_events being empty; and for Cox-Ross-Rubinstein, flat rates,
+/// since under curves it moves p from step to step). Its backward induction is
+/// then the binomial sum V(n, k) = D(n) sum_j C(N - n, j) p^j (1 - p)^(N - n - j) V(N, k + j)
+/// (Cox, Ross and Rubinstein 1979, "Option pricing: a simplified approach", the binomial option
+/// pricing formula), with D(n) the discount from row n to expiry: the same lattice value,
+/// found in O(steps) instead of sweeping the probable band of every row.
+bool sums_directly(const market_data& market, const option_leg& leg, lattice_method method);
+
 /// One backward induction of `leg` on `steps` steps with O(steps) memory (lattice_kernel.cpp),
-/// on the leg's time grid (leg_events: exercise and dividend dates fall on steps).
+/// on the leg's time grid (leg_events: exercise and dividend dates fall on steps); where
+/// sums_directly holds and the extent is `probable`, rows 0 to 2 come from the binomial sum.
 /// Charges its node updates to the live work meter (numerics/work_meter.hpp).
 induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps,
                         lattice_extent extent = lattice_extent::probable);
@@ -110,5 +120,9 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
 /// Node updates of one backward induction over `steps` steps (probable band): an upper
 /// bound on induce's node_updates, for estimating a request before it runs.
 double induction_work(int steps);
+
+/// The work of an induction that sums directly (sums_directly): one binomial row of about
+/// `steps` terms and the last two steps, in node-update units.
+double summed_work(int steps);
 
 }  // namespace hedgeleaf

@@ -300,6 +300,72 @@ HEDGELEAF_SWEEP_CLONES void run_sweep(sweep& w) {
     }
 }
 
+// C(m, j) p^j (1 - p)^(m - j) for j = 0..m into pmf: each term from its neighbour towards the
+// mode by the ratio of successive terms (no power of p underflows on the way; terms past the
+// smallest double are 0), then all divided by their sum, which is 1 exactly: the scale is not
+// taken from log-gamma, whose rounding at m = 20,000 (about 2e-11) would carry into every term.
+// Each term keeps a relative rounding error of about its distance from the mode times the
+// machine epsilon.
+void binomial_weights(int m, double p, double* pmf) {
+    if (!(p > 0)) {
+        std::fill(pmf, pmf + m + 1, 0.0);
+        pmf[0] = 1;
+        return;
+    }
+    if (!(p < 1)) {
+        std::fill(pmf, pmf + m + 1, 0.0);
+        pmf[m] = 1;
+        return;
+    }
+    const double q = 1 - p;
+    const int mode = std::clamp(static_cast<int>(std::floor((m + 1) * p)), 0, m);
+    pmf[mode] = 1;
+    const double odds = p / q;
+    for (int j = mode; j < m; ++j) pmf[j + 1] = pmf[j] * (static_cast<double>(m - j) / (j + 1)) * odds;
+    for (int j = mode; j > 0; --j) pmf[j - 1] = pmf[j] * (static_cast<double>(j) / (m - j + 1)) / odds;
+    double total = 0;
+    for (int j = 0; j <= m; ++j) total += pmf[j];
+    for (int j = 0; j <= m; ++j) pmf[j] /= total;
+}
+
+// The same up probability on every step (what sums_directly promises; checked, not assumed).
+bool one_probability(const lattice_geometry& geo) {
+    if (geo.constant) return true;
+    for (const lattice_step& st : geo.per_step)
+        if (st.p_up != geo.step.p_up) return false;
+    return true;
+}
+
+// Rows 0, 1 and 2 of a lattice that sums directly (sums_directly in lattice.hpp): w.v holds
+// the payoff row N. Row r = min(2, N) is the binomial sum, node (r, k) being
+// D(r) sum_j C(N - r, j) p^j (1 - p)^(N - r - j) V(N, k + j) with D(r) the discount from row r to
+// expiry; rows 1 and 0 follow from it by the sweep's own step. Leaves the value in w.v[0] and
+// rows 1 and 2 in w.row1 and w.row2, as the sweep does.
+void sum_rows(sweep& w, const lattice_geometry& geo, int n_steps) {
+    const int top = std::min(2, n_steps);
+    const int m = n_steps - top;
+    double discount = 1;
+    for (int n = n_steps - 1; n >= top; --n) discount *= geo.at(n).discount;
+    std::vector<double> pmf(static_cast<std::size_t>(m) + 1);
+    binomial_weights(m, geo.at(0).p_up, pmf.data());
+    double row[3] = {0, 0, 0};
+    for (int k = 0; k <= top; ++k) {
+        double sum = 0;
+        for (int j = 0; j <= m; ++j) sum += pmf[static_cast<std::size_t>(j)] * w.v[k + j];
+        row[k] = discount * sum;
+    }
+    for (int n = top; n >= 0; --n) {
+        if (n == 2) std::copy(row, row + 3, w.row2);
+        if (n == 1) std::copy(row, row + 2, w.row1);
+        if (n == 0) break;
+        const lattice_step& st = geo.at(n - 1);
+        const double pu = st.discount * st.p_up, pd = st.discount * (1 - st.p_up);
+        for (int k = 0; k < n; ++k) row[k] = pu * row[k + 1] + pd * row[k];
+    }
+    w.updates = n_steps + 4.0;
+    w.v[0] = row[0];
+}
+
 // One buffer per thread, grown when needed and reused by every price: the
 // induction allocates nothing once warm.
 std::vector<double>& scratch(std::size_t size) {
@@ -453,7 +519,10 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     }
     const int last_centre = place_rows(w, n_steps);
     fill_payoff_row(w, leg, n_steps, last_centre);
-    run_sweep(w);
+    if (extent == lattice_extent::probable && sums_directly(market, leg, method) && one_probability(geo))
+        sum_rows(w, geo, n_steps);
+    else
+        run_sweep(w);
 
     induction_result out;
     out.value = w.v[0];
@@ -464,6 +533,8 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     first_rows_greeks(w, geo, s0, n_steps, market, T, out);
     return out;
 }
+
+double summed_work(int steps) { return steps + 4.0; }
 
 double induction_work(int steps) {
     // Row k costs min(k + 1, 14 sqrt(k) + 3): the kernel's band of 2 (6 sqrt(k) + 1) + 1

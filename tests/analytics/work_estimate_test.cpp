@@ -105,3 +105,18 @@ TEST_CASE("a simulation's estimate grows with paths, dates and legs and is never
     CHECK(estimate(doc).node_updates > 4 * 4 * monthly.node_updates);
     CHECK_NOTHROW(check_work_budget(estimate(doc), 1));
 }
+
+TEST_CASE("a European leg's estimate counts its binomial sum, not a sweep", "[work]") {
+    // numerics/lattice.hpp, sums_directly (common practice: the binomial option pricing formula
+    // of Cox, Ross and Rubinstein 1979 needs no sweep): twelve European legs at 50,000 steps
+    // are cheap, and the estimate still bounds what the kernel counts.
+    json doc = twelve_legs(50000);
+    for (auto& leg : doc["legs"]) leg["exercise"] = "european";
+    const work_estimate w = estimate_work("price", doc);
+    CHECK(w.node_updates < page_work_budget / 100);
+    const trade t = read_trade(doc);
+    const double done = induce(t.market, t.legs[0], lattice_method::leisen_reimer, 50000).node_updates;
+    CHECK(done <= summed_work(effective_steps(lattice_method::leisen_reimer, 50000)));
+    const json envelope = json::parse(run_command_text("price", doc.dump(), page_work_budget));
+    CHECK(envelope["ok"] == true);
+}

@@ -153,7 +153,7 @@ TEST_CASE("sweeping only the probable band leaves premium and Greeks unchanged",
     };
     const scenario cases[] = {{payoff_kind::put, exercise_style::american, 100, 0.25, 0.05, 0.01, 1.0},
                               {payoff_kind::call, exercise_style::american, 120, 0.6, 0.02, 0.08, 3.0},
-                              {payoff_kind::digital_call, exercise_style::european, 90, 0.3, 0.04, 0.0, 2.0}};
+                              {payoff_kind::digital_call, exercise_style::american, 90, 0.3, 0.04, 0.0, 2.0}};
     for (const scenario& s : cases) {
         const market_data m = market(s.spot, s.vol, s.rate, s.carry, true);
         const option_leg leg = make_leg(s.type, s.style, 100, s.expiry);
@@ -166,4 +166,68 @@ TEST_CASE("sweeping only the probable band leaves premium and Greeks unchanged",
         CHECK(full.node_updates == Approx(20001.0 * 20002.0 / 2));
         CHECK(band.node_updates < 0.2 * full.node_updates);
     }
+}
+
+TEST_CASE("a European leg's binomial sum is the lattice's backward induction", "[lattice_kernel]") {
+    // Cox, Ross and Rubinstein (1979), "Option pricing: a simplified approach", Journal of
+    // Financial Economics 7: with one up probability p on every step, backward induction of a
+    // European payoff is the binomial sum D sum_j C(N, j) p^j (1 - p)^(N - j) V(N, j) (their
+    // binomial option pricing formula). The sum must agree with the sweep of every node (and
+    // with the plain induction above) to rounding: the sweep multiplies by the rounded pu and pd
+    // of each step, whose sum may miss the step's discount by an ulp, and that compounds over
+    // N steps (20,000 x 2.2e-16 = 4.4e-12 at the most), which is the tolerance here.
+    struct scenario {
+        payoff_kind type;
+        double spot, vol, rate, carry, expiry;
+        int steps;
+    };
+    const scenario cases[] = {{payoff_kind::put, 100, 0.25, 0.05, 0.01, 1.0, 1601},
+                              {payoff_kind::call, 120, 0.6, 0.02, 0.08, 3.0, 20001},
+                              {payoff_kind::digital_call, 90, 0.3, 0.04, 0.0, 2.0, 20001},
+                              {payoff_kind::digital_put, 100, 0.15, -0.01, 0.02, 0.25, 4001},
+                              {payoff_kind::call, 100, 0.05, 0.1, 0.0, 5.0, 301}};
+    for (const lattice_method method : {lattice_method::leisen_reimer, lattice_method::crr, lattice_method::tian})
+        for (const scenario& s : cases) {
+            const market_data m = market(s.spot, s.vol, s.rate, s.carry, false);
+            const option_leg leg = make_leg(s.type, exercise_style::european, 100, s.expiry);
+            INFO(to_string(method) << " " << to_string(s.type) << " steps " << s.steps);
+            REQUIRE(sums_directly(m, leg, method));
+            const induction_result sum = induce(m, leg, method, s.steps);
+            const induction_result swept = induce(m, leg, method, s.steps, lattice_extent::full);
+            CHECK(sum.value == Approx(swept.value).epsilon(5e-12).margin(1e-13 * s.spot));
+            CHECK(sum.delta == Approx(swept.delta).epsilon(1e-10).margin(1e-12));
+            CHECK(sum.gamma == Approx(swept.gamma).epsilon(1e-8).margin(1e-11));
+            CHECK(sum.theta == Approx(swept.theta).epsilon(1e-8).margin(1e-10 * s.spot));
+            CHECK(sum.node_updates == summed_work(sum.steps));  // O(steps), not the band's O(steps^1.5)
+        }
+}
+
+TEST_CASE("under rate curves a European leg sums directly except on Cox-Ross-Rubinstein", "[lattice_kernel]") {
+    // Leisen-Reimer and the other methods keep p and move up and down with each step's forward
+    // (lattice.cpp, curve_geometry): the sum holds with the discounts multiplied along the steps.
+    // Cox-Ross-Rubinstein moves p instead, and Bermudan dates (or an American leg's dividend
+    // dates) make steps of different lengths: those are swept (the binomial formula needs one p).
+    market_data m = market(100, 0.3, 0.03, 0.01, false);
+    m.rate = curve::from_points({0.25, 1.0, 2.0}, {0.02, 0.035, 0.04});
+    m.carry_yield = curve::from_points({0.5, 2.0}, {0.01, 0.015});
+    const option_leg call = make_leg(payoff_kind::call, exercise_style::european, 105, 1.5);
+    CHECK(sums_directly(m, call, lattice_method::leisen_reimer));
+    CHECK_FALSE(sums_directly(m, call, lattice_method::crr));
+    for (const int steps : {3, 64, 1601}) {
+        INFO("steps " << steps);
+        const induction_result sum = induce(m, call, lattice_method::leisen_reimer, steps);
+        check_same(sum, reference_induce(m, call, lattice_method::leisen_reimer, steps), 100);
+        const induction_result swept = induce(m, call, lattice_method::leisen_reimer, steps, lattice_extent::full);
+        CHECK(sum.theta == Approx(swept.theta).epsilon(1e-9));
+    }
+    // A cash dividend moves S* = spot - PV(dividends), not the grid of a European leg: it sums.
+    market_data with_dividend = m;
+    with_dividend.dividends = {{0.5, 1.0}};
+    CHECK(sums_directly(with_dividend, call, lattice_method::leisen_reimer));
+    check_same(induce(with_dividend, call, lattice_method::leisen_reimer, 301),
+               reference_induce(with_dividend, call, lattice_method::leisen_reimer, 301), 100);
+    CHECK_FALSE(sums_directly(m, make_leg(payoff_kind::call, exercise_style::american, 105, 1.5),
+                              lattice_method::leisen_reimer));
+    CHECK_FALSE(sums_directly(m, make_leg(payoff_kind::call, exercise_style::bermudan, 105, 1.5),
+                              lattice_method::leisen_reimer));
 }
