@@ -38,13 +38,15 @@ const debounceMs = 250;
 const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
 
 // Injected before the page's own scripts (by the browser, so the page's CSP does
-// not apply): timestamps of the first premium and of every later change.
+// not apply): timestamps of the first premium and of every later change, and the node
+// each change was made to (to tell, once the page has settled, which changes were on screen).
 function recorder() {
-  window.__bench = { firstPremium: null, changes: [] };
+  window.__bench = { firstPremium: null, changes: [], targets: [] };
   const watch = () => {
-    new MutationObserver(() => {
+    new MutationObserver((records) => {
       const now = performance.now();
       window.__bench.changes.push(now);
+      window.__bench.targets.push(records.map((r) => r.target));
       if (window.__bench.firstPremium === null && document.querySelector('[data-result="premium"][data-value]'))
         window.__bench.firstPremium = now;
     }).observe(document.documentElement, { subtree: true, childList: true, attributes: true, characterData: true });
@@ -110,7 +112,7 @@ async function unpackingCost() {
 
 /** Open the page in `contexts` fresh contexts at CPU `rate` and time the open and four spot edits in each. */
 async function measure(browser, url, rate) {
-  const figures = { opens: [], settled: [], recomputes: [], firstUpdates: [] };
+  const figures = { opens: [], settled: [], recomputes: [], firstUpdates: [], onScreen: [] };
   for (let run = 0; run < contexts; run++) {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     await context.setOffline(true);
@@ -161,11 +163,23 @@ async function measure(browser, url, rate) {
       await settle(page, 600);
       const timing = await page.evaluate(
         ({ edited, debounce, before }) => {
-          const after = window.__bench.changes.filter((t) => t > edited + debounce);
+          const { changes, targets } = window.__bench;
+          const after = changes.filter((t) => t > edited + debounce);
           const premium = document.querySelector('[data-result="premium"]').dataset.value;
+          // On screen: a change to a node that shows in the window (the 1280 x 900 viewport,
+          // scrolled to the top) once the page has settled; the <body>'s own attributes (the
+          // automation flag) and nodes not drawn (the print-only sheet, folded cards) are not.
+          const shown = (node) => {
+            const element = node.nodeType === 1 ? node : node.parentElement;
+            if (!element || element === document.body || element === document.documentElement) return false;
+            const box = element.getBoundingClientRect();
+            return box.width > 0 && box.height > 0 && box.bottom > 0 && box.top < window.innerHeight;
+          };
+          const onScreen = changes.filter((t, i) => t > edited + debounce && targets[i].some(shown));
           return {
             last: after.at(-1) - edited - debounce,
             first: after[0] - edited - debounce,
+            screen: onScreen.at(-1) - edited - debounce,
             changed: premium !== before,
           };
         },
@@ -174,18 +188,22 @@ async function measure(browser, url, rate) {
       if (!timing.changed) throw new Error('the premium did not change after the spot edit');
       figures.recomputes.push(timing.last);
       figures.firstUpdates.push(timing.first);
+      figures.onScreen.push(timing.screen);
     }
     await context.close();
   }
   return figures;
 }
 
-function report(rate, { opens, settled, recomputes, firstUpdates, unpacking }) {
+function report(rate, { opens, settled, recomputes, firstUpdates, onScreen, unpacking }) {
   const budget = budgets[rate];
   const within = (figure, limit) => (limit ? `; budget ${limit} ms, ${figure < limit ? 'met' : 'NOT met'}` : '');
   const ms = (x, digits = 0) => `${x.toFixed(digits)} ms`;
   console.log(`## CPU ${rate === 1 ? 'at full speed (1x)' : `slowed ${rate}x (main thread, DevTools protocol)`}`);
-  if (process.env.PAGE_BENCH_ALL) console.log(recomputes.map((x) => x.toFixed(1)).join(' '));
+  if (process.env.PAGE_BENCH_ALL) {
+    console.log(`on screen: ${onScreen.map((x) => x.toFixed(1)).join(' ')}`);
+    console.log(`every card: ${recomputes.map((x) => x.toFixed(1)).join(' ')}`);
+  }
   console.log(
     `cold open from file:// to the first premium shown: median ${ms(median(opens))}, best ${ms(Math.min(...opens))}, ` +
       `worst ${ms(Math.max(...opens))} (${opens.length} fresh contexts${within(median(opens), budget?.open)})`,
@@ -198,10 +216,16 @@ function report(rate, { opens, settled, recomputes, firstUpdates, unpacking }) {
         `decoding it as the module file's plain base64 (${kib(unpacking.plainChars)}) would take ${ms(unpacking.decodePlain, 1)}`,
     );
   console.log(
-    `full recompute after a spot edit (after the ${debounceMs} ms debounce): first change ` +
+    `recompute after a spot edit, figures on screen (after the ${debounceMs} ms debounce): median ` +
+      `${ms(median(onScreen), 1)}, 90th percentile ${ms(quantile(onScreen, 0.9), 1)}, best ` +
+      `${ms(Math.min(...onScreen), 1)} (${onScreen.length} edits in ${opens.length} contexts` +
+      `${within(quantile(onScreen, 0.9), budget?.recompute)})`,
+  );
+  console.log(
+    `full recompute, every card including those below the window and the print sheet: first change ` +
       `${ms(median(firstUpdates), 1)}, last change median ${ms(median(recomputes), 1)}, ` +
       `90th percentile ${ms(quantile(recomputes, 0.9), 1)}, best ${ms(Math.min(...recomputes), 1)} ` +
-      `(${recomputes.length} edits in ${opens.length} contexts${within(quantile(recomputes, 0.9), budget?.recompute)})`,
+      `(${recomputes.length} edits${within(quantile(recomputes, 0.9), budget?.recompute)})`,
   );
 }
 

@@ -111,8 +111,8 @@ export function setStale(panels, stale) {
   for (const node of document.querySelectorAll('[data-panel]')) {
     if (!panels.includes(node.dataset.panel)) continue;
     node.classList.toggle('stale', stale);
-    for (const use of node.querySelectorAll('[data-uses-result]')) use.disabled = stale;
-    if (!stale) node.classList.remove('restored'); // fresh figures: no longer the ones kept from before a reload
+    for (const use of node.querySelectorAll('[data-uses-result]')) if (use.disabled !== stale) use.disabled = stale;
+    if (!stale) node.classList.toggle('restored', false); // fresh figures: no longer the ones kept from before a reload
   }
 }
 

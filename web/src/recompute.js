@@ -4,7 +4,8 @@
 // typing is not priced key by key), recompute() posts every call the edit needs
 // at once to the two engine channels: the price and then the hedge schedule on
 // `live`, the profile and the other cards' calls on `desk` (main.js). Results are drawn as they come back, each only if no
-// newer edit came first (state.generation). If the price fails, the engine's
+// newer edit came first (state.generation): the price's own figures at once, the cards
+// below together after them. If the price fails, the engine's
 // message goes beside its field and the last good figures stay, greyed.
 // <body data-computing> is set while the figures catch up with the inputs (the
 // page's automation contract).
@@ -37,10 +38,10 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   /** An edit: autosave, then recompute after `delay` ms unless another edit comes first. */
   function changed(delay = 250) {
     document.body.dataset.computing = 'true'; // automation contract: figures are catching up with the inputs
-    save();
     clearTimeout(timer);
     pending = true;
-    timer = setTimeout(recompute, delay);
+    timer = setTimeout(recompute, delay); // the pause counts from the edit, not from the end of the save below
+    save();
   }
 
   /** The figures are all in (unless another edit is waiting). */
@@ -50,7 +51,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
 
   function notBusy() {
     clearTimeout(busyTimer);
-    document.body.classList.remove('busy');
+    document.body.classList.toggle('busy', false); // (remove() would rewrite the attribute, and restyle, even when absent)
   }
 
   /** Work for an older trade still running after 0.8 s (a huge lattice): stop it rather than queue behind it. */
@@ -111,14 +112,12 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
       return;
     }
     if (!current()) return;
-    // The profile, schedule and ladder usually follow within a few milliseconds: wait for
-    // them (up to 12 ms) so that the page shows the whole recompute in one go, one layout
-    // and no half-updated state; a slower one (a big lattice), or one held back until the
-    // price is in (on opening, main.js), comes in on its own later.
-    const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
-    if (following.length && !desk.held)
-      await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 12))]);
-    if (!current()) return;
+    // The price's figures (the top of the page, what the user looks at while typing) are
+    // drawn as soon as the price is in, on their own; the cards below them (profile, schedule,
+    // ladder, usually a few milliseconds behind on their worker) follow together, after a wait
+    // of up to 12 ms for the profile, schedule and ladder, so that they change in one go, one
+    // layout; a slower one (a big lattice), or one held back until the price is in (on
+    // opening, main.js), comes in on its own later.
     notBusy();
     clearErrors();
     state.price = price;
@@ -126,6 +125,10 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
+    const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
+    if (following.length && !desk.held)
+      await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 12))]);
+    if (!current()) return;
     refreshSheet(doc, price, calls.fingerprinting);
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
