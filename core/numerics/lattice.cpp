@@ -156,14 +156,15 @@ lattice_geometry piecewise_geometry(const market_data& m, const time_grid& grid)
 // g_n and discount. Cox-Ross-Rubinstein keeps up and down and moves p_n = (g_n - d)/(u - d),
 // which must stay inside (0, 1) on every step; the others keep p and move up and down with
 // g_n, so their ratio (the spacing) stays.
+// `built` steps of it are made (all of them unless a binomial sum needs only the first two).
 lattice_geometry curve_geometry(lattice_method method, const market_data& m, const lattice_step& base,
-                                const time_grid& grid) {
+                                const time_grid& grid, int built) {
     lattice_geometry g;
     g.grid = grid;
     g.constant = false;
     g.step = base;
     g.log_ratio = std::log(base.up) - std::log(base.down);
-    const int n_steps = grid.steps;
+    const int n_steps = built;
     g.per_step.resize(static_cast<std::size_t>(n_steps));
     g.offsets.resize(static_cast<std::size_t>(n_steps) + 1);
     double offset = 0;
@@ -211,12 +212,37 @@ lattice_geometry curve_geometry(lattice_method method, const market_data& m, con
 lattice_geometry make_geometry(lattice_method method, const market_data& m, double strike, const time_grid& grid) {
     if (!grid.uniform) return piecewise_geometry(m, grid);
     const lattice_step base = make_step(method, m, strike, grid.expiry, grid.steps);
-    if (!m.flat_rates()) return curve_geometry(method, m, base, grid);
+    if (!m.flat_rates()) return curve_geometry(method, m, base, grid, grid.steps);
     lattice_geometry g;
     g.grid = grid;
     g.step = base;
     g.log_ratio = std::log(g.step.up) - std::log(g.step.down);
     return g;
+}
+
+summed_lattice make_summed_lattice(lattice_method method, const market_data& m, double strike, const time_grid& grid) {
+    summed_lattice out;
+    const int n_steps = grid.steps, top = std::min(2, n_steps);
+    const lattice_step base = make_step(method, m, strike, grid.expiry, n_steps);
+    if (m.flat_rates()) {
+        out.head.grid = grid;
+        out.head.step = base;
+        out.head.log_ratio = std::log(base.up) - std::log(base.down);
+        out.last_offset = n_steps * std::log(base.down);
+        out.discount_to_expiry = std::pow(base.discount, n_steps - top);
+        return out;
+    }
+    // Under curves (not Cox-Ross-Rubinstein: sums_directly) log d_n = log(d / g) + log g_n, so the
+    // last row's offset is N log(d / g) plus the log growth over the life.
+    out.head = curve_geometry(method, m, base, grid, top);
+    const auto log_growth = [&m](double t) {
+        return m.rate.integral(t) - m.carry_yield.integral(t) - m.borrow.integral(t);
+    };
+    const double T = grid.time(n_steps);
+    out.last_offset =
+        n_steps * (std::log(base.down) - std::log(base.growth)) + log_growth(T) - log_growth(grid.time(0));
+    out.discount_to_expiry = std::exp(m.rate.integral(grid.time(top)) - m.rate.integral(T));
+    return out;
 }
 
 bool sums_directly(const market_data& market, const option_leg& leg, lattice_method method) {

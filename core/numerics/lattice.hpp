@@ -110,6 +110,18 @@ enum class lattice_extent {
 /// found in O(steps) instead of sweeping the probable band of every row.
 bool sums_directly(const market_data& market, const option_leg& leg, lattice_method method);
 
+/// What the binomial sum of a lattice that sums directly needs, without building every step:
+/// the first min(2, steps) steps (`head`: for the last two steps back and the Greeks; on flat
+/// rates the one repeated step), the log offset of the last row, log(S*(N, 0) / S*_0), and the
+/// discount from row min(2, steps) to expiry.
+struct summed_lattice {
+    lattice_geometry head;
+    double last_offset = 0;
+    double discount_to_expiry = 1;
+};
+summed_lattice make_summed_lattice(lattice_method method, const market_data& market, double strike,
+                                   const time_grid& grid);
+
 /// One backward induction of `leg` on `steps` steps with O(steps) memory (lattice_kernel.cpp),
 /// on the leg's time grid (leg_events: exercise and dividend dates fall on steps); where
 /// sums_directly holds and the extent is `probable`, rows 0 to 2 come from the binomial sum.

@@ -328,44 +328,6 @@ void binomial_weights(int m, double p, double* pmf) {
     for (int j = 0; j <= m; ++j) pmf[j] /= total;
 }
 
-// The same up probability on every step (what sums_directly promises; checked, not assumed).
-bool one_probability(const lattice_geometry& geo) {
-    if (geo.constant) return true;
-    for (const lattice_step& st : geo.per_step)
-        if (st.p_up != geo.step.p_up) return false;
-    return true;
-}
-
-// Rows 0, 1 and 2 of a lattice that sums directly (sums_directly in lattice.hpp): w.v holds
-// the payoff row N. Row r = min(2, N) is the binomial sum, node (r, k) being
-// D(r) sum_j C(N - r, j) p^j (1 - p)^(N - r - j) V(N, k + j) with D(r) the discount from row r to
-// expiry; rows 1 and 0 follow from it by the sweep's own step. Leaves the value in w.v[0] and
-// rows 1 and 2 in w.row1 and w.row2, as the sweep does.
-void sum_rows(sweep& w, const lattice_geometry& geo, int n_steps) {
-    const int top = std::min(2, n_steps);
-    const int m = n_steps - top;
-    double discount = 1;
-    for (int n = n_steps - 1; n >= top; --n) discount *= geo.at(n).discount;
-    std::vector<double> pmf(static_cast<std::size_t>(m) + 1);
-    binomial_weights(m, geo.at(0).p_up, pmf.data());
-    double row[3] = {0, 0, 0};
-    for (int k = 0; k <= top; ++k) {
-        double sum = 0;
-        for (int j = 0; j <= m; ++j) sum += pmf[static_cast<std::size_t>(j)] * w.v[k + j];
-        row[k] = discount * sum;
-    }
-    for (int n = top; n >= 0; --n) {
-        if (n == 2) std::copy(row, row + 3, w.row2);
-        if (n == 1) std::copy(row, row + 2, w.row1);
-        if (n == 0) break;
-        const lattice_step& st = geo.at(n - 1);
-        const double pu = st.discount * st.p_up, pd = st.discount * (1 - st.p_up);
-        for (int k = 0; k < n; ++k) row[k] = pu * row[k + 1] + pd * row[k];
-    }
-    w.updates = n_steps + 4.0;
-    w.v[0] = row[0];
-}
-
 // One buffer per thread, grown when needed and reused by every price: the
 // induction allocates nothing once warm.
 std::vector<double>& scratch(std::size_t size) {
@@ -501,12 +463,69 @@ void first_rows_greeks(const sweep& w, const lattice_geometry& geo, double s0, i
         (v_at_s0_later - out.value) / later - out.delta * market.rate.zero(0) * market.dividend_pv(0, expiry_years);
 }
 
+// A European leg that sums directly (sums_directly in lattice.hpp): the payoff row N, then row
+// r = min(2, N) as the binomial sum, node (r, k) being
+// D(r) sum_j C(N - r, j) p^j (1 - p)^(N - r - j) V(N, k + j) with D(r) the discount from row r to
+// expiry, then rows 1 and 0 by the sweep's own step; the Greeks from rows 1 and 2 as the sweep's.
+induction_result summed_induction(const market_data& market, const option_leg& leg, lattice_method method,
+                                  const time_grid& grid) {
+    const summed_lattice lat = make_summed_lattice(method, market, leg.strike, grid);
+    const lattice_geometry& head = lat.head;
+    const int n_steps = grid.steps, top = std::min(2, n_steps), m = n_steps - top;
+    const double T = leg.expiry_years;
+    const double s0 = diffusing_spot(market, T);
+    // the payoff row, node i at S*_0 exp(last_offset + i L), as the sweep's row factor and powers
+    const double log_ratio = head.log_ratio;
+    const int centre =
+        static_cast<int>(std::clamp(std::round(-lat.last_offset / log_ratio), 0.0, static_cast<double>(n_steps)));
+    const std::size_t width = static_cast<std::size_t>(n_steps) + 1;
+    std::vector<double>& buffer = scratch(3 * width);
+    double* v = buffer.data();
+    double* powers = v + width;
+    double* pmf = powers + width;
+    fill_powers(log_ratio, -centre, n_steps + 1, powers);
+    const double factor = std::exp(std::clamp(std::log(s0) + lat.last_offset + centre * log_ratio, -700.0, 700.0));
+    if (leg.type == payoff_kind::put) {
+        for (int i = 0; i <= n_steps; ++i) v[i] = std::max(leg.strike - factor * powers[i], 0.0);
+    } else if (leg.type == payoff_kind::call) {
+        for (int i = 0; i <= n_steps; ++i) v[i] = std::max(factor * powers[i] - leg.strike, 0.0);
+    } else {
+        for (int i = 0; i <= n_steps; ++i) v[i] = exercise_value(leg, factor * powers[i]);
+    }
+    binomial_weights(m, head.at(0).p_up, pmf);
+    double row[3] = {0, 0, 0};
+    for (int k = 0; k <= top; ++k) {
+        double sum = 0;
+        for (int j = 0; j <= m; ++j) sum += pmf[j] * v[k + j];
+        row[k] = lat.discount_to_expiry * sum;
+    }
+    sweep w;
+    for (int n = top; n >= 0; --n) {
+        if (n == 2) std::copy(row, row + 3, w.row2);
+        if (n == 1) std::copy(row, row + 2, w.row1);
+        if (n == 0) break;
+        const lattice_step& st = head.at(n - 1);
+        const double pu = st.discount * st.p_up, pd = st.discount * (1 - st.p_up);
+        for (int k = 0; k < n; ++k) row[k] = pu * row[k + 1] + pd * row[k];
+    }
+    induction_result out;
+    out.value = row[0];
+    out.node_updates = summed_work(n_steps);
+    out.steps = n_steps;
+    out.segments = grid.segments;
+    charge_work(out.node_updates);
+    first_rows_greeks(w, head, s0, n_steps, market, T, out);
+    return out;
+}
+
 }  // namespace
 
 induction_result induce(const market_data& market, const option_leg& leg, lattice_method method, int steps,
                         lattice_extent extent) {
     const double T = leg.expiry_years;
     const time_grid grid = make_time_grid(T, effective_steps(method, steps), leg_events(market, leg));
+    if (extent == lattice_extent::probable && sums_directly(market, leg, method))
+        return summed_induction(market, leg, method, grid);
     const lattice_geometry geo = make_geometry(method, market, leg.strike, grid);
     const int n_steps = geo.steps();
     const double s0 = diffusing_spot(market, T);
@@ -519,10 +538,7 @@ induction_result induce(const market_data& market, const option_leg& leg, lattic
     }
     const int last_centre = place_rows(w, n_steps);
     fill_payoff_row(w, leg, n_steps, last_centre);
-    if (extent == lattice_extent::probable && sums_directly(market, leg, method) && one_probability(geo))
-        sum_rows(w, geo, n_steps);
-    else
-        run_sweep(w);
+    run_sweep(w);
 
     induction_result out;
     out.value = w.v[0];
