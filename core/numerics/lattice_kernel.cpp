@@ -416,11 +416,8 @@ int place_rows(sweep& w, int n_steps) {
     return last_centre;
 }
 
-// The payoff row at expiry (no dividends left to add).
-void fill_payoff_row(sweep& w, const option_leg& leg, int n_steps, int last_centre) {
-    const double factor = row_factor(w, n_steps, last_centre);
-    const double* r = w.powers - last_centre;
-    double* v = w.v;
+// The payoff of nodes 0..n_steps at spots factor * r[i] into v.
+void payoff_values(const option_leg& leg, double factor, const double* r, int n_steps, double* v) {
     if (leg.type == payoff_kind::put) {
         for (int i = 0; i <= n_steps; ++i) v[i] = std::max(leg.strike - factor * r[i], 0.0);
     } else if (leg.type == payoff_kind::call) {
@@ -428,6 +425,11 @@ void fill_payoff_row(sweep& w, const option_leg& leg, int n_steps, int last_cent
     } else {
         for (int i = 0; i <= n_steps; ++i) v[i] = exercise_value(leg, factor * r[i]);
     }
+}
+
+// The payoff row at expiry (no dividends left to add).
+void fill_payoff_row(sweep& w, const option_leg& leg, int n_steps, int last_centre) {
+    payoff_values(leg, row_factor(w, n_steps, last_centre), w.powers - last_centre, n_steps, w.v);
     if (n_steps == 1) std::copy(w.v, w.v + 2, w.row1);
     if (n_steps == 2) std::copy(w.v, w.v + 3, w.row2);
 }
@@ -485,13 +487,7 @@ induction_result summed_induction(const market_data& market, const option_leg& l
     double* pmf = powers + width;
     fill_powers(log_ratio, -centre, n_steps + 1, powers);
     const double factor = std::exp(std::clamp(std::log(s0) + lat.last_offset + centre * log_ratio, -700.0, 700.0));
-    if (leg.type == payoff_kind::put) {
-        for (int i = 0; i <= n_steps; ++i) v[i] = std::max(leg.strike - factor * powers[i], 0.0);
-    } else if (leg.type == payoff_kind::call) {
-        for (int i = 0; i <= n_steps; ++i) v[i] = std::max(factor * powers[i] - leg.strike, 0.0);
-    } else {
-        for (int i = 0; i <= n_steps; ++i) v[i] = exercise_value(leg, factor * powers[i]);
-    }
+    payoff_values(leg, factor, powers, n_steps, v);
     binomial_weights(m, head.at(0).p_up, pmf);
     double row[3] = {0, 0, 0};
     for (int k = 0; k <= top; ++k) {
