@@ -12,7 +12,7 @@ import { showWarning } from './messages.js';
  * Listen for edits in `scope`. `terms` is the terms form (terms.js); `redraws` (a Map) takes
  * a path to what must be drawn again when it changes (a choice that changes which fields
  * a card shows); `syncErrors` points the error lines at the fields the inputs now write;
- * `changed` recomputes soon.
+ * `changed(delay, since)` recomputes soon (the pause counted from the event).
  */
 export function listenForEdits({ scope, state, terms, redraws, syncErrors, changed }) {
   function onInput(event) {
@@ -34,7 +34,7 @@ export function listenForEdits({ scope, state, terms, redraws, syncErrors, chang
       scope.querySelector(`[data-path="${input.dataset.path}"]`)?.focus();
     }
     syncErrors();
-    changed();
+    changed(undefined, event.timeStamp);
   }
 
   /** Tidy a number once the cursor leaves it (25000 -> 25,000), if it reads as one (else it stays as typed). */

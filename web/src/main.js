@@ -52,7 +52,7 @@ live.start(); // the engine loads on its worker while this thread builds the pag
 const bindControls = () => syncErrorPaths(scope, state.doc);
 // The cards ask for a recompute and the recompute asks the cards for their figures:
 // the cards are made first, with this forward call into the cycle made after them.
-const changed = (delay) => cycle.changed(delay);
+const changed = (delay, since) => cycle.changed(delay, since);
 const shared = { state, showError, setStale, changed, bindControls };
 const hedge = hedgePanel({ ...shared, live });
 const simulate = simulatePanel({ ...shared, makeWorker, mainThreadFactory, clearErrors });

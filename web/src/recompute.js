@@ -35,12 +35,18 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   let busyTimer = null;
   let liveStarted = 0;
 
-  /** An edit: autosave, then recompute after `delay` ms unless another edit comes first. */
-  function changed(delay = 250) {
-    document.body.dataset.computing = 'true'; // automation contract: figures are catching up with the inputs
+  /**
+   * An edit: autosave, then recompute `delay` ms after it (after the keystroke, when `since`,
+   * an event's timeStamp, says when that was) unless another edit comes first.
+   */
+  function changed(delay = 250, since = performance.now()) {
+    if (document.body.dataset.computing !== 'true') document.body.dataset.computing = 'true'; // automation contract: figures are catching up with the inputs
     clearTimeout(timer);
     pending = true;
-    timer = setTimeout(recompute, delay); // the pause counts from the edit, not from the end of the save below
+    // the pause counts from the edit, not from the end of the work its input did or the save below
+    // (a time stamp that is not a moment of the last `delay` ms is not trusted)
+    const waited = performance.now() - since;
+    timer = setTimeout(recompute, waited > 0 && waited < delay ? delay - waited : delay);
     save();
   }
 
@@ -79,7 +85,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
 
   async function recompute() {
     pending = false;
-    document.body.dataset.computing = 'true';
+    if (document.body.dataset.computing !== 'true') document.body.dataset.computing = 'true';
     const generation = (state.generation += 1);
     const current = () => generation === state.generation;
     // what the page cannot read (or could read two ways) is refused beside its field: nothing is priced
@@ -112,12 +118,14 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
       return;
     }
     if (!current()) return;
-    // The price's figures (the top of the page, what the user looks at while typing) are
-    // drawn as soon as the price is in, on their own; the cards below them (profile, schedule,
-    // ladder, usually a few milliseconds behind on their worker) follow together, after a wait
-    // of up to 12 ms for the profile, schedule and ladder, so that they change in one go, one
-    // layout; a slower one (a big lattice), or one held back until the price is in (on
-    // opening, main.js), comes in on its own later.
+    // The cards below the price (profile, schedule, ladder: a few milliseconds behind it on
+    // their worker) are waited for, up to 5 ms, so that the whole page changes in one go: one
+    // layout, one frame, no frame where the premium has moved and the chart has not. A slower
+    // one (a big lattice), or one held back until the price is in (on opening, main.js), comes
+    // in on its own later; the price never waits longer than that.
+    const following = [calls.profiling, calls.hedging, calls.laddering, calls.fingerprinting].filter(Boolean);
+    if (!desk.held) await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 5))]);
+    if (!current()) return;
     notBusy();
     clearErrors();
     state.price = price;
@@ -125,10 +133,6 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
-    const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
-    if (following.length && !desk.held)
-      await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 12))]);
-    if (!current()) return;
     refreshSheet(doc, price, calls.fingerprinting);
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
@@ -139,7 +143,8 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     simulate.update(doc, price);
     if (!current()) return;
     caughtUp();
-    keepFigures({ doc, price, profile, hedge: schedule }); // after the page has caught up: storage can wait
+    // kept for a reload once this frame is drawn: storage can wait
+    setTimeout(() => keepFigures({ doc, price, profile, hedge: schedule }), 0);
   }
 
   /**
