@@ -8,6 +8,7 @@ import { inputProblem, inputWarning } from './checks.js';
 import { button, byId, make } from './dom.js';
 import { EngineError } from './engine.js';
 import { errorPathOf } from './form.js';
+import { pageLocale } from './numbers.js';
 import { pathAncestors } from './paths.js';
 import { fieldName, screenMessage } from './wording.js';
 
@@ -84,10 +85,17 @@ export function showFailure(err) {
 /** The page's own refusals of what is typed in `scope` (checks.js): [{input, problem}]. */
 export function pageProblems(scope) {
   const out = [];
+  const locale = pageLocale();
   for (const input of scope.querySelectorAll('[data-kind]')) {
-    if (!input.errorNode || input.closest('[hidden]')) continue;
-    const problem = inputProblem(input);
-    if (problem) out.push({ input, problem });
+    if (!input.errorNode) continue;
+    // each field's check is kept until its text, kind or the locale changes (a smile grid
+    // holds dozens of fields, and one edit changes one of them)
+    const key = `${locale}\u0000${input.dataset.kind}\u0000${input.value}`;
+    if (input.checkedFor !== key) {
+      input.checkedFor = key;
+      input.checkedProblem = inputProblem(input);
+    }
+    if (input.checkedProblem && !input.closest('[hidden]')) out.push({ input, problem: input.checkedProblem });
   }
   return out;
 }
