@@ -26,6 +26,16 @@ export function started(promise) {
   return promise;
 }
 
+const readyTimes = new WeakMap();
+/**
+ * When the worker had `result` ready (ms since the epoch, by the worker's clock:
+ * performance.timeOrigin + now), whatever kept this thread from taking it; null
+ * for a result worked out on this thread or that is no object.
+ */
+export function readyTime(result) {
+  return (result && typeof result === 'object' && readyTimes.get(result)) || null;
+}
+
 /**
  * Workers built from the page's module script followed by the worker code (one
  * Blob, made once: no network, no eval), and the engine's WebAssembly for them.
@@ -177,7 +187,11 @@ export class EngineChannel {
     else if (message.fatal) {
       entry.reject(new Error(message.fatal));
       this.fail(new Error(message.fatal)); // an aborted runtime is dead: start afresh next time
-    } else entry.resolve(message.result);
+    } else {
+      if (message.result && typeof message.result === 'object' && message.ready)
+        readyTimes.set(message.result, message.ready);
+      entry.resolve(message.result);
+    }
   }
 
   fail(error) {

@@ -9,7 +9,7 @@
 // message goes beside its field and the last good figures stay, greyed.
 // <body data-computing> is set while the figures catch up with the inputs (the
 // page's automation contract).
-import { Cancelled, started } from './compute.js';
+import { Cancelled, readyTime, started } from './compute.js';
 import { EngineError } from './engine.js';
 import { clearErrors, pageProblems, setStale, showError, showFailure, showPageProblems } from './messages.js';
 import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
@@ -34,6 +34,25 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   let timer = null;
   let busyTimer = null;
   let liveStarted = 0;
+  // How long after the price the cards' results were ready last time, by the workers' clocks
+  // (null: not known yet). The price waits for them when that was at most 8 ms.
+  let cardsLag = null;
+
+  /** Note, once they are in, how long after the price's the cards' results were ready. */
+  function measureCards(price, following) {
+    const priceReady = readyTime(price);
+    if (!priceReady || !following.length) return;
+    Promise.allSettled(following).then((settled) => {
+      const ready = settled.map((s) => (s.status === 'fulfilled' ? readyTime(s.value) : null));
+      if (ready.every((t) => t !== null)) cardsLag = Math.max(0, Math.max(...ready) - priceReady);
+    });
+  }
+
+  /** How long the price waits for the cards below it this time (ms). */
+  function cardsWait() {
+    if (cardsLag === null) return 5;
+    return cardsLag <= 8 ? Math.ceil(cardsLag) + 1 : 0;
+  }
 
   /**
    * An edit: autosave, then recompute `delay` ms after it (after the keystroke, when `since`,
@@ -119,12 +138,19 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     }
     if (!current()) return;
     // The cards below the price (profile, schedule, ladder: a few milliseconds behind it on
-    // their worker) are waited for, up to 5 ms, so that the whole page changes in one go: one
-    // layout, one frame, no frame where the premium has moved and the chart has not. A slower
-    // one (a big lattice), or one held back until the price is in (on opening, main.js), comes
-    // in on its own later; the price never waits longer than that.
-    const following = [calls.profiling, calls.hedging, calls.laddering, calls.fingerprinting].filter(Boolean);
-    if (!desk.held) await Promise.race([Promise.allSettled(following), new Promise((r) => setTimeout(r, 5))]);
+    // their worker) are waited for, as long as they took last time if that was at most 8 ms,
+    // so that the whole page changes in one go: one layout, one frame, no frame where the
+    // premium has moved and the chart has not. When they came later (a structure on a smile),
+    // or are held back until the price is in (on opening, main.js), the price is shown at
+    // once and the cards as they come.
+    const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
+    const wait = desk.held ? 0 : cardsWait();
+    if (wait > 0)
+      await Promise.race([
+        Promise.allSettled([...following, calls.fingerprinting]),
+        new Promise((r) => setTimeout(r, wait)),
+      ]);
+    measureCards(price, following);
     if (!current()) return;
     notBusy();
     clearErrors();

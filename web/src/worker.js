@@ -6,8 +6,9 @@
 // WebAssembly.Module, or {unpack}, the page's packed WebAssembly, which this
 // worker unpacks and compiles itself and then hands back as {compiled} for the
 // page's other workers; then {id, command, trade} (a call may come before its
-// engine is ready: it waits) and {warmUp: true}. Out: {id, result} or
-// {id, error: {field, message}} or {id, fatal} when the engine cannot run, and
+// engine is ready: it waits) and {warmUp: true}. Out: {id, result, ready} (ready: when
+// the result was, as performance.timeOrigin + now) or {id, error: {field, message}}
+// or {id, fatal} when the engine cannot run, and
 // {problem} for a security-policy violation here, which the page reports on
 // its own console (where people and automation look; a worker's console is
 // often hidden).
@@ -122,7 +123,9 @@ self.onmessage = async (event) => {
     return;
   }
   try {
-    self.postMessage({ id, result: engine.run(command, trade), version: engine.version, commands: engine.commands });
+    const result = engine.run(command, trade);
+    const ready = performance.timeOrigin + performance.now();
+    self.postMessage({ id, result, ready, version: engine.version, commands: engine.commands });
   } catch (err) {
     if (err instanceof EngineError)
       self.postMessage({ id, error: { field: err.field, message: err.message, detail: err.detail, kind: err.kind } });
