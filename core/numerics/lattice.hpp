@@ -89,7 +89,7 @@ struct induction_result {
     double delta = 0;
     double gamma = 0;
     double theta = 0;
-    double node_updates = 0;  ///< nodes the sweep updated (rows 0 to steps - 1)
+    double node_updates = 0;  ///< work: nodes swept (rows 0 to steps - 1), or summed_work(steps) if summed
     int steps = 0;            ///< steps of the grid actually used
     int segments = 1;         ///< pieces of equal steps (1: a uniform grid)
 };
