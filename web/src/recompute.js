@@ -59,7 +59,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
    * an event's timeStamp, says when that was) unless another edit comes first.
    */
   function changed(delay = 250, since = performance.now()) {
-    if (document.body.dataset.computing !== 'true') document.body.dataset.computing = 'true'; // automation contract: figures are catching up with the inputs
+    markComputing();
     clearTimeout(timer);
     pending = true;
     // the pause counts from the edit, not from the end of the work its input did or the save below
@@ -67,6 +67,11 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     const waited = performance.now() - since;
     timer = setTimeout(recompute, waited > 0 && waited < delay ? delay - waited : delay);
     save();
+  }
+
+  /** Automation contract: the figures are catching up with the inputs (written only when it was not yet so). */
+  function markComputing() {
+    if (document.body.dataset.computing !== 'true') document.body.dataset.computing = 'true';
   }
 
   /** The figures are all in (unless another edit is waiting). */
@@ -104,7 +109,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
 
   async function recompute() {
     pending = false;
-    if (document.body.dataset.computing !== 'true') document.body.dataset.computing = 'true';
+    markComputing();
     const generation = (state.generation += 1);
     const current = () => generation === state.generation;
     // what the page cannot read (or could read two ways) is refused beside its field: nothing is priced
@@ -144,13 +149,14 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     // or are held back until the price is in (on opening, main.js), the price is shown at
     // once and the cards as they come.
     const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
-    const wait = desk.held ? 0 : cardsWait();
+    const held = desk.held !== null;
+    const wait = held ? 0 : cardsWait();
     if (wait > 0)
       await Promise.race([
         Promise.allSettled([...following, calls.fingerprinting]),
         new Promise((r) => setTimeout(r, wait)),
       ]);
-    measureCards(price, following);
+    if (!held) measureCards(price, following); // (held back, their lag says nothing about the next edit)
     if (!current()) return;
     notBusy();
     clearErrors();
