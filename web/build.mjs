@@ -153,13 +153,14 @@ async function main() {
   const { version, commands } = await engineFacts();
   const appJs = inlineSafe(bundle(join(web, 'src/main.js')), 'script', 'the page script');
   const workerJs = inlineSafe(bundle(join(web, 'src/worker.js')), 'script', 'the worker script');
+  const bootJs = inlineSafe(bundle(join(web, 'src/boot.js')), 'script', 'the boot script');
   const css = inlineSafe(readFileSync(join(web, 'style.css'), 'utf8'), 'style', 'the style sheet');
   const icon = `data:image/svg+xml;base64,${readFileSync(join(web, 'icons/leaf.svg')).toString('base64')}`;
   const example = JSON.stringify(JSON.parse(readFileSync(examplePath, 'utf8'))).replace(/</g, '\\u003c');
 
   const csp = [
     "default-src 'none'",
-    `script-src ${sha256(engineJs)} ${sha256(appJs)} 'wasm-unsafe-eval'`,
+    `script-src ${sha256(engineJs)} ${sha256(bootJs)} ${sha256(appJs)} 'wasm-unsafe-eval'`,
     `style-src ${sha256(css)}`,
     'img-src data: blob:',
     'worker-src blob:',
@@ -187,6 +188,7 @@ async function main() {
       `<script type="application/octet-stream" id="engine-wasm">${engine.packed}</script>`,
   );
   fill('<!--WORKER-->', `<script type="text/plain" id="worker-js">${workerJs}</script>`);
+  fill('<!--BOOT-->', `<script id="boot-js">${bootJs}</script>`);
   fill('<!--APP-->', `<script id="app-js">${appJs}</script>`);
 
   mkdirSync(dirname(outPath), { recursive: true });

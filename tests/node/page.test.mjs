@@ -171,7 +171,7 @@ test(
     const csp = /<meta http-equiv="Content-Security-Policy" content="([^"]+)">/.exec(html)[1];
     const hash = (text) => `'sha256-${createHash('sha256').update(text).digest('base64')}'`;
     const executable = [...html.matchAll(/<script id="[a-z-]+">([\s\S]*?)<\/script>/g)].map((m) => m[1]);
-    assert.equal(executable.length, 2, 'the engine module and the page script');
+    assert.equal(executable.length, 3, 'the engine module, the boot script and the page script');
     for (const text of executable) assert.ok(csp.includes(hash(text)), 'a script is not allowed by hash');
     const style = /<style>([\s\S]*?)<\/style>/.exec(html)[1];
     assert.ok(csp.includes(`style-src ${hash(style)}`));

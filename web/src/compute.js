@@ -1,12 +1,11 @@
 // Hedgeleaf page: engine calls on a Web Worker, one at a time, cancellable.
 //
-// A channel owns one worker built from a Blob of the module's JavaScript plus
-// the worker code (no network, no eval; CSP worker-src blob:); the first worker
-// compiles the engine's WebAssembly and every later one is handed that compiled
-// module, so it is compiled once. cancel() terminates the worker mid-run; the next call
+// A channel owns one worker (workers.js makes them: the first compiles the
+// engine's WebAssembly and every later one is handed that compiled module, so
+// it is compiled once). cancel() terminates the worker mid-run; the next call
 // starts a fresh one. Where a worker cannot start, calls run on the main thread
 // through the same loader.
-import { EngineError, loadEngine, unpackEngine } from './engine.js';
+import { EngineError, loadEngine } from './engine.js';
 
 /** Raised for calls cut short by cancel(). */
 export class Cancelled extends Error {
@@ -34,47 +33,6 @@ const readyTimes = new WeakMap();
  */
 export function readyTime(result) {
   return (result && typeof result === 'object' && readyTimes.get(result)) || null;
-}
-
-/**
- * Workers built from the page's module script followed by the worker code (one
- * Blob, made once: no network, no eval), and the engine's WebAssembly for them.
- * `packed` is the page's packed WebAssembly (engine.js unpackEngine). The first
- * worker unpacks and compiles it itself, at once, while this thread draws the page,
- * and hands the compiled module back; every later worker gets that module (a
- * worker made before it exists, or in a browser that will not pass a module to a
- * worker, compiles its own). Returns {make: () => Worker, mainThread: () =>
- * Promise<{factory, wasm}>} (the engine where no worker can start).
- */
-export function engineWorkers(engineText, workerText, packed) {
-  /** Give `worker` the compiled module; false where this browser cannot pass one to a worker. */
-  const handOver = (worker, compiled) => {
-    try {
-      worker.postMessage({ engine: compiled });
-      return true;
-    } catch {
-      return false;
-    }
-  };
-  const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
-  let module = null;
-  const keep = (event) => {
-    if (!event.data.compiled) return;
-    event.stopImmediatePropagation(); // for here, not for the worker's channel
-    module ??= event.data.compiled;
-  };
-  function make() {
-    const worker = new Worker(url, { name: 'hedgeleaf-engine' });
-    if (module && handOver(worker, module)) return worker;
-    worker.addEventListener('message', keep);
-    worker.postMessage({ unpack: packed });
-    return worker;
-  }
-  async function mainThread() {
-    module ??= (await unpackEngine(packed)).module;
-    return { factory: globalThis.createHedgeleaf, wasm: module };
-  }
-  return { make, mainThread };
 }
 
 export class EngineChannel {

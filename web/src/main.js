@@ -9,7 +9,7 @@
 // use passed in here.
 import { comparisonPanel, openDocument } from './compare.js';
 import { pairForm } from './currency.js';
-import { EngineChannel, engineWorkers } from './compute.js';
+import { EngineChannel } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
@@ -26,22 +26,22 @@ import { simulatePanel } from './simulate.js';
 import { snapshotTools } from './snapshot.js';
 import { browserStore, commandsFrom, pageState } from './state.js';
 import { termsForm } from './terms.js';
+import { engineWorkers } from './workers.js';
 import { workStore } from './work.js';
 
 const scope = document.querySelector('main'); // the terms form and every card
 const state = pageState(commandsFrom(byId('engine-commands').textContent));
 
 // The engine's WebAssembly is compiled once, by the first worker, and every later
-// worker gets the compiled module (compute.js engineWorkers). Two engines on two
+// worker gets the compiled module (workers.js engineWorkers). Two engines on two
 // workers share an edit's calls, so that the slower of them, not the sum, sets how
 // long a recompute takes: `live` prices and then runs the hedge schedule (it takes
 // the trade's premium from the price just made: analytics/pricing.cpp), `desk` runs
 // the profile, ladder, solve and comparison. The simulation has a worker of its own.
-const workers = engineWorkers(
-  byId('engine-js').textContent,
-  byId('worker-js').textContent,
-  byId('engine-wasm').textContent,
-);
+// The first worker was started from the page's <head> (boot.js), before the body was parsed.
+const workers =
+  globalThis.hedgeleafWorkers ??
+  engineWorkers(byId('engine-js').textContent, byId('worker-js').textContent, byId('engine-wasm').textContent);
 const makeWorker = workers.make;
 const mainThreadFactory = workers.mainThread;
 const live = new EngineChannel(makeWorker, mainThreadFactory);
@@ -137,7 +137,9 @@ function wirePresentSwitch() {
 }
 
 async function start() {
-  state.pristineHtml = `<!DOCTYPE html>\n${document.documentElement.outerHTML}`; // before anything is drawn
+  // the page as delivered, before anything is drawn: a copy of its nodes (the big texts are
+  // shared, not copied), written out as HTML only when a copy of the page is saved
+  state.pristine = document.documentElement.cloneNode(true);
   document.querySelector('.card[data-panel="profile"]').hidden = !state.commands.includes('profile');
   const locales = localePicker({ store: browserStore('localStorage'), redraw: () => (fillForm(), changed(0)) });
   const first = await openingTrade(state, work, live);

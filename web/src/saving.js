@@ -199,7 +199,7 @@ export function fileActions({ state, work, live, refill, changed }) {
   /** The page as delivered, with this trade in its embedded-trade block. */
   function pageWithTrade(doc) {
     const json = JSON.stringify(doc).replace(/</g, '\\u003c');
-    return state.pristineHtml.replace(
+    return `<!DOCTYPE html>\n${state.pristine.outerHTML}`.replace(
       /(<script type="application\/json" id="embedded-trade">)[\s\S]*?(<\/script>)/,
       (_, open, close) => `${open}${json}${close}`,
     );

@@ -7,8 +7,8 @@
 
 /**
  * The page's state. `commands` are the engine's commands (a card shows only when
- * its command is there); `price` is the last good price result; `pristineHtml` is the page as delivered
- * (for "Save page with trade"); `storageWarning` is the autosave problem on show; `link`
+ * its command is there); `price` is the last good price result; `pristine` is the page as delivered
+ * (its <html> element, copied before anything was drawn, for "Save page with trade"); `storageWarning` is the autosave problem on show; `link`
  * is the trade (JSON text) of the #trade= link in the address, until the trade is edited.
  */
 export function pageState(commands) {
@@ -17,7 +17,7 @@ export function pageState(commands) {
     price: null,
     generation: 0,
     commands,
-    pristineHtml: '',
+    pristine: null,
     storageWarning: null,
     link: null,
   };

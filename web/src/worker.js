@@ -75,6 +75,18 @@ const warmUpTrades = [
 ];
 const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
 
+let callsWaiting = 0;
+
+/** Run one small price now, unless a call is already waiting for the engine. */
+function firstCompile(engine) {
+  if (callsWaiting > 0) return;
+  try {
+    engine.run('price', warmUpTrades[0]);
+  } catch {
+    // best effort, as warming up
+  }
+}
+
 function warmUp(engine) {
   for (const name of warmUpCommands) {
     if (!engine.commands.includes(name)) continue;
@@ -102,7 +114,10 @@ self.onmessage = async (event) => {
   if (unpack) {
     unpackEngine(unpack).then(({ module }) => {
       haveEngine(module);
-      loadEngine(createHedgeleaf, module).catch(() => {}); // ready before the first call; a call reports a failure
+      // ready before the first call (a call reports a failure); and while this worker waits
+      // for it, one small price compiles the code every call runs (the engine's functions
+      // are compiled when first called: the first price costs some 50 ms more than the next)
+      loadEngine(createHedgeleaf, module).then(firstCompile, () => {});
       try {
         self.postMessage({ compiled: module });
       } catch {
@@ -112,11 +127,14 @@ self.onmessage = async (event) => {
     return;
   }
   let engine;
+  if (id) callsWaiting += 1;
   try {
     engine = await loadEngine(createHedgeleaf, await engineGiven);
   } catch (err) {
     if (id) self.postMessage({ id, fatal: String(err.message || err) });
     return;
+  } finally {
+    if (id) callsWaiting -= 1;
   }
   if (event.data.warmUp) {
     warmUp(engine);
