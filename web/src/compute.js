@@ -118,9 +118,9 @@ export class EngineChannel {
     });
   }
 
-  /** Have the worker, if one runs, optimise the engine's code now (worker.js), ahead of the user's edits. */
-  warmUp() {
-    if (this.worker && !this.held) this.worker.postMessage({ warmUp: true });
+  /** Have the worker, if one runs, optimise the engine's code now on `trade` and its own (worker.js), ahead of the user's edits. */
+  warmUp(trade) {
+    if (this.worker && !this.held) this.worker.postMessage({ warmUp: trade ?? true });
   }
 
   /** True while a call is running on the worker. */

@@ -157,7 +157,7 @@ async function start() {
   desk.holdUntil(live.answered);
   cycle.recompute().finally(() => {
     if (!first.figures) setUpCards();
-    desk.warmUp();
+    desk.warmUp(state.doc);
     // the format picker's other choices (each loads its locale's data) once the browser is idle
     (globalThis.requestIdleCallback ?? setTimeout)(() => locales.fillChoices());
   });

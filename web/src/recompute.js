@@ -48,10 +48,13 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     });
   }
 
-  /** How long the price waits for the cards below it this time (ms). */
-  function cardsWait() {
-    if (cardsLag === null) return 5;
-    return cardsLag <= 8 ? Math.ceil(cardsLag) + 1 : 0;
+  /**
+   * How long the price waits for the cards below it this time (ms), `began` ms into the
+   * recompute: never past 10 ms into it (a price that came late is shown at once).
+   */
+  function cardsWait(began) {
+    const wait = cardsLag === null ? 5 : cardsLag <= 8 ? Math.ceil(cardsLag) + 1 : 0;
+    return Math.min(wait, Math.max(0, 10 - began));
   }
 
   /**
@@ -110,6 +113,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   async function recompute() {
     pending = false;
     markComputing();
+    const began = performance.now();
     const generation = (state.generation += 1);
     const current = () => generation === state.generation;
     // what the page cannot read (or could read two ways) is refused beside its field: nothing is priced
@@ -143,14 +147,15 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     }
     if (!current()) return;
     // The cards below the price (profile, schedule, ladder: a few milliseconds behind it on
-    // their worker) are waited for, as long as they took last time if that was at most 8 ms,
-    // so that the whole page changes in one go: one layout, one frame, no frame where the
-    // premium has moved and the chart has not. When they came later (a structure on a smile),
-    // or are held back until the price is in (on opening, main.js), the price is shown at
-    // once and the cards as they come.
+    // their worker) are waited for, as long as they took last time if that was at most 8 ms
+    // and never past 10 ms into the recompute, so that the whole page changes in one go: one
+    // layout, one frame, no frame where the premium has moved and the chart has not. When they
+    // came later (a structure on a smile), when the price itself came late, or when the cards
+    // are held back until the price is in (on opening, main.js), the price is shown at once
+    // and the cards as they come.
     const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
     const held = desk.held !== null;
-    const wait = held ? 0 : cardsWait();
+    const wait = held ? 0 : cardsWait(performance.now() - began);
     if (wait > 0)
       await Promise.race([
         Promise.allSettled([...following, calls.fingerprinting]),

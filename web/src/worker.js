@@ -6,7 +6,7 @@
 // WebAssembly.Module, or {unpack}, the page's packed WebAssembly, which this
 // worker unpacks and compiles itself and then hands back as {compiled} for the
 // page's other workers; then {id, command, trade} (a call may come before its
-// engine is ready: it waits) and {warmUp: true}. Out: {id, result, ready} (ready: when
+// engine is ready: it waits) and {warmUp: trade}. Out: {id, result, ready} (ready: when
 // the result was, as performance.timeOrigin + now) or {id, error: {field, message}}
 // or {id, fatal} when the engine cannot run, and
 // {problem} for a security-policy violation here, which the page reports on
@@ -24,11 +24,15 @@ engineGiven.catch(() => {}); // each call reports it
 
 // V8 and WebKit first run WebAssembly in a baseline tier and optimise a function
 // only after it has run for a while; a long call stays on the code it started
-// with. So once the page has shown its first figures it asks one worker to price
-// a few small trades (some 20 ms in all), so that the lattice kernels are
-// optimised before the user's first edit (a function runs some five times slower
-// before it is: a four-leg price on curves and a smile takes 30-40 ms cold and 6 ms
-// warm). The workers share one compiled module, so the optimised code serves them all.
+// with. So once the page has shown its first figures it asks one worker to run
+// the page's own trade and a few small ones, spot moved a little each time (the
+// engine remembers the last legs it priced: a repeat would run nothing), so that
+// the code an edit runs is optimised before the user's first edit (a function runs
+// some five times slower before it is: a four-leg price on curves and a smile takes
+// 30-40 ms cold and 6 ms warm). One call at a time, each followed by a turn of this
+// worker's event loop, so that a call from the page waits for one at most, and it
+// stops when the page's first call comes. The workers share one compiled module,
+// so the optimised code serves them all.
 const warmUpTrades = [
   {
     market: { spot: 100, volatility: 0.3, rate: 0.03, dividends: [{ time_years: 0.2, amount: 1 }] },
@@ -73,7 +77,8 @@ const warmUpTrades = [
     ],
   },
 ];
-const warmUpCommands = ['price', 'profile', 'hedge', 'ladder', 'price', 'profile', 'hedge', 'ladder', 'price', 'price'];
+const warmUpCommands = ['price', 'profile', 'hedge', 'ladder'];
+const warmUpRounds = 12;
 
 let callsWaiting = 0;
 
@@ -87,17 +92,31 @@ function firstCompile(engine) {
   }
 }
 
-function warmUp(engine) {
-  for (const name of warmUpCommands) {
-    if (!engine.commands.includes(name)) continue;
-    for (const trade of warmUpTrades) {
-      try {
-        engine.run(name, trade);
-      } catch {
-        // a refusal here changes nothing for the user: warming up is best effort
+let callsTaken = 0;
+
+/** Warm up on `trade` (the page's, or null) and the small trades, until the page's next call comes. */
+async function warmUp(engine, trade) {
+  const trades = trade && typeof trade === 'object' ? [trade, ...warmUpTrades] : [...warmUpTrades];
+  const before = callsTaken;
+  for (let round = 1; round <= warmUpRounds; round++)
+    for (const name of warmUpCommands) {
+      if (!engine.commands.includes(name)) continue;
+      for (const base of [...trades]) {
+        await new Promise((resolve) => setTimeout(resolve, 0));
+        if (callsTaken !== before || callsWaiting > 0) return;
+        const moved = structuredClone(base);
+        if (typeof moved.market?.spot === 'number') moved.market.spot *= 1 + (round % 2 ? round : -round) * 1e-4;
+        const started = performance.now();
+        try {
+          engine.run(name, moved);
+        } catch {
+          // a refusal here changes nothing for the user: warming up is best effort
+        }
+        // a trade that takes long (a huge lattice; not a first, cold run) would hold a call from
+        // the page as long: dropped
+        if (performance.now() - started > 60) trades.splice(trades.indexOf(base), 1);
       }
     }
-  }
 }
 
 self.addEventListener('securitypolicyviolation', (event) => {
@@ -137,9 +156,10 @@ self.onmessage = async (event) => {
     if (id) callsWaiting -= 1;
   }
   if (event.data.warmUp) {
-    warmUp(engine);
+    warmUp(engine, event.data.warmUp);
     return;
   }
+  callsTaken += 1;
   try {
     const result = engine.run(command, trade);
     const ready = performance.timeOrigin + performance.now();
