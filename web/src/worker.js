@@ -80,11 +80,12 @@ const warmUpTrades = [
 const warmUpCommands = ['price', 'profile', 'hedge', 'ladder'];
 const warmUpRounds = 12;
 
-let callsWaiting = 0;
+// Calls from the page so far (counted as they come, before they wait for the engine).
+let callsSeen = 0;
 
-/** Run one small price now, unless a call is already waiting for the engine. */
+/** Run one small price now, unless a call from the page came first (it is waiting for the engine). */
 function firstCompile(engine) {
-  if (callsWaiting > 0) return;
+  if (callsSeen > 0) return;
   try {
     engine.run('price', warmUpTrades[0]);
   } catch {
@@ -92,18 +93,16 @@ function firstCompile(engine) {
   }
 }
 
-let callsTaken = 0;
-
 /** Warm up on `trade` (the page's, or null) and the small trades, until the page's next call comes. */
 async function warmUp(engine, trade) {
   const trades = trade && typeof trade === 'object' ? [trade, ...warmUpTrades] : [...warmUpTrades];
-  const before = callsTaken;
+  const before = callsSeen;
   for (let round = 1; round <= warmUpRounds; round++)
     for (const name of warmUpCommands) {
       if (!engine.commands.includes(name)) continue;
       for (const base of [...trades]) {
         await new Promise((resolve) => setTimeout(resolve, 0));
-        if (callsTaken !== before || callsWaiting > 0) return;
+        if (callsSeen !== before) return;
         const moved = structuredClone(base);
         if (typeof moved.market?.spot === 'number') moved.market.spot *= 1 + (round % 2 ? round : -round) * 1e-4;
         const started = performance.now();
@@ -146,20 +145,17 @@ self.onmessage = async (event) => {
     return;
   }
   let engine;
-  if (id) callsWaiting += 1;
+  if (id) callsSeen += 1;
   try {
     engine = await loadEngine(createHedgeleaf, await engineGiven);
   } catch (err) {
     if (id) self.postMessage({ id, fatal: String(err.message || err) });
     return;
-  } finally {
-    if (id) callsWaiting -= 1;
   }
   if (event.data.warmUp) {
     warmUp(engine, event.data.warmUp);
     return;
   }
-  callsTaken += 1;
   try {
     const result = engine.run(command, trade);
     const ready = performance.timeOrigin + performance.now();
