@@ -26,6 +26,15 @@ namespace {
 #else
 #define HEDGELEAF_SWEEP_CLONES
 #endif
+// In WebAssembly the sweep stays a function of its own, not inlined into induce: the
+// browser's optimising compiler takes a time that grows faster than a function's size, and
+// induce with the sweep inside is the largest hot function of the module (18 KB of code,
+// some 300 ms of a 2-core laptop's second core while the page opens).
+#if defined(__EMSCRIPTEN__)
+#define HEDGELEAF_SWEEP_APART [[gnu::noinline]]
+#else
+#define HEDGELEAF_SWEEP_APART
+#endif
 // The row loops must be inlined into each clone to get its instruction set.
 #if defined(__GNUC__)
 #define HEDGELEAF_ROW_INLINE [[gnu::always_inline]] inline
@@ -169,7 +178,7 @@ void row_band(const sweep& w, int n, int& lo, int& hi) {
     hi = static_cast<int>(std::min(static_cast<double>(n), std::ceil(mean_high + t)));
 }
 
-void plan_row(sweep& w, int n, row_plan& plan, row_tracker& track) {
+HEDGELEAF_SWEEP_APART void plan_row(sweep& w, int n, row_plan& plan, row_tracker& track) {
     plan = row_plan{};
     plan.pu = w.vary ? w.vary->pu[n] : w.pu;
     plan.pd = w.vary ? w.vary->pd[n] : w.pd;
@@ -280,7 +289,7 @@ private:
 
 // The whole backward induction: one call per price (V8 tiers a function up
 // between calls, not inside a long one).
-HEDGELEAF_SWEEP_CLONES void run_sweep(sweep& w) {
+HEDGELEAF_SWEEP_APART HEDGELEAF_SWEEP_CLONES void run_sweep(sweep& w) {
     [[maybe_unused]] const flush_subnormals flush;
     row_plan plans[tile_rows];
     row_tracker track;
