@@ -13,7 +13,7 @@ import { EngineChannel } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
-import { formatNumber } from './format.js';
+import { formatDate, formatNumber, formatStamp } from './format.js';
 import { hedgePanel } from './hedge.js';
 import { localePicker } from './locale.js';
 import { marketEditor } from './market-editor.js';
@@ -137,6 +137,12 @@ function wirePresentSwitch() {
 }
 
 async function start() {
+  // The first worker's packed engine, posted from the <head>, reaches it only once this thread
+  // has had a turn after the worker started (Chromium holds a message to a worker that has not
+  // run its script yet on the page's thread): the page waits for the worker to say it has the
+  // engine (workers.js `started`, at most 250 ms) before building the form, so that the worker
+  // unpacks and compiles while this thread works, not after.
+  await Promise.race([workers.started, new Promise((resolve) => setTimeout(resolve, 250))]);
   // the page as delivered, before anything is drawn: a copy of its nodes (the big texts are
   // shared, not copied), written out as HTML only when a copy of the page is saved
   state.pristine = document.documentElement.cloneNode(true);
@@ -169,10 +175,15 @@ async function start() {
   snapshot.showAge();
   fillProfileRange(state.doc);
   bindControls();
-  // The browser's number formats take some 30 ms to make the first time: make the two
-  // the figures use now, while the engine prices, not after.
-  formatNumber(0, 2);
-  formatNumber(0, 4);
+  // The browser's number and date formats take some 10-30 ms each to make the first time:
+  // make those the first figures use (premium, expiry, the sheet's time stamp) while the
+  // engine prices, in a task after this one so that the form is drawn first.
+  setTimeout(() => {
+    formatNumber(0, 2);
+    formatNumber(0, 4);
+    formatDate('2000-01-01');
+    formatStamp(new Date());
+  }, 0);
   listenForEdits({
     scope,
     state,

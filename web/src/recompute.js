@@ -170,7 +170,6 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
-    refreshSheet(doc, price, calls.fingerprinting);
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
     const schedule = await hedge.update(doc, price, generation, calls.hedging);
@@ -178,6 +177,9 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     await solve.update(generation, calls.solving, price);
     await compare.update(generation, calls.comparing);
     simulate.update(doc, price);
+    // the print-only sheet after the cards on screen: on opening, when the cards come after the
+    // price, it is not drawn with the first figures (printing fills it again anyway)
+    await refreshSheet(doc, price, calls.fingerprinting, current);
     if (!current()) return;
     caughtUp();
     // kept for a reload once this frame is drawn: storage can wait
@@ -235,10 +237,14 @@ function renderCurrency(doc) {
   for (const node of document.querySelectorAll('.ccy')) node.textContent = ccy;
 }
 
-/** Fill the print-only quote sheet for `doc` priced at `price`, stamped with the time now. */
-async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(() => null)) {
+/**
+ * Fill the print-only quote sheet for `doc` priced at `price`, stamped with the time now; with
+ * `current` (a recompute's), nothing if a newer edit came first.
+ */
+async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(() => null), current = () => true) {
   const valuedAt = formatStamp(new Date());
   const code = await fingerprinting;
+  if (!current()) return;
   renderSheet(doc, price, {
     fingerprint: code,
     valuedAt,

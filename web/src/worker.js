@@ -4,9 +4,9 @@
 // (which defines createHedgeleaf) followed by this code, so the worker needs
 // no network and no eval. Messages in, first: {engine}, the engine's compiled
 // WebAssembly.Module, or {unpack}, the page's packed WebAssembly, which this
-// worker unpacks and compiles itself and then hands back as {compiled} for the
-// page's other workers; then {id, command, trade} (a call may come before its
-// engine is ready: it waits) and {warmUp: trade}. Out: {id, result, ready} (ready: when
+// worker unpacks and compiles itself (saying {unpacking} as it starts) and then
+// hands back as {compiled} for the page's other workers; then {id, command, trade}
+// (a call may come before its engine is ready: it waits) and {warmUp: trade}. Out: {id, result, ready} (ready: when
 // the result was, as performance.timeOrigin + now) or {id, error: {field, message}}
 // or {id, fatal} when the engine cannot run, and
 // {problem} for a security-policy violation here, which the page reports on
@@ -130,6 +130,7 @@ self.onmessage = async (event) => {
     return;
   }
   if (unpack) {
+    self.postMessage({ unpacking: true });
     unpackEngine(unpack).then(({ module }) => {
       haveEngine(module);
       // ready before the first call (a call reports a failure); and while this worker waits

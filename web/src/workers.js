@@ -13,9 +13,11 @@ import { unpackEngine } from './engine.js';
  * and hands the compiled module back; every later worker gets that module (a
  * worker made before it exists, or in a browser that will not pass a module to a
  * worker, compiles its own). Returns {make: () => Worker, mainThread: () =>
- * Promise<{factory, wasm}>} (the engine where no worker can start). With `startOne`, the
- * first worker is made at once (boot.js) and is the one the first make() returns; if it
- * failed to start meanwhile, that make() throws, as a worker that cannot start does.
+ * Promise<{factory, wasm}>} (the engine where no worker can start), started: Promise}. With
+ * `startOne`, the first worker is made at once (boot.js) and is the one the first make()
+ * returns; if it failed to start meanwhile, that make() throws, as a worker that cannot start
+ * does. `started` settles once that worker has its packed engine in hand, or failed, or at once
+ * when there is none.
  */
 export function engineWorkers(engineText, workerText, packed, { startOne = false } = {}) {
   /** Give `worker` the compiled module; false where this browser cannot pass one to a worker. */
@@ -29,10 +31,15 @@ export function engineWorkers(engineText, workerText, packed, { startOne = false
   };
   const url = URL.createObjectURL(new Blob([engineText, '\n', workerText], { type: 'text/javascript' }));
   let module = null;
+  let markStarted;
+  const started = new Promise((resolve) => {
+    markStarted = resolve;
+  });
   const keep = (event) => {
-    if (!event.data.compiled) return;
+    if (event.data.unpacking) markStarted();
+    else if (event.data.compiled) module ??= event.data.compiled;
+    else return;
     event.stopImmediatePropagation(); // for here, not for the worker's channel
-    module ??= event.data.compiled;
   };
   let early = null;
   let earlyFailed = false;
@@ -55,6 +62,7 @@ export function engineWorkers(engineText, workerText, packed, { startOne = false
   function failedEarly(event) {
     event.preventDefault();
     earlyFailed = true;
+    markStarted();
   }
   if (startOne) {
     try {
@@ -64,9 +72,10 @@ export function engineWorkers(engineText, workerText, packed, { startOne = false
       early = null; // no worker here: the channels find out for themselves
     }
   }
+  if (!early) markStarted();
   async function mainThread() {
     module ??= (await unpackEngine(packed)).module;
     return { factory: globalThis.createHedgeleaf, wasm: module };
   }
-  return { make, mainThread };
+  return { make, mainThread, started };
 }
