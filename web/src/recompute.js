@@ -154,11 +154,15 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     // are held back until the price is in (on opening, main.js), the price is shown at once
     // and the cards as they come.
     const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
+    let cardsIn = false;
+    const cardsSettled = Promise.allSettled(following).then(() => {
+      cardsIn = true;
+    });
     const held = desk.held !== null;
     const wait = held ? 0 : cardsWait(performance.now() - began);
     if (wait > 0)
       await Promise.race([
-        Promise.allSettled([...following, calls.fingerprinting]),
+        Promise.allSettled([cardsSettled, calls.fingerprinting]),
         new Promise((r) => setTimeout(r, wait)),
       ]);
     if (!held) measureCards(price, following); // (held back, their lag says nothing about the next edit)
@@ -170,6 +174,12 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
+    // The print-only sheet (printing fills it again anyway): with the price when the cards are
+    // in too (one frame), else in a task of its own after this frame, while the cards are
+    // awaited (on opening, it is not drawn with the first figures).
+    const sheet = cardsIn
+      ? refreshSheet(doc, price, calls.fingerprinting, current)
+      : new Promise((r) => setTimeout(r, 0)).then(() => refreshSheet(doc, price, calls.fingerprinting, current));
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
     const schedule = await hedge.update(doc, price, generation, calls.hedging);
@@ -177,9 +187,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     await solve.update(generation, calls.solving, price);
     await compare.update(generation, calls.comparing);
     simulate.update(doc, price);
-    // the print-only sheet after the cards on screen: on opening, when the cards come after the
-    // price, it is not drawn with the first figures (printing fills it again anyway)
-    await refreshSheet(doc, price, calls.fingerprinting, current);
+    await sheet;
     if (!current()) return;
     caughtUp();
     // kept for a reload once this frame is drawn: storage can wait
