@@ -1,6 +1,11 @@
 // Hedgeleaf benchmark: the one-file page in headless Chromium.
 //
 //   node bench/page_bench.mjs [PAGE] [--rates 1,4] [--contexts 5] [--trade FILE]   (default dist/hedgeleaf.html)
+//   node bench/page_bench.mjs [PAGE] --against OLD [--rates 1,4] [--contexts 10]
+//
+// With --against, only the cold open, of OLD and PAGE taken in turn in fresh contexts
+// (OLD, PAGE, OLD, PAGE, ...; `--contexts` of each per rate): the machine's speed drifts by
+// 100 ms and more between runs a few minutes apart, and two pages opened in turn share it.
 //
 // For each CPU rate (1 = this machine; 4 = the page's main thread slowed 4x
 // through the DevTools protocol, Emulation.setCPUThrottlingRate, as a slow
@@ -31,7 +36,8 @@ const flag = (name, fallback) => {
 const positional = process.argv.slice(2).find((arg, i, all) => !arg.startsWith('--') && !all[i - 1]?.startsWith('--'));
 const pagePath = resolve(positional ?? join(root, 'dist/hedgeleaf.html'));
 const rates = flag('--rates', '1,4').split(',').map(Number);
-const contexts = Number(flag('--contexts', '5'));
+const againstPath = flag('--against', null);
+const contexts = Number(flag('--contexts', againstPath ? '10' : '5'));
 const tradePath = flag('--trade', null);
 const budgets = { 1: { open: 500, recompute: 16 }, 4: { open: 1500, recompute: 50 } };
 const debounceMs = 250;
@@ -229,6 +235,45 @@ function report(rate, { opens, settled, recomputes, firstUpdates, onScreen, unpa
   );
 }
 
+/** Open `url` in a fresh context with the CPU at `rate`: ms from the navigation to the first premium shown. */
+async function coldOpen(browser, url, rate) {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  try {
+    await context.setOffline(true);
+    await context.addInitScript(recorder);
+    const page = await context.newPage();
+    if (rate !== 1) await (await context.newCDPSession(page)).send('Emulation.setCPUThrottlingRate', { rate });
+    await page.goto(url);
+    for (let i = 0; i < 600; i++) {
+      const t = await page.evaluate(() => window.__bench.firstPremium);
+      if (t !== null) {
+        await settle(page); // the next context opens on a quiet machine
+        return t;
+      }
+      await sleep(25);
+    }
+    throw new Error('no premium was shown');
+  } finally {
+    await context.close();
+  }
+}
+
+/** --against: the cold opens of the old page and this one, taken in turn. */
+async function pairOfOpens(browser, oldUrl, newUrl) {
+  for (const rate of rates) {
+    const opens = { old: [], new: [] };
+    for (let run = 0; run < contexts; run++) {
+      opens.old.push(await coldOpen(browser, oldUrl, rate));
+      opens.new.push(await coldOpen(browser, newUrl, rate));
+    }
+    console.log(`## CPU ${rate === 1 ? 'at full speed (1x)' : `slowed ${rate}x (main thread, DevTools protocol)`}`);
+    for (const [name, xs] of Object.entries(opens))
+      console.log(
+        `cold open, ${name} page: median ${median(xs).toFixed(0)} ms (${xs.map((x) => x.toFixed(0)).join(' ')})`,
+      );
+  }
+}
+
 async function main() {
   const size = statSync(pagePath).size;
   const page = pathToFileURL(pagePath).href;
@@ -243,7 +288,15 @@ async function main() {
   console.log(`load average before: ${load()} (1, 5, 15 min)`);
   const browser = await launchChromium();
   try {
-    for (const rate of rates) report(rate, await measure(browser, url, rate));
+    if (againstPath) {
+      const oldPage = pathToFileURL(resolve(againstPath)).href;
+      console.log(`old page: ${resolve(againstPath)} (${statSync(againstPath).size} bytes)`);
+      await pairOfOpens(
+        browser,
+        tradePath ? tradeLink(oldPage, readFileSync(resolve(tradePath), 'utf8')) : oldPage,
+        url,
+      );
+    } else for (const rate of rates) report(rate, await measure(browser, url, rate));
   } finally {
     await browser.close();
   }
