@@ -6,9 +6,9 @@
 // WebAssembly.Module, or {unpack}, the page's packed WebAssembly, which this
 // worker unpacks and compiles itself (saying {unpacking} as it starts) and then
 // hands back as {compiled} for the page's other workers; then {id, command, trade}
-// (a call may come before its engine is ready: it waits) and {warmUp: trade}. Out: {id, result, ready} (ready: when
-// the result was, as performance.timeOrigin + now) or {id, error: {field, message}}
-// or {id, fatal} when the engine cannot run, and
+// (a call may come before its engine is ready: it waits) and {warmUp: trade}. Out:
+// {id, result, ready} (ready: when the result was, as performance.timeOrigin + now)
+// or {id, error: {field, message}} or {id, fatal} when the engine cannot run, and
 // {problem} for a security-policy violation here, which the page reports on
 // its own console (where people and automation look; a worker's console is
 // often hidden).

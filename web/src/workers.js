@@ -13,7 +13,7 @@ import { unpackEngine } from './engine.js';
  * and hands the compiled module back; every later worker gets that module (a
  * worker made before it exists, or in a browser that will not pass a module to a
  * worker, compiles its own). Returns {make: () => Worker, mainThread: () =>
- * Promise<{factory, wasm}>} (the engine where no worker can start), started: Promise}. With
+ * Promise<{factory, wasm}> (the engine where no worker can start), started: Promise}. With
  * `startOne`, the first worker is made at once (boot.js) and is the one the first make()
  * returns; if it failed to start meanwhile, that make() throws, as a worker that cannot start
  * does. `started` settles once that worker has its packed engine in hand, or failed, or at once
