@@ -116,28 +116,39 @@ async function unpackingCost() {
   };
 }
 
+/**
+ * Open `url` in a fresh offline context with the CPU at `rate` and wait until the page has
+ * settled (so that the next open, or the edits, start on a quiet machine). Returns {context,
+ * page, open}: `open` is ms from the navigation to the first premium shown; close the context.
+ */
+async function coldOpen(browser, url, rate) {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  await context.setOffline(true);
+  await context.addInitScript(recorder);
+  const page = await context.newPage();
+  if (rate !== 1) await (await context.newCDPSession(page)).send('Emulation.setCPUThrottlingRate', { rate });
+  await page.goto(url);
+  for (let i = 0; i < 1200; i++) {
+    const open = await page.evaluate(() => window.__bench.firstPremium);
+    if (open !== null) {
+      await settle(page);
+      return { context, page, open };
+    }
+    await sleep(25);
+  }
+  await context.close();
+  throw new Error('no premium was shown');
+}
+
+const rateHeading = (rate) =>
+  `## CPU ${rate === 1 ? 'at full speed (1x)' : `slowed ${rate}x (main thread, DevTools protocol)`}`;
+
 /** Open the page in `contexts` fresh contexts at CPU `rate` and time the open and four spot edits in each. */
 async function measure(browser, url, rate) {
   const figures = { opens: [], settled: [], recomputes: [], firstUpdates: [], onScreen: [] };
   for (let run = 0; run < contexts; run++) {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    await context.setOffline(true);
-    await context.addInitScript(recorder);
-    const page = await context.newPage();
-    if (rate !== 1) {
-      const cdp = await context.newCDPSession(page);
-      await cdp.send('Emulation.setCPUThrottlingRate', { rate });
-    }
-    await page.goto(url);
-    for (let i = 0; i < 600; i++) {
-      const t = await page.evaluate(() => window.__bench.firstPremium);
-      if (t !== null) {
-        figures.opens.push(t);
-        break;
-      }
-      await sleep(50);
-    }
-    await settle(page);
+    const { context, page, open } = await coldOpen(browser, url, rate);
+    figures.opens.push(open);
     figures.settled.push(await page.evaluate(() => window.__bench.changes.at(-1)));
     if (run === 0) figures.unpacking = await page.evaluate(unpackingCost);
     // The spot ladder is folded at first: open it, so the timed recompute includes it.
@@ -205,7 +216,7 @@ function report(rate, { opens, settled, recomputes, firstUpdates, onScreen, unpa
   const budget = budgets[rate];
   const within = (figure, limit) => (limit ? `; budget ${limit} ms, ${figure < limit ? 'met' : 'NOT met'}` : '');
   const ms = (x, digits = 0) => `${x.toFixed(digits)} ms`;
-  console.log(`## CPU ${rate === 1 ? 'at full speed (1x)' : `slowed ${rate}x (main thread, DevTools protocol)`}`);
+  console.log(rateHeading(rate));
   if (process.env.PAGE_BENCH_ALL) {
     console.log(`on screen: ${onScreen.map((x) => x.toFixed(1)).join(' ')}`);
     console.log(`every card: ${recomputes.map((x) => x.toFixed(1)).join(' ')}`);
@@ -235,38 +246,20 @@ function report(rate, { opens, settled, recomputes, firstUpdates, onScreen, unpa
   );
 }
 
-/** Open `url` in a fresh context with the CPU at `rate`: ms from the navigation to the first premium shown. */
-async function coldOpen(browser, url, rate) {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-  try {
-    await context.setOffline(true);
-    await context.addInitScript(recorder);
-    const page = await context.newPage();
-    if (rate !== 1) await (await context.newCDPSession(page)).send('Emulation.setCPUThrottlingRate', { rate });
-    await page.goto(url);
-    for (let i = 0; i < 600; i++) {
-      const t = await page.evaluate(() => window.__bench.firstPremium);
-      if (t !== null) {
-        await settle(page); // the next context opens on a quiet machine
-        return t;
-      }
-      await sleep(25);
-    }
-    throw new Error('no premium was shown');
-  } finally {
-    await context.close();
-  }
-}
-
 /** --against: the cold opens of the old page and this one, taken in turn. */
 async function pairOfOpens(browser, oldUrl, newUrl) {
+  const openOnce = async (url, rate) => {
+    const { context, open } = await coldOpen(browser, url, rate);
+    await context.close();
+    return open;
+  };
   for (const rate of rates) {
     const opens = { old: [], new: [] };
     for (let run = 0; run < contexts; run++) {
-      opens.old.push(await coldOpen(browser, oldUrl, rate));
-      opens.new.push(await coldOpen(browser, newUrl, rate));
+      opens.old.push(await openOnce(oldUrl, rate));
+      opens.new.push(await openOnce(newUrl, rate));
     }
-    console.log(`## CPU ${rate === 1 ? 'at full speed (1x)' : `slowed ${rate}x (main thread, DevTools protocol)`}`);
+    console.log(rateHeading(rate));
     for (const [name, xs] of Object.entries(opens))
       console.log(
         `cold open, ${name} page: median ${median(xs).toFixed(0)} ms (${xs.map((x) => x.toFixed(0)).join(' ')})`,
@@ -276,8 +269,12 @@ async function pairOfOpens(browser, oldUrl, newUrl) {
 
 async function main() {
   const size = statSync(pagePath).size;
-  const page = pathToFileURL(pagePath).href;
-  const url = tradePath ? tradeLink(page, readFileSync(resolve(tradePath), 'utf8')) : page;
+  // the page's file:// address, opening on the --trade file when one is given
+  const pageUrl = (path) => {
+    const page = pathToFileURL(path).href;
+    return tradePath ? tradeLink(page, readFileSync(resolve(tradePath), 'utf8')) : page;
+  };
+  const url = pageUrl(pagePath);
   const load = () =>
     loadavg()
       .map((x) => x.toFixed(2))
@@ -289,13 +286,8 @@ async function main() {
   const browser = await launchChromium();
   try {
     if (againstPath) {
-      const oldPage = pathToFileURL(resolve(againstPath)).href;
       console.log(`old page: ${resolve(againstPath)} (${statSync(againstPath).size} bytes)`);
-      await pairOfOpens(
-        browser,
-        tradePath ? tradeLink(oldPage, readFileSync(resolve(tradePath), 'utf8')) : oldPage,
-        url,
-      );
+      await pairOfOpens(browser, pageUrl(resolve(againstPath)), url);
     } else for (const rate of rates) report(rate, await measure(browser, url, rate));
   } finally {
     await browser.close();
