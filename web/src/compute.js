@@ -25,6 +25,9 @@ export function started(promise) {
   return promise;
 }
 
+/** A promise that resolves after `ms` milliseconds (a task of its own for 0). */
+export const delay = (ms) => new Promise((resolve) => setTimeout(resolve, ms));
+
 const readyTimes = new WeakMap();
 /**
  * When the worker had `result` ready (ms since the epoch, by the worker's clock:
@@ -163,7 +166,7 @@ export class EngineChannel {
   async callInline(command, trade) {
     const { factory, wasm } = await this.mainThreadFactory();
     const engine = await loadEngine(factory, wasm);
-    await new Promise((resolve) => setTimeout(resolve, 0)); // let the page paint first
+    await delay(0); // let the page paint first
     try {
       return engine.run(command, trade);
     } finally {

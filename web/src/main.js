@@ -9,7 +9,7 @@
 // use passed in here.
 import { comparisonPanel, openDocument } from './compare.js';
 import { pairForm } from './currency.js';
-import { EngineChannel } from './compute.js';
+import { EngineChannel, delay } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
 import { byId } from './dom.js';
 import { listenForEdits } from './edits.js';
@@ -142,7 +142,7 @@ async function start() {
   // run its script yet on the page's thread): the page waits for the worker to say it has the
   // engine (workers.js `started`, at most 250 ms) before building the form, so that the worker
   // unpacks and compiles while this thread works, not after.
-  await Promise.race([workers.started, new Promise((resolve) => setTimeout(resolve, 250))]);
+  await Promise.race([workers.started, delay(250)]);
   // the page as delivered, before anything is drawn: a copy of its nodes (the big texts are
   // shared, not copied), written out as HTML only when a copy of the page is saved
   state.pristine = document.documentElement.cloneNode(true);

@@ -9,7 +9,7 @@
 // message goes beside its field and the last good figures stay, greyed.
 // <body data-computing> is set while the figures catch up with the inputs (the
 // page's automation contract).
-import { Cancelled, readyTime, started } from './compute.js';
+import { Cancelled, delay, readyTime, started } from './compute.js';
 import { EngineError } from './engine.js';
 import { clearErrors, pageProblems, setStale, showError, showFailure, showPageProblems } from './messages.js';
 import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
@@ -160,11 +160,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     });
     const held = desk.held !== null;
     const wait = held ? 0 : cardsWait(performance.now() - began);
-    if (wait > 0)
-      await Promise.race([
-        Promise.allSettled([cardsSettled, calls.fingerprinting]),
-        new Promise((r) => setTimeout(r, wait)),
-      ]);
+    if (wait > 0) await Promise.race([Promise.allSettled([cardsSettled, calls.fingerprinting]), delay(wait)]);
     if (!held) measureCards(price, following); // (held back, their lag says nothing about the next edit)
     if (!current()) return;
     notBusy();
@@ -177,9 +173,11 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     // The print-only sheet (printing fills it again anyway): with the price when the cards are
     // in too (one frame), else in a task of its own after this frame, while the cards are
     // awaited (on opening, it is not drawn with the first figures).
-    const sheet = cardsIn
-      ? refreshSheet(doc, price, calls.fingerprinting, current)
-      : new Promise((r) => setTimeout(r, 0)).then(() => refreshSheet(doc, price, calls.fingerprinting, current));
+    const sheet = started(
+      cardsIn
+        ? refreshSheet(doc, price, calls.fingerprinting, current)
+        : delay(0).then(() => refreshSheet(doc, price, calls.fingerprinting, current)),
+    );
     const profile = calls.profiling ? await showProfile(doc, price, calls.profiling, current) : null;
     if (!current()) return;
     const schedule = await hedge.update(doc, price, generation, calls.hedging);
