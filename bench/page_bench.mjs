@@ -39,10 +39,7 @@ const rates = flag('--rates', '1,4').split(',').map(Number);
 const againstPath = flag('--against', null);
 const contexts = Number(flag('--contexts', againstPath ? '10' : '5'));
 const tradePath = flag('--trade', null);
-const budgets = {
-  1: { open: 500, recompute: 16 },
-  4: { open: 1500, recompute: 50 },
-};
+const budgets = { 1: { open: 500, recompute: 16 }, 4: { open: 1500, recompute: 50 } };
 const debounceMs = 250;
 const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
 
@@ -54,13 +51,7 @@ const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
 // layout is slow shows as such there and not in `changes`. It also counts the wait for the
 // frame itself (up to one display refresh, 16.7 ms at 60 Hz).
 function recorder() {
-  window.__bench = {
-    firstPremium: null,
-    firstDrawn: null,
-    changes: [],
-    targets: [],
-    drawn: [],
-  };
+  window.__bench = { firstPremium: null, firstDrawn: null, changes: [], targets: [], drawn: [] };
   // (a user-blocking task runs ahead of the page's own queued tasks, such as the next card's result)
   const afterFrame = (note) =>
     requestAnimationFrame(() =>
@@ -76,12 +67,7 @@ function recorder() {
         window.__bench.firstPremium = now;
         afterFrame((t) => (window.__bench.firstDrawn = t));
       }
-    }).observe(document.documentElement, {
-      subtree: true,
-      childList: true,
-      attributes: true,
-      characterData: true,
-    });
+    }).observe(document.documentElement, { subtree: true, childList: true, attributes: true, characterData: true });
   };
   if (document.documentElement) watch();
   else document.addEventListener('readystatechange', watch, { once: true });
@@ -148,9 +134,7 @@ async function unpackingCost() {
  * page, open}: `open` is ms from the navigation to the first premium shown; close the context.
  */
 async function coldOpen(browser, url, rate) {
-  const context = await browser.newContext({
-    viewport: { width: 1280, height: 900 },
-  });
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
   await context.setOffline(true);
   await context.addInitScript(recorder);
   const page = await context.newPage();
@@ -160,12 +144,7 @@ async function coldOpen(browser, url, rate) {
     const open = await page.evaluate(() => window.__bench.firstPremium);
     if (open !== null) {
       await settle(page);
-      return {
-        context,
-        page,
-        open,
-        drawn: await page.evaluate(() => window.__bench.firstDrawn),
-      };
+      return { context, page, open, drawn: await page.evaluate(() => window.__bench.firstDrawn) };
     }
     await sleep(25);
   }
