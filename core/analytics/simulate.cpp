@@ -189,8 +189,9 @@ void fill_levels(const trade& t, const trade_lattice& lat, std::vector<frequency
     }
 }
 
-// Premium and first hedge: the same on every path.
-double opening_premium(const trade& t, const frequency_plan& first) {
+// Premium and first hedge: the same on every path. A table leg that expires at the first date
+// (within the time tolerance of it) has no level there: its value today is read off the lattice.
+double opening_premium(const trade& t, const frequency_plan& first, const trade_lattice* lat) {
     const market_data& m = t.market;
     double premium = 0;
     for (std::size_t i = 0; i < t.legs.size(); ++i) {
@@ -199,8 +200,10 @@ double opening_premium(const trade& t, const frequency_plan& first) {
             premium += leg.quantity * m.spot;
         else if (leg.exercise == exercise_style::european)
             premium += leg.quantity * closed_form(leg_market(m, leg), leg).premium;
-        else
+        else if (!first.levels[i].empty())
             premium += leg.quantity * first.levels[i][0].value[0];
+        else
+            premium += leg.quantity * leg_values(*lat, i).value[0][0];
     }
     return premium;
 }
@@ -383,7 +386,7 @@ simulation run_simulation(const trade& given, const simulate_settings& st) {
     std::vector<frequency_plan> plans;
     for (const auto& ds : dates.dates) plans.push_back(plan_frequency(t, ds, dates, lat ? &*lat : nullptr));
     if (lat) fill_levels(t, *lat, plans);
-    const double premium = opening_premium(t, plans[0]);
+    const double premium = opening_premium(t, plans[0], lat ? &*lat : nullptr);
     out.premium = premium;
 
     table_reader from_table;

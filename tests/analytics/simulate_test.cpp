@@ -126,3 +126,21 @@ TEST_CASE("simulate result, caps and bad input", "[simulate]") {
     CHECK(message(atm("call", "european", R"({"path": 5})")) ==
           "simulate.path: unknown field (did you mean \"paths\"?)");
 }
+
+TEST_CASE("an American leg that expires at the first hedge date is valued, not read from a missing level",
+          "[simulate]") {
+    // Expiry 1e-9 years, within the time tolerance of today: the leg has no delta table on any hedge
+    // date, and its opening value is read off the lattice. Check: an at-the-money option this close to
+    // expiry is worth S * sigma * sqrt(T / (2 pi)) (Brenner and Subrahmanyam (1988), "A simple formula
+    // to compute the implied standard deviation", from memory; early exercise adds nothing here).
+    for (const char* exercise : {"american", "bermudan"}) {
+        const std::string extra = std::string(exercise) == "bermudan" ? R"(, "exercise_years": [1e-9])" : "";
+        const std::string text = R"({"market": {"spot": 100, "volatility": 0.2, "rate": 0.03},
+          "option": {"type": "put", "strike": 100, "expiry_years": 1e-9, "exercise": ")" +
+                                 std::string(exercise) + "\"" + extra + R"(}, "simulate": {"paths": 4, "seed": 3}})";
+        const simulation sim = simulate(text);
+        const double expected = 100 * 0.2 * std::sqrt(1e-9 / (2 * M_PI));
+        CHECK(sim.premium == Approx(expected).epsilon(0.02));
+        for (const pnl_summary& f : sim.frequencies) CHECK(std::isfinite(f.mean));
+    }
+}
