@@ -123,7 +123,9 @@ void read_dividends(field_reader& r, const years_reader& times, market_data& m) 
         field_reader d((*divs)[i], index_path(path, i));
         dividend div;
         div.years = times.read_years(d, "time_years", "date");
-        require_positive(div.years, d.child(d.has("date") ? "date" : "time_years"));
+        if (d.has("date") && !(div.years > 0))  // (a date is given by date, as the expiry's is)
+            fail(d.child("date"), "must be after valuation_date " + to_iso(*times.valuation_date));
+        require_positive(div.years, d.child("time_years"));
         div.amount = d.number("amount");
         require_non_negative(div.amount, d.child("amount"));
         if (!(div.amount < m.spot))

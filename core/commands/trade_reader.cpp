@@ -163,9 +163,19 @@ strike_terms read_strike_terms(const json& value, const std::string& path, payof
     return out;
 }
 
+/// Dividends worth spot or more before `expiry` leave no forward: refused, naming the dividends.
+void require_dividends_below_spot(const market_data& m, double expiry) {
+    const double pv = m.dividend_pv(0, expiry);
+    if (!(pv < m.spot))
+        fail("market.dividends", "present value " + format_number(pv) +
+                                     " of dividends before expiry must be below market.spot " + format_number(m.spot));
+}
+
 /// The strike of a leg written as a percentage or a delta, rounded to the trade's strike_tick.
 void resolve_strike(const trade& t, option_leg& leg, const std::string& path) {
     if (leg.type == payoff_kind::stock || leg.strike_given.form == strike_form::price) return;
+    // (before the forward or the delta is solved from them: no forward, no strike)
+    if (!t.currency) require_dividends_below_spot(t.market, leg.expiry_years);
     // A pair's strikes: its forward to delivery, its delta in the trade's convention.
     const market_data market = t.currency ? currency_leg_market(t, leg, path) : t.market;
     const double k = t.currency && leg.strike_given.form == strike_form::delta
@@ -381,11 +391,7 @@ trade read_trade(const json& document) {
 
     settle_volatility(t);
 
-    const double pv = t.market.dividend_pv(0, t.final_expiry_years());
-    if (!(pv < t.market.spot))
-        fail("market.dividends", "present value " + format_number(pv) +
-                                     " of dividends before expiry must be below market.spot " +
-                                     format_number(t.market.spot));
+    require_dividends_below_spot(t.market, t.final_expiry_years());
 
     // Sections read by their own modules; named here so misspellings are caught.
     for (const auto& section : command_sections) r.raw_optional(section);
