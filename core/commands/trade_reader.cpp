@@ -72,6 +72,10 @@ double read_expiry(field_reader& r, const years_reader& times) {
         if (by_date) fail(expiry_path, "must be after valuation_date " + to_iso(*times.valuation_date));
         fail(expiry_path, "must be > 0, got " + format_number(years));
     }
+    // (shorter is expiry itself, and the lattice's steps would vanish in double precision)
+    if (years < time_tolerance_years)
+        fail(expiry_path, "must be at least " + format_number(time_tolerance_years) +
+                              " years (about 0.03 seconds), got " + format_number(years));
     require_at_most(years, max_expiry_years, expiry_path);
     return years;
 }

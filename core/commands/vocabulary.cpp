@@ -73,7 +73,7 @@ void option_fields(json& f, const std::string& at) {
     f[at + ".strike"] = price_level();
     f[at + ".strike.percent_of_spot"] = positive_up_to(max_strike_percent);
     f[at + ".strike.percent_of_forward"] = positive_up_to(max_strike_percent);
-    f[at + ".expiry_years"] = positive_up_to(max_expiry_years);
+    f[at + ".expiry_years"] = between(number_field(), time_tolerance_years, max_expiry_years);
     f[at + ".expiry_tenor"] = json{{"type", "string"}, {"maxLength", max_tenor_chars}};
     f[at + ".exercise"] = by_default(one_of(exercise_styles), "european");
     f[at + ".exercise_dates"] = list_of(1, max_exercise_dates);
@@ -118,7 +118,7 @@ void trade_fields(json& f) {
     f["structure.strikes[]"] = price_level();
     f["structure.strikes[].percent_of_spot"] = positive_up_to(max_strike_percent);
     f["structure.strikes[].percent_of_forward"] = positive_up_to(max_strike_percent);
-    f["structure.expiry_years"] = positive_up_to(max_expiry_years);
+    f["structure.expiry_years"] = between(number_field(), time_tolerance_years, max_expiry_years);
     f["structure.expiry_tenor"] = json{{"type", "string"}, {"maxLength", max_tenor_chars}};
     f["structure.exercise"] = by_default(one_of(structure_exercise_styles), "european");
     f["strike_tick"] = above(number_field(), 0);
