@@ -30,10 +30,10 @@ std::vector<double> read_axis(field_reader& r, const std::string& stem, const ax
     require_positive(step, step_path);
     // A tolerance so that 0.4 / 0.02 counts as 20 steps, not 19.999...
     const double count = std::floor((to - from) / step + 1e-9) + 1;
-    if (count > max_points_per_axis)
-        fail(step_path, "gives " + format_number(count) + " rows from " + format_number(from) + " to " +
-                            format_number(to) + ", at most " + std::to_string(max_points_per_axis) +
-                            "; use a larger step");
+    if (!(count <= max_points_per_axis))  // (a step so small that the count overflows: "too many")
+        fail(step_path, "gives " + (std::isfinite(count) ? format_number(count) : std::string("too many")) +
+                            " rows from " + format_number(from) + " to " + format_number(to) + ", at most " +
+                            std::to_string(max_points_per_axis) + "; use a larger step");
     std::vector<double> points;
     for (int i = 0; i < static_cast<int>(count); ++i) {
         points.push_back(tidy_decimal(from + i * step));
