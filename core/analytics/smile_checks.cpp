@@ -84,16 +84,17 @@ std::optional<smile_violation> butterfly_in_row(const market_data& m, std::size_
             return smile_violation{i, j + 1,
                                    strike_words(j + 1) + " is worth " + price_text(c[j + 1]) + ", more than " +
                                        price_text(c[j]) + " at the lower strike " + price_text(k[j]) + " (" +
-                                       cell(i, j) +
-                                       "): a call must not gain value as its strike rises (butterfly arbitrage); " +
+                                       cell(i, j) + "), by " + format_number(c[j + 1] - c[j]) +
+                                       ": a call must not gain value as its strike rises (butterfly arbitrage); " +
                                        fix(true, implied(m, k[j + 1], years, c[j]), "raise " + cell(i, j))};
         if (c[j] - c[j + 1] > discount * gap + eps)
             return smile_violation{
                 i, j + 1,
                 strike_words(j + 1) + " is worth " + price_text(c[j + 1]) + ", less than " +
                     price_text(c[j] - discount * gap) + " = the call at " + price_text(k[j]) + " (" + cell(i, j) +
-                    ") less the discounted strike gap: a call must not fall faster than the discount factor " +
-                    price_text(discount) + " per unit of strike (butterfly arbitrage); " +
+                    ") less the discounted strike gap, short by " + format_number(c[j] - discount * gap - c[j + 1]) +
+                    ": a call must not fall faster than the discount factor " + price_text(discount) +
+                    " per unit of strike (butterfly arbitrage); " +
                     fix(false, implied(m, k[j + 1], years, c[j] - discount * gap), "lower " + cell(i, j))};
     }
     for (std::size_t j = 1; j + 1 < n; ++j) {
