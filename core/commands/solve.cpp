@@ -30,8 +30,17 @@ std::size_t read_leg(field_reader& r, const trade& t, const char* what) {
     return leg;
 }
 
+/// The net premium per unit to solve for: within the price cap either way (a target beyond it
+/// would swallow the premium in rounding, and every strike would look alike).
+void require_target(double target, const std::string& path) {
+    if (!(std::fabs(target) <= max_price_level))
+        fail(path, "must be between -" + format_number(max_price_level) + " and " + format_number(max_price_level) +
+                       " (a net premium per unit), got " + format_number(target));
+}
+
 void read_volatility_terms(field_reader& r, const trade& t, solve_settings& s) {
     s.target_premium = r.number("target_premium");
+    require_target(s.target_premium, r.child("target_premium"));
     s.one_leg = r.has("leg");
     if (s.one_leg) s.leg = read_leg(r, t, "volatility");
     const volatility_range range = default_volatility_range(t, s.one_leg ? std::optional(s.leg) : std::nullopt);
@@ -59,6 +68,7 @@ void read_strike_terms(field_reader& r, const trade& t, solve_settings& s) {
                            "the legs; a ready-made structure lists its legs in the result of price)");
     s.leg = read_leg(r, t, "strike");
     s.target_premium = r.number_or("target_premium", 0.0);
+    require_target(s.target_premium, r.child("target_premium"));
     read_bounds(r, s, t.market.spot / 4, t.market.spot * 4, max_price_level);
 }
 

@@ -150,6 +150,7 @@ void solve_fields(json& f) {
     // checks each case): the schema states the condition, the field itself is any number.
     f["solve.lower"] = number_field();
     f["solve.upper"] = number_field();
+    f["solve.target_premium"] = between(number_field(), -max_price_level, max_price_level);
     f["solve.budget"] = positive_up_to(max_budget);
     f["solve.lot_size"] = between(number_field(), min_lot_size, max_quantity);
 }
