@@ -11,6 +11,7 @@
 #include "table.hpp"
 
 #include <algorithm>
+#include <filesystem>
 #include <fstream>
 #include <iostream>
 #include <iterator>
@@ -64,6 +65,8 @@ bool read_input(const std::string& path, std::string& text) {
         text.assign(std::istreambuf_iterator<char>(std::cin), std::istreambuf_iterator<char>());
         return true;
     }
+    std::error_code ignored;
+    if (std::filesystem::is_directory(path, ignored)) return false;  // (read as empty text otherwise)
     std::ifstream in(path, std::ios::binary);
     if (!in) return false;
     std::ostringstream buf;
@@ -157,7 +160,7 @@ int main(int argc, char** argv) {
     try {
         json document = document_of(paths, texts);
         if (!market_path.empty())
-            document = hedgeleaf::with_market_snapshot(document, hedgeleaf::parse_json_text(market_text));
+            document = hedgeleaf::with_market_snapshot(document, hedgeleaf::parse_market_snapshot(market_text));
         say_estimated_time(command, document);
         const json result = hedgeleaf::run_command(command, document);
         if (format == "table") {

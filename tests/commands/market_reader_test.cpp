@@ -185,3 +185,21 @@ TEST_CASE("a trade without a market is priced in a snapshot; giving both is an e
             "volatility": {"expiries": [1], "strikes": [90, 110], "vols": [[0.2, -1]]}})"));
     CHECK(bad_cell["error"]["field"] == "market.volatility.vols[0][1]");
 }
+
+TEST_CASE("a snapshot that is not good JSON is named as the snapshot, not as the trade", "[market]") {
+    // The text checks are the trade document's (RFC 8259; a name given twice, RFC 7493 section 2.3);
+    // the message names the snapshot's field as market.<field>, or the market for the whole text.
+    const std::string trade = R"({"option": {"type": "call", "strike": 100, "expiry_years": 1}})";
+    const auto error_of = [&](const std::string& snapshot) {
+        return json::parse(run_command_text("price", trade, 1e18, snapshot))["error"];
+    };
+    const json twice = error_of(R"({"as_of": "2026-12-02T16:30:00Z", "spot": 1, "spot": 2})");
+    CHECK(twice["field"] == "market.spot");
+    CHECK(twice["message"].get<std::string>().rfind("market.spot: is given twice", 0) == 0);
+    const json broken = error_of(R"({"as_of": "2026-12-02T16:30:00Z", "spot": 1,, })");
+    CHECK(broken["field"] == "market");
+    CHECK(broken["message"].get<std::string>().rfind("market: not a valid JSON market snapshot (near character", 0) ==
+          0);
+    CHECK(error_of(std::string(70, '[') + std::string(70, ']'))["message"].get<std::string>().find(
+              "not a valid market snapshot (nested more than 64 levels deep; a snapshot needs") != std::string::npos);
+}
