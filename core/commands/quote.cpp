@@ -155,7 +155,8 @@ std::string read_plain_text(field_reader& r, const std::string& key, std::size_t
         const unsigned char c = static_cast<unsigned char>(s[i]);
         const bool allowed_break = multi_line && (c == '\n' || c == '\r' || c == '\t');
         if ((c < 0x20 || c == 0x7F) && !allowed_break)
-            fail(path, "must be plain text without control characters (character " + std::to_string(i + 1) + ")");
+            fail(path, "must be plain text without control characters (character " +
+                           std::to_string(char_count(s.substr(0, i)) + 1) + ")");  // counted as characters, not bytes
     }
     return s;
 }
