@@ -160,7 +160,8 @@ int main(int argc, char** argv) {
     try {
         json document = document_of(paths, texts);
         if (!market_path.empty())
-            document = hedgeleaf::with_market_snapshot(document, hedgeleaf::parse_market_snapshot(market_text));
+            document = hedgeleaf::with_market_snapshot(
+                document, hedgeleaf::parse_json_text(market_text, hedgeleaf::market_snapshot_words));
         say_estimated_time(command, document);
         const json result = hedgeleaf::run_command(command, document);
         if (format == "table") {

@@ -248,12 +248,15 @@ private:
 
 }  // namespace
 
-json parse_json_text(const std::string& text) {
+json parse_json_text(const std::string& text, const json_text_words& words) {
+    const std::string whole = words.path;
+    const std::string document = words.document, json_name = words.json_name;
     if (text.size() > max_document_bytes)
-        fail("", "the trade document is " + std::to_string(text.size()) + " bytes, at most " +
-                     std::to_string(max_document_bytes));
+        fail(whole, "the " + document + " is " + std::to_string(text.size()) + " bytes, at most " +
+                        std::to_string(max_document_bytes));
     // nlohmann reports empty input as an error at character 1; say what it is.
-    if (text.find_first_not_of(" \t\r\n") == std::string::npos) fail("", "not a valid JSON document (empty input)");
+    if (text.find_first_not_of(" \t\r\n") == std::string::npos)
+        fail(whole, "not a valid " + json_name + " (empty input)");
     // Copying and printing a JSON value recurse once per level: a document nested
     // thousands deep would overflow the stack (found by a hand-made 150,000-level
     // object: a crash natively, "maximum call stack size exceeded" in the module).
@@ -272,8 +275,8 @@ json parse_json_text(const std::string& text) {
             in_string = true;
         } else if (c == '{' || c == '[') {
             if (++depth > max_document_depth)
-                fail("", "not a valid trade document (nested more than " + std::to_string(max_document_depth) +
-                             " levels deep; a trade needs fewer than 10)");
+                fail(whole, "not a valid " + document + " (nested more than " + std::to_string(max_document_depth) +
+                                " levels deep; " + words.one + " needs fewer than 10)");
         } else if (c == '}' || c == ']') {
             --depth;
         }
@@ -281,7 +284,7 @@ json parse_json_text(const std::string& text) {
     key_tracker keys;
     json doc = json::parse(text, std::ref(keys), false);
     if (!doc.is_discarded() && !keys.repeated.empty())
-        fail(keys.repeated,
+        fail(whole.empty() || keys.repeated[0] == '[' ? whole + keys.repeated : join_path(whole, keys.repeated),
              "is given twice in the same object; give each field once (RFC 8259 section 4, RFC 7493 "
              "section 2.3: names within an object must be unique)");
     if (doc.is_discarded()) {
@@ -289,13 +292,13 @@ json parse_json_text(const std::string& text) {
             const json unused = json::parse(text);
             (void)unused;
         } catch (const json::parse_error& e) {
-            fail("", std::string("not a valid JSON document (") +
-                         (e.byte > 0 ? "near character " + std::to_string(e.byte) : "empty input") + ")");
+            fail(whole, "not a valid " + json_name + " (" +
+                            (e.byte > 0 ? "near character " + std::to_string(e.byte) : "empty input") + ")");
         } catch (const json::exception&) {
             // e.g. out_of_range 406 for 1e400: found by tests/fuzz, was an "internal error".
-            fail("", "not a valid JSON document (a number is too large to read)");
+            fail(whole, "not a valid " + json_name + " (a number is too large to read)");
         }
-        fail("", "not a valid JSON document");
+        fail(whole, "not a valid " + json_name);
     }
     return doc;
 }

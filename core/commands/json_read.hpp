@@ -63,10 +63,22 @@ private:
     mutable std::set<std::string> seen_;
 };
 
-/// Parse a trade document's text. Reports text over max_document_bytes, malformed JSON
-/// and nesting past max_document_depth (contract/limits.hpp) as an input_error with an
-/// empty field.
-json parse_json_text(const std::string& text);
+/// What parse_json_text calls the text it reads, and where its fields are: a trade document at the
+/// top ("" path), or a market snapshot, whose fields stand for the trade's market.<field>.
+struct json_text_words {
+    const char* path;       ///< the field the whole text stands for, and its fields' prefix
+    const char* document;   ///< "the trade document is ... bytes", "not a valid trade document"
+    const char* json_name;  ///< "not a valid JSON document (near character 81)"
+    const char* one;        ///< "a trade needs fewer than 10" (levels of nesting)
+};
+inline constexpr json_text_words trade_document_words{"", "trade document", "JSON document", "a trade"};
+inline constexpr json_text_words market_snapshot_words{"market", "market snapshot", "JSON market snapshot",
+                                                       "a snapshot"};
+
+/// Parse a trade document's text (or, with market_snapshot_words, a market snapshot's). Reports text over
+/// max_document_bytes, malformed JSON and nesting past max_document_depth (contract/limits.hpp)
+/// as an input_error naming words.path, and a name given twice by its path under words.path.
+json parse_json_text(const std::string& text, const json_text_words& words = trade_document_words);
 
 /// Range checks that name the field: "must be > 0, got -0.2".
 void require_positive(double value, const std::string& path);

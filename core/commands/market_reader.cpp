@@ -300,25 +300,6 @@ market_data read_market(const json& node, const years_reader& times, const std::
     return m;
 }
 
-json parse_market_snapshot(const std::string& text) {
-    try {
-        return parse_json_text(text);
-    } catch (const input_error& e) {
-        const std::string& field = e.field();
-        if (!field.empty()) fail("market." + field, std::string(e.what()).substr(field.size() + 2));
-        // a problem with the whole text: the snapshot's, in the words the trade's would have
-        std::string problem = e.what();
-        for (const auto& [trade_words, snapshot_words] :
-             {std::pair<std::string, std::string>{"trade document", "market snapshot"},
-              {"JSON document", "JSON market snapshot"},
-              {"a trade needs", "a snapshot needs"}}) {
-            const std::size_t at = problem.find(trade_words);
-            if (at != std::string::npos) problem.replace(at, trade_words.size(), snapshot_words);
-        }
-        fail("market", problem);
-    }
-}
-
 json with_market_snapshot(const json& document, const json& snapshot) {
     if (!snapshot.is_object())
         fail("market",

@@ -50,8 +50,4 @@ market_data read_market(const json& node, const years_reader& times, const std::
 /// in the snapshot are then named market.<field>.
 json with_market_snapshot(const json& document, const json& snapshot);
 
-/// The JSON of a market snapshot file: parse_json_text's checks, with a problem in it named as
-/// the snapshot's (market.<field>, or market for the whole text), never as the trade's.
-json parse_market_snapshot(const std::string& text);
-
 }  // namespace hedgeleaf

@@ -43,7 +43,7 @@ std::string run_command_text(const std::string& command, const std::string& text
                              const std::string& market_text) {
     try {
         json doc = parse_json_text(text);
-        if (!market_text.empty()) doc = with_market_snapshot(doc, parse_market_snapshot(market_text));
+        if (!market_text.empty()) doc = with_market_snapshot(doc, parse_json_text(market_text, market_snapshot_words));
         return envelope_text(json{{"ok", true}, {"result", run_command(command, doc, work_budget)}});
     } catch (const work_exhausted& e) {
         return refusal("budget", e.field(), e.what());
