@@ -245,11 +245,10 @@ profile_result run_profile(const trade& t, const profile_settings& s) {
     if (!(s.spot_low > pv))
         fail("profile.spot_low", "must be above the present value " + format_number(pv) +
                                      " of the dividends before expiry, got " + format_number(s.spot_low));
-    // each spot is priced as a move of today's: one within a billionth of zero is no move to price
-    const double lowest = t.market.spot * time_tolerance_years;
+    const double lowest = t.market.spot * min_profile_spot_fraction;
     if (!(s.spot_low >= lowest))
-        fail("profile.spot_low",
-             "must be at least " + format_number(lowest) + " (market.spot x 1e-9), got " + format_number(s.spot_low));
+        fail("profile.spot_low", "must be at least " + format_number(lowest) + " (market.spot x " +
+                                     format_number(min_profile_spot_fraction) + "), got " + format_number(s.spot_low));
     const double work = scenario_work(static_cast<std::size_t>(s.points) + 1, t.legs.size(), s.steps);
     if (work > max_profile_work)
         fail("profile.steps", "the profile would need about " + format_number(std::round(work / 1e6)) +

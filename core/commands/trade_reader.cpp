@@ -74,8 +74,9 @@ double read_expiry(field_reader& r, const years_reader& times) {
     }
     // (shorter is expiry itself, and the lattice's steps would vanish in double precision)
     if (years < time_tolerance_years)
-        fail(expiry_path, "must be at least " + format_number(time_tolerance_years) +
-                              " years (about 0.03 seconds), got " + format_number(years));
+        fail(expiry_path, "must be at least " + format_number(time_tolerance_years) + " years (about " +
+                              format_number(std::round(time_tolerance_years * 365 * 86400 * 100) / 100) +
+                              " seconds), got " + format_number(years));
     require_at_most(years, max_expiry_years, expiry_path);
     return years;
 }

@@ -208,6 +208,9 @@ inline constexpr int default_profile_points = 41;
 inline constexpr int max_profile_points = 501;
 inline constexpr int max_profile_steps = 2001;
 inline constexpr double max_profile_work = 2e9;  ///< lattice node updates, as for ladders
+/// A profile's lowest spot, as a fraction of today's: each spot is priced as a move of today's,
+/// and one within a billionth of zero is no move a double can price.
+inline constexpr double min_profile_spot_fraction = 1e-9;
 
 // ---- solve ---------------------------------------------------------------
 
