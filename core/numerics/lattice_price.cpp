@@ -58,7 +58,13 @@ std::optional<induction_result> try_induce(const market_data& market, const opti
 }
 
 std::string range_text(const premium_bounds& b) {
-    return "[" + format_number(b.lower) + ", " + format_number(b.upper) + "]";
+    // appended, not "[" + ...: GCC 12 warns falsely (-Wrestrict) on a literal + temporary at -O3
+    std::string text = "[";
+    text += format_number(b.lower);
+    text += ", ";
+    text += format_number(b.upper);
+    text += "]";
+    return text;
 }
 
 // The fine lattice, the levels the error bound and the extrapolation use, and the price.

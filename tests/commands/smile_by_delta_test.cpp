@@ -40,7 +40,7 @@ json nine_months(double atm, double rr25, double bf25) {
     return {{"expiry", "2027-09-03"}, {"atm", atm}, {"rr25", rr25}, {"bf25", bf25}};
 }
 
-std::string refusal(const json& doc) {
+std::string refusal_message(const json& doc) {
     try {
         run_command("price", doc);
     } catch (const input_error& e) {
@@ -78,30 +78,33 @@ TEST_CASE("the treasurer's put on a smile quoted by delta", "[smile_by_delta]") 
 TEST_CASE("each bad quote by delta has its own message naming the field", "[smile_by_delta]") {
     json no_atm = nine_months(0.08, -0.006, 0.0025);
     no_atm.erase("atm");
-    CHECK_THAT(refusal(treasurer(quotes({no_atm}))), Catch::StartsWith("market.volatility.quotes_by_delta[0].atm"));
-    CHECK_THAT(refusal(treasurer(quotes({nine_months(0.08, -0.2, 0.0025)}))),
+    CHECK_THAT(refusal_message(treasurer(quotes({no_atm}))),
+               Catch::StartsWith("market.volatility.quotes_by_delta[0].atm"));
+    CHECK_THAT(refusal_message(treasurer(quotes({nine_months(0.08, -0.2, 0.0025)}))),
                Catch::StartsWith("market.volatility.quotes_by_delta[0].bf25: gives the 25-delta call volatility "
                                  "atm + bf25 + rr25 / 2 = -0.0175; it must be at least 0.001"));
     json later = nine_months(0.08, -0.006, 0.0025), sooner = later;
     sooner["expiry"] = "1m";
     CHECK_THAT(
-        refusal(treasurer(quotes({later, sooner}))),
+        refusal_message(treasurer(quotes({later, sooner}))),
         Catch::StartsWith("market.volatility.quotes_by_delta[1].expiry: ") && Catch::Contains("in increasing expiry"));
     json half = nine_months(0.08, -0.006, 0.0025);
     half["rr10"] = -0.01;
-    CHECK(refusal(treasurer(quotes({half}))) ==
+    CHECK(refusal_message(treasurer(quotes({half}))) ==
           "market.volatility.quotes_by_delta[0].bf10: is missing: rr10 is given, and the 10-delta wings need both "
           "rr10 and bf10");
-    CHECK_THAT(refusal(treasurer(quotes(json::array()))), Catch::StartsWith("market.volatility.quotes_by_delta: "));
+    CHECK_THAT(refusal_message(treasurer(quotes(json::array()))),
+               Catch::StartsWith("market.volatility.quotes_by_delta: "));
     // An equity trade's smile is a strike grid.
     json equity = parse_json_text(R"({"market": {"spot": 100, "rate": 0.03},
                                       "option": {"type": "call", "strike": 100, "expiry_years": 1}})");
     equity["market"]["volatility"] = quotes({json{{"expiry", 1}, {"atm", 0.2}, {"rr25", 0}, {"bf25", 0}}});
-    CHECK_THAT(refusal(equity), Catch::StartsWith("market.volatility.quotes_by_delta: a smile quoted by delta") &&
-                                    Catch::Contains("currency pair"));
+    CHECK_THAT(refusal_message(equity),
+               Catch::StartsWith("market.volatility.quotes_by_delta: a smile quoted by delta") &&
+                   Catch::Contains("currency pair"));
     // A calendar arbitrage between two expiries names the quote that makes it.
     json one_month = nine_months(0.20, 0, 0);
     one_month["expiry"] = "1m";
-    CHECK_THAT(refusal(treasurer(quotes({one_month, nine_months(0.05, 0, 0)}))),
+    CHECK_THAT(refusal_message(treasurer(quotes({one_month, nine_months(0.05, 0, 0)}))),
                Catch::StartsWith("market.volatility.quotes_by_delta[1]") && Catch::Contains("% of the forward"));
 }
