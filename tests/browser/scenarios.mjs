@@ -358,6 +358,69 @@ export function coreScenarios(name) {
       await done(tab);
     });
 
+    test('the smile grid: a pasted spreadsheet block prices each leg at its own cell, as the CLI does; a butterfly is refused beside its cell', async () => {
+      // A collar on 100 for six months (put 90, call 110), valued 2026-12-01, first at one volatility.
+      const collar = {
+        valuation_date: '2026-12-01',
+        market: { spot: 100, volatility: 0.25, rate: 0.03 },
+        structure: { shape: 'collar', strikes: [90, 110], expiry_date: '2027-06-01' },
+        quantity: 1000,
+      };
+      const tab = await open(linkTo(JSON.stringify(collar)));
+      await clickUntil(tab, '#smile-open', () => document.querySelector('.vol-grid') !== null);
+      await settled(tab);
+      // Copied from a spreadsheet in a decimal-comma locale: tabs between cells, "30,5" for 30.5 %.
+      const block = [
+        'expiry\t80\t90\t100\t110\t120',
+        '3m\t30,5\t27,2\t24\t22,1\t21,5',
+        '6m\t29,8\t26,9\t24,2\t22,6\t22',
+        '1y\t29\t26,5\t24,5\t23\t22,6',
+      ].join('\n');
+      // A paste as a spreadsheet's copy arrives. Firefox fills a made-up paste event's clipboardData
+      // from its own init members (dataType, data: Gecko's ClipboardEventInit, from memory) and
+      // ignores the DataTransfer given; Chromium and WebKit take the DataTransfer.
+      await tab.evaluate((text) => {
+        const data = new DataTransfer();
+        data.setData('text/plain', text);
+        const init = { clipboardData: data, dataType: 'text/plain', data: text, bubbles: true, cancelable: true };
+        document
+          .querySelector('[data-path="market.volatility.vols[0][0]"]')
+          .dispatchEvent(new ClipboardEvent('paste', init));
+      }, block);
+      await until(tab, () => document.querySelector('[data-path="market.volatility.vols[0][0]"]').value === '30.5');
+      const premium = await premiumOf(tab);
+      // The legs expire on the 6m row's date at the grid's strikes 90 and 110: each takes that
+      // cell's volatility (a grid point is its own quote; docs/market.md).
+      const legs = await tab.evaluate(() =>
+        [...document.querySelectorAll('#leg-market-table tbody tr')].map((r) => r.cells[3].textContent),
+      );
+      assert.deepEqual(legs, ['26.90 %', '22.60 %']);
+      const withGrid = structuredClone(collar);
+      withGrid.market.volatility = {
+        strike_basis: 'percent_of_spot',
+        expiries: ['3m', '6m', '1y'],
+        strikes: [80, 90, 100, 110, 120],
+        vols: [
+          [0.305, 0.272, 0.24, 0.221, 0.215],
+          [0.298, 0.269, 0.242, 0.226, 0.22],
+          [0.29, 0.265, 0.245, 0.23, 0.226],
+        ],
+      };
+      const expected = await cliPremium(JSON.stringify(withGrid));
+      assert.ok(close(premium, expected), `page ${premium}, CLI ${expected}`);
+      // 10 % at 100 between 26.9 % at 90 and 22.6 % at 110 on the 6m row: butterfly arbitrage,
+      // refused beside the cell, named from 1 as on screen, with the fix in percent.
+      await tab.fill('[data-path="market.volatility.vols[1][2]"]', '10');
+      const beside = await until(tab, () => {
+        const node = document.querySelector('[data-error="market.volatility.vols[1][2]"]');
+        return node?.textContent.includes('butterfly') ? node.textContent : null;
+      });
+      assert.match(beside, /^Volatility, row 2, column 3: /);
+      assert.match(beside, /raise this volatility to at least [\d.]+ %/);
+      assert.equal(await premiumOf(tab), premium, 'the last good premium stays (greyed)');
+      await done(tab);
+    });
+
     test('a fresh engine worker started after opening runs a simulation', async () => {
       const tab = await open();
       await tab.fill('[data-path="simulate.paths"]', '200');
@@ -374,7 +437,7 @@ export function coreScenarios(name) {
     });
 
     test('no console error or warning in the page or its workers, and no request', async () => {
-      assert.ok(tabs.length >= 9);
+      assert.ok(tabs.length >= 10);
       const problems = [];
       for (const tab of tabs) problems.push(...(tab.finalProblems ?? (await tab.problems())));
       assert.deepEqual(problems, []);
