@@ -24,10 +24,14 @@ namespace {
 double strike_for_delta(const market_data& m, option_leg leg, double delta, const std::string& path) {
     const bool call = leg.type == payoff_kind::call;
     const double edge = std::exp(-m.carry_average(0, leg.expiry_years) * leg.expiry_years);  // |delta| < e^(-qT)
-    if (!(std::fabs(delta) < edge))
+    if (!(std::fabs(delta) < edge)) {
+        // the range appended, not "0 and " + ...: GCC 12 warns falsely (-Wrestrict) on a literal + temporary
+        std::string range = call ? "0 and " : "-";
+        range += format_number(edge);
+        if (!call) range += " and 0";
         fail(path, "a delta of " + format_number(delta) + " is out of reach: the spot delta of a " +
-                       std::string(call ? "call" : "put") + " to this expiry lies strictly between " +
-                       (call ? "0 and " + format_number(edge) : "-" + format_number(edge) + " and 0"));
+                       std::string(call ? "call" : "put") + " to this expiry lies strictly between " + range);
+    }
     const double forward = m.forward(leg.expiry_years);
     const double reach = 12 * widest_volatility(m) * std::sqrt(leg.expiry_years) + 1;
     const auto gap = [&](double log_strike) {

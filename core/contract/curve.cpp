@@ -38,6 +38,14 @@ double curve::zero(double t) const {
     return integral(t) / t;
 }
 
+double curve::forward_at(double t) const {
+    if (is_flat()) return flat_;
+    if (t >= years_.back()) return tail_;
+    const std::size_t i = static_cast<std::size_t>(std::upper_bound(years_.begin(), years_.end(), t) - years_.begin());
+    const double t0 = i == 0 ? 0.0 : years_[i - 1], a = i == 0 ? 0.0 : integrals_[i - 1];
+    return (integrals_[i] - a) / (years_[i] - t0);
+}
+
 double curve::average(double from, double to) const {
     if (is_flat()) return flat_;
     if (!(to > from)) return zero(from);

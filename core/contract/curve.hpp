@@ -41,6 +41,9 @@ public:
     double growth(double from, double to) const;
     /// 1 / growth(from, to): the discount factor from `to` back to `from`.
     double discount(double from, double to) const;
+    /// The instantaneous forward rate at `t` (t >= 0): the forward of the stretch that starts
+    /// at or runs through t. Flat: the rate. At 0 it is what the curve earns over the next instant.
+    double forward_at(double t) const;
     /// The lowest and the highest forward rate anywhere on the curve.
     double lowest_forward() const;
     double highest_forward() const;

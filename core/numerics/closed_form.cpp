@@ -73,6 +73,15 @@ valuation closed_form(const market_data& m, const option_leg& leg) {
     // Dividends: S' = spot - PV(D) moves with the rate and with the passage of time.
     g.rho += g.delta * pv_time;
     g.theta -= g.delta * r * pv;
+    // Theta is dV/dt as calendar time passes, spot held and the curves fixed in calendar time.
+    // V = exp(-R) f(S' exp(R - Y), sigma^2 tau) with R and Y the rate's and the carry's integrals
+    // over the option's remaining life, so dV/dt = -r0 dV/dR - q0 dV/dY + ... with r0 and q0 the
+    // forwards at the valuation date, where the lines above used the averages r and q (exact for
+    // flat rates, where they are equal): dV/dR = V - delta S', dV/dY = -delta S', and the
+    // dividends' present value grows at r0. The difference, added here, is zero for flat rates.
+    const double r0 = m.rate.forward_at(0);
+    const double q0 = m.carry_yield.forward_at(0) + m.borrow.forward_at(0);
+    if (r0 != r || q0 != q) g.theta += (r0 - r) * (v.premium - g.delta * m.spot) + (q0 - q) * g.delta * S;
     return v;
 }
 

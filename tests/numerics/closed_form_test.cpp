@@ -116,6 +116,34 @@ TEST_CASE("analytic Greeks match finite differences of the price", "[closed_form
         }
 }
 
+TEST_CASE("theta under curves is the value's change as calendar time passes", "[closed_form]") {
+    // Under deterministic rates a European option is worth the Black-Scholes-Merton value at the
+    // rate and carry averaged over its remaining life (a textbook fact: Hull, Options, Futures,
+    // and Other Derivatives, from memory). Theta, dV/dt with spot held (docs/replication.md),
+    // must then follow the averages as they change with time: the value a day on is the closed
+    // form on the market seen from then (market_data::seen_at), its curves fixed in calendar time.
+    // A forward difference with one Richardson step (common practice) checks it; the curves'
+    // first points lie beyond the few hours the differences step over.
+    for (auto type : {payoff_kind::call, payoff_kind::put, payoff_kind::digital_call, payoff_kind::digital_put})
+        for (bool with_dividend : {false, true}) {
+            auto m = flat_market(100, 0.3, 0.0);
+            m.rate = curve::from_points({0.5, 2.0}, {0.02, 0.05});
+            m.carry_yield = curve::from_points({0.25, 1.5}, {0.01, 0.03});
+            m.borrow = curve::from_points({1.0}, {0.004});
+            if (with_dividend) m.dividends = {{0.4, 1.5}};
+            const auto leg = european(type, 100, 1.0, 3);
+            const double theta = closed_form(m, leg).sensitivities.theta;
+            const double now = closed_form(m, leg).premium;
+            const auto moved = [&](double h) {  // (V(t + h) - V(t)) / h
+                auto l = leg;
+                l.expiry_years -= h;
+                return (closed_form(m.seen_at(h), l).premium - now) / h;
+            };
+            const double h = 1e-3;
+            CHECK(theta == Approx(2 * moved(h / 2) - moved(h)).epsilon(1e-5).margin(1e-7));
+        }
+}
+
 TEST_CASE("a stock leg is worth spot with delta one", "[closed_form]") {
     option_leg stock;
     stock.type = payoff_kind::stock;
