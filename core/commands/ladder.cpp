@@ -19,9 +19,20 @@ std::vector<double> read_axis(field_reader& r, const std::string& stem, const ax
                               double highest, const std::string& why) {
     const std::string from_path = r.child(stem + "_from"), to_path = r.child(stem + "_to"),
                       step_path = r.child(stem + "_step");
-    const double from = r.number_or(stem + "_from", defaults.from);
-    const double to = r.number_or(stem + "_to", defaults.to);
     const double step = r.number_or(stem + "_step", defaults.step);
+    // An end not given stops where the axis must (a volatility of 4 % goes down 3 points, not
+    // the default 5), on the step's grid; an end given outside the limits is refused below.
+    double from_default = defaults.from, to_default = defaults.to;
+    if (step > 0 && std::isfinite(step)) {
+        double lowest_on_grid = tidy_decimal(std::ceil(lowest / step) * step);
+        if (lowest_on_grid < lowest) lowest_on_grid = tidy_decimal(lowest_on_grid + step);
+        double highest_on_grid = tidy_decimal(std::floor(highest / step) * step);
+        if (highest_on_grid > highest) highest_on_grid = tidy_decimal(highest_on_grid - step);
+        from_default = std::min(0.0, std::max(from_default, lowest_on_grid));
+        to_default = std::max(0.0, std::min(to_default, highest_on_grid));
+    }
+    const double from = r.number_or(stem + "_from", from_default);
+    const double to = r.number_or(stem + "_to", to_default);
     if (!(from >= lowest))
         fail(from_path, "must be >= " + format_number(lowest) + why + ", got " + format_number(from));
     if (!(to <= highest)) fail(to_path, "must be <= " + format_number(highest) + why + ", got " + format_number(to));

@@ -129,6 +129,28 @@ TEST_CASE("spot x vol grid: 21 x 11 by default, matrix matches rows", "[ladder]"
     CHECK(grid["pnl"][20][5].get<double>() > 0);
 }
 
+TEST_CASE("a low volatility's default ladder stops where the volatility must", "[ladder]") {
+    // Currency pairs trade at volatilities of a few points (common practice): a 4 % trade's
+    // default axis, -5 .. +5 points, would take it below zero. Not given, the lower end stops at
+    // the lowest whole step that keeps it priceable (0.001); given, it is refused as before.
+    json doc = call_doc();
+    doc["market"]["volatility"] = 0.04;
+    doc["ladder"] = {{"kind", "volatility"}};
+    const json r = run_command("ladder", doc);
+    REQUIRE(r["rows"].size() == 9);
+    CHECK(r["rows"][0]["vol_shift"].get<double>() == -0.03);
+    CHECK(r["rows"][0]["volatility"].get<double>() == Approx(0.01));
+    CHECK(r["rows"][8]["vol_shift"].get<double>() == 0.05);
+    doc["ladder"] = {{"kind", "grid"}, {"vol_step", 0.02}};
+    CHECK(run_command("ladder", doc)["rows"][0]["vol_shift"].get<double>() == -0.02);
+    doc["ladder"] = {{"kind", "volatility"}, {"vol_from", -0.05}};
+    CHECK_THROWS_WITH(run_command("ladder", doc),
+                      "ladder.vol_from: must be >= -0.039 (volatility 0.04 must stay within 0.001 .. 5), got -0.05");
+    doc["market"]["volatility"] = 0.25;  // well above: the default as it always was
+    doc["ladder"] = {{"kind", "volatility"}};
+    CHECK(run_command("ladder", doc)["rows"][0]["vol_shift"].get<double>() == -0.05);
+}
+
 TEST_CASE("the ladder section is read strictly and its limits named", "[ladder]") {
     json doc = call_doc();
     doc["ladder"] = {{"kind", "spots"}};
