@@ -86,7 +86,10 @@ levels build_levels(const market_data& market, const option_leg& leg, lattice_me
     if (half < out.n[0] && (!need_third || quarter < half)) {
         const auto second = try_induce(market, leg, method, half);
         const auto third = need_third ? try_induce(market, leg, method, quarter) : std::nullopt;
-        if (second && (third || !need_third)) {
+        // Exercise and dividend dates each need a step: a smaller lattice may come back with as
+        // many steps as the fine one (100 dates on 101 steps), which says nothing about the error.
+        const bool smaller = second && second->steps < out.n[0] && (!third || third->steps < second->steps);
+        if (smaller && (third || !need_third)) {
             out.n[1] = second->steps;
             out.r[1] = *second;
             if (third) {
@@ -197,7 +200,7 @@ lattice_price price_without_bumps(const market_data& market, const option_leg& l
     }
     if (lv.n[0] < min_steps_for_greeks)
         out.notes.push_back("lattice.steps " + std::to_string(lv.n[0]) +
-                            ": delta, gamma and theta from so few steps are rough" +
+                            ": delta, gamma, theta and the error estimate from so few steps are rough" +
                             (lv.n[0] < 2 ? " (gamma needs two steps and is shown as 0)" : "") +
                             "; use 50 steps or more for sensitivities");
     return out;

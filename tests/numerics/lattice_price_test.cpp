@@ -165,6 +165,25 @@ TEST_CASE("memory stays linear at the largest step count", "[lattice]") {
     CHECK(p.premium > closed_form(m, put).premium);
 }
 
+TEST_CASE("a Bermudan with a date on nearly every step still gets an error estimate that covers it", "[lattice]") {
+    // 99 exercise dates (one every 0.01 years) on a 100-step lattice: the half- and quarter-size
+    // lattices the estimate compares with cannot hold the dates and came back as large as the
+    // fine one, and the estimate was 0/0 (null in the result). The error against the same
+    // lattice at 40 times the steps (common practice) must stay within the estimate.
+    const auto m = flat_market(100, 0.25, 0.04);
+    auto put = single_leg(payoff_kind::put, 105, 1.0);
+    put.exercise = exercise_style::bermudan;
+    for (int i = 1; i <= 99; ++i) put.exercise_years.push_back(i / 100.0);
+    for (auto method : {lattice_method::crr, lattice_method::leisen_reimer}) {
+        const lattice_price p = price_leg(m, put, plain(method, 100), bumped_greeks::off, error_bound::on);
+        const double reference = price_leg(m, put, plain(lattice_method::leisen_reimer, 4001)).premium;
+        INFO(to_string(method));
+        REQUIRE(std::isfinite(p.error_estimate));
+        CHECK(p.error_estimate > 0);
+        CHECK(std::fabs(p.premium - reference) <= p.error_estimate);
+    }
+}
+
 TEST_CASE("Greeks from one or two steps come with a warning naming lattice.steps", "[lattice]") {
     // Decision: priced, not refused (a one-step tree is a teaching case), but said to be rough.
     const auto m = flat_market(100, 0.2, 0.03);
