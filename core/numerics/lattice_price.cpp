@@ -120,7 +120,9 @@ void take_greeks(const induction_result& r, lattice_price& out) {
 std::string why_not_extrapolated(lattice_method method, const market_data& market, const option_leg& leg) {
     if (!on_equal_steps(market, leg))
         return "not extrapolated: the steps differ in length so that exercise and dividend dates fall on steps, "
-               "and the error of such a lattice oscillates with the step count";
+               "and the error of such a lattice oscillates with the step count; on such steps every lattice.method "
+               "builds the same lattice (one node spacing, each step's probability from its length), so " +
+               to_string(method) + " names the settings, not the lattice";
     return "not extrapolated: the error of a " + to_string(method) +
            " lattice oscillates with the step count and Richardson extrapolation makes it larger (it helps "
            "leisen-reimer lattices)";
@@ -152,7 +154,9 @@ lattice_price price_without_bumps(const market_data& market, const option_leg& l
     out.segments = f.segments;
     out.premium = f.value;
     take_greeks(f, out);
-    if (settings.extrapolate && !helps) out.notes.push_back(why_not_extrapolated(method, market, leg));
+    // (said also when extrapolation was not asked for: the method given is not the lattice's)
+    if ((settings.extrapolate && !helps) || !on_equal_steps(market, leg))
+        out.notes.push_back(why_not_extrapolated(method, market, leg));
     const premium_bounds range = no_arbitrage_bounds(market, leg);
     if (extrapolate && !lv.below) {
         out.notes.push_back("not extrapolated: lattice.steps " + std::to_string(lv.n[0]) +
