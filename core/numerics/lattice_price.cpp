@@ -302,6 +302,12 @@ lattice_price price_leg(const market_data& market, const option_leg& leg, const 
     lattice_price out = price_without_bumps(market, leg, settings, bound);
     if (bumps == bumped_greeks::off || leg.type == payoff_kind::stock) return out;
     add_bumped_greeks(market, leg, settings, out);
+    // A digital's payout jumps at the strike: on a lattice that does not centre it, a bump of the
+    // volatility or the rate moves nodes across the strike and the difference is mostly that jump.
+    if (!is_vanilla(leg.type) && settings.method != lattice_method::leisen_reimer)
+        out.notes.push_back("vega and rho of a digital on a " + to_string(settings.method) +
+                            " lattice turn on where the strike falls between nodes and may even have the wrong "
+                            "sign; leisen-reimer (the default) centres the strike and gives them smoothly");
     return out;
 }
 
