@@ -184,6 +184,26 @@ TEST_CASE("a Bermudan with a date on nearly every step still gets an error estim
     }
 }
 
+TEST_CASE("a digital's bumped Greeks off the default lattice come with a warning", "[lattice]") {
+    // Digital call 120 on 100, one year, 30 %, 3 %: on a 1,601-step Cox-Ross-Rubinstein lattice the
+    // vega bump moves nodes across the strike and the difference has the wrong sign (the closed
+    // form's vega is +0.372; the case an outside audit found). The price says so; Leisen-Reimer,
+    // which centres the strike, gives the closed form's sign and no such note.
+    const auto m = flat_market(100, 0.3, 0.03);
+    const auto leg = single_leg(payoff_kind::digital_call, 120, 1.0);
+    const double vega = closed_form(m, leg).sensitivities.vega;
+    const auto warned = [](const lattice_price& p) {
+        for (const auto& note : p.notes)
+            if (note.find("wrong sign") != std::string::npos) return true;
+        return false;
+    };
+    const lattice_price crr = price_leg(m, leg, plain(lattice_method::crr, 1601), bumped_greeks::on);
+    CHECK(warned(crr));
+    const lattice_price lr = price_leg(m, leg, plain(lattice_method::leisen_reimer, 1601), bumped_greeks::on);
+    CHECK_FALSE(warned(lr));
+    CHECK(lr.sensitivities.vega == Approx(vega).epsilon(0.01));
+}
+
 TEST_CASE("Greeks from one or two steps come with a warning naming lattice.steps", "[lattice]") {
     // Decision: priced, not refused (a one-step tree is a teaching case), but said to be rough.
     const auto m = flat_market(100, 0.2, 0.03);
