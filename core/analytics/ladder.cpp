@@ -126,6 +126,7 @@ scenario_value value_scenario(const trade& t, const scenario& s, int steps, smil
         out.value += leg.quantity * p.premium;
         out.delta += leg.quantity * p.sensitivities.delta;
         out.gamma += leg.quantity * p.sensitivities.gamma;
+        if (leg.type != payoff_kind::stock) out.extrapolated = out.extrapolated && p.extrapolated;
     }
     return out;
 }

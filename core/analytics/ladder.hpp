@@ -36,6 +36,7 @@ struct scenario_value {
     double value = 0;
     double delta = 0;
     double gamma = 0;
+    bool extrapolated = true;  ///< every option leg's price was extrapolated (where it helps only)
 };
 
 /// Value the trade (per unit, legs' signed quantities applied) in scenario `s`

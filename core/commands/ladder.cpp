@@ -181,7 +181,7 @@ json write_ladder_result(const trade& t, const ladder_settings& s, const ladder_
              {"lattice",
               {{"method", to_string(t.lattice.method)},
                {"steps", effective_steps(t.lattice.method, s.steps)},
-               {"extrapolated", true}}},
+               {"extrapolated", today.extrapolated}}},
              {"rows", rows}};
     out["columns"] = ladder_columns(t, s.kind);
     if (s.kind == ladder_kind::grid)
