@@ -97,6 +97,46 @@ test('a trade opened from a link stays in the address, and on reload, until it i
   await context.close();
 });
 
+test('a half-typed trade sent by link or saved to a file reopens as typed, the engine’s message beside the field', async () => {
+  // Nothing typed is lost in any link or saved copy: a trade with one input still to mend (a
+  // quantity of -3, a spot typed as text) opens with that input as typed and its message beside
+  // it, not as another trade. A document that is no trade, or a choice no list holds, is still refused.
+  const context = await freshContext();
+  const problems = [];
+  const draft = JSON.parse(withStrike(44));
+  draft.quantity = -3;
+  const page = await openPage(context, linkToPage(JSON.stringify(draft)), problems);
+  assert.equal(await page.inputValue('[data-path="quantity"]'), '-3');
+  assert.equal(await strikeOf(page), '44');
+  await until(page, () => document.querySelector('[data-error="quantity"].shown')?.textContent);
+  assert.equal(await page.textContent('[data-error="quantity"].shown'), 'Quantity must be above 0, got −3');
+  assert.match(await page.textContent('#notice'), /Opened the trade from the link; it still has an input to mend/);
+
+  const typed = JSON.parse(withStrike(46));
+  typed.market.spot = 'abc';
+  await page.setInputFiles('#import-file', {
+    name: 'half-typed.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from(JSON.stringify(typed)),
+  });
+  await until(page, () => document.querySelector('[data-path="market.spot"]').value === 'abc');
+  assert.equal(await strikeOf(page), '46');
+  await until(page, () => document.querySelector('[data-error="market.spot"].shown')?.textContent);
+  assert.match(await page.textContent('#notice'), /Opened “half-typed\.json”; it still has an input to mend/);
+
+  const foreign = JSON.parse(withStrike(47));
+  foreign.option.type = 'straddle'; // a choice the form's list does not hold: refused as before
+  await page.setInputFiles('#import-file', {
+    name: 'foreign.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from(JSON.stringify(foreign)),
+  });
+  await page.locator('#notice').filter({ hasText: 'was not opened' }).waitFor();
+  assert.equal(await strikeOf(page), '46', 'the current trade is unchanged');
+  assert.deepEqual(problems, []);
+  await context.close();
+});
+
 test('a damaged #trade= typed into the address of the open page changes nothing and saves nothing', async () => {
   const context = await freshContext();
   const problems = [];

@@ -269,7 +269,9 @@ test('a corrupt import leaves the current trade as it was', async () => {
     ['binary.json', Buffer.from([0xff, 0xfe, 0x00, 0x7b, 0x22]), 'not a JSON trade file'],
     ['list.json', '[1, 2, 3]', 'does not hold a trade'],
     ['nan.json', exampleText.replace('"spot": 48.20', '"spot": NaN'), 'not a JSON trade file'],
-    ['wrong.json', exampleText.replace('"spot": 48.20', '"spot": "48.20"'), 'market.spot: must be a number'],
+    // (a trade with a number typed as text opens, as the page saves a half-typed one; a choice no
+    // list holds does not)
+    ['wrong.json', exampleText.replace('"type": "put"', '"type": 3'), 'option.type: must be one of'],
     ['huge.json', `{"notes": "${'x'.repeat((1 << 20) + 10)}"}`, 'larger than 1 MB'],
     // nesting this deep once stopped the engine (a stack overflow when the document was copied)
     ['deep.json', `{"market": ${'{"a": '.repeat(5000)}1${'}'.repeat(5000)}}`, 'nested more than 64 levels deep'],
@@ -345,11 +347,11 @@ test('bad inputs from the shared table: the message inline, the last good result
     await page.fill(`[data-path="${path}"]`, good);
     await until(page, (p) => !document.querySelector(`[data-error="${p}"]`)?.textContent, c.field);
   }
-  // Whole documents from the table, imported: refused with the engine's message, nothing changes.
+  // Whole documents from the table, imported: a misspelt or unknown field is refused with the
+  // engine's message and nothing changes; a trade with one input to mend opens as it is, the
+  // message beside that input (nothing typed is lost in a saved file).
   const premium = await premiumOf(page);
-  for (const c of badInputs.cases.filter((x) =>
-    ['volatilty', 'expiry before valuation', 'strikes out of order'].includes(x.name),
-  )) {
+  for (const c of badInputs.cases.filter((x) => ['volatilty', 'quantty'].includes(x.name))) {
     await page.setInputFiles('#import-file', {
       name: 'case.json',
       mimeType: 'application/json',
@@ -358,6 +360,15 @@ test('bad inputs from the shared table: the message inline, the last good result
     await page.locator('#notice').filter({ hasText: c.message }).waitFor();
     assert.ok((await page.textContent('#notice')).includes(`${c.field}: `));
     assert.equal(await premiumOf(page), premium);
+  }
+  for (const c of badInputs.cases.filter((x) => ['expiry before valuation', 'strikes out of order'].includes(x.name))) {
+    await page.setInputFiles('#import-file', {
+      name: 'draft.json',
+      mimeType: 'application/json',
+      buffer: Buffer.from(caseText(c)),
+    });
+    await page.locator('#notice').filter({ hasText: 'it still has an input to mend' }).waitFor();
+    await until(page, (f) => document.querySelector(`[data-error="${f}"]`)?.textContent, c.field);
   }
   await page.close();
 });

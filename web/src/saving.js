@@ -10,6 +10,7 @@ import { addYears, todayIso } from './dates.js';
 import { byId } from './dom.js';
 import { EngineError } from './engine.js';
 import { contractKey } from './form.js';
+import { getPath } from './paths.js';
 import { clearNotice, notice } from './messages.js';
 import { download, parseTradeText, slug, toBase64Url, tradeFileText, tradeFromHash } from './share.js';
 import { rememberedMarket } from './snapshot.js';
@@ -18,8 +19,30 @@ const isTrade = (doc) => doc !== null && typeof doc === 'object' && !Array.isArr
 const pageAddress = () => location.href.split('#')[0];
 
 /**
+ * A trade the engine refuses that still opens, as this page saves a half-typed one (Save file,
+ * Copy link): it has a market and a contract, and the refusal is of one input the form shows as
+ * typed or empty (a number, a date, a cell: not a list or a section, not a choice from a list, not
+ * a field the page does not have or a misspelt one), so the recompute puts the engine's message
+ * beside it and nothing typed is lost. (The trade it replaces stays in recent work, with Undo.)
+ */
+function openableDraft(doc, err) {
+  if (!(err instanceof EngineError) || (err.kind && err.kind !== 'input') || !err.field) return false;
+  if (!isTrade(doc.market) || (doc.option === undefined && doc.structure === undefined && doc.legs === undefined))
+    return false;
+  let value;
+  try {
+    value = getPath(doc, err.field);
+  } catch {
+    return false;
+  }
+  if (value !== null && typeof value === 'object') return false;
+  return !/must be one of|unknown field|misspell/.test(err.message);
+}
+
+/**
  * Check trade text from outside the page (a file's or a link's, `what` says which) as an opened
- * file is checked: JSON, an object, and a trade the engine prices. Returns {doc} or {why}.
+ * file is checked: JSON, an object, and a trade the engine prices, or a draft with one input
+ * still to mend (openableDraft). Returns {doc, draft?} or {why}.
  */
 export async function checkTradeText(text, live, what) {
   let doc;
@@ -40,6 +63,7 @@ export async function checkTradeText(text, live, what) {
   try {
     await live.call('price', text); // the text itself: the engine's checks (nesting, size) come first
   } catch (err) {
+    if (openableDraft(doc, err)) return { doc, draft: true };
     return { why: err instanceof EngineError ? err.message : `the engine failed (${err.message})` };
   }
   return { doc };
@@ -78,7 +102,7 @@ export async function openingTrade(state, work, live) {
       state.link = JSON.stringify(checked.doc);
       if (own && JSON.stringify(own.trade) === state.link) return { ...ownTrade(own), message: linkMessage };
       work.begin();
-      return { doc: checked.doc, message: linkMessage, keep: true };
+      return { doc: checked.doc, message: checked.draft ? draftLinkMessage : linkMessage, keep: true };
     }
     history.replaceState(null, '', pageAddress());
     message = {
@@ -92,6 +116,8 @@ export async function openingTrade(state, work, live) {
 }
 
 const linkMessage = { text: 'Opened the trade from the link.', kind: 'info', topic: 'link' };
+const draftNote = 'it still has an input to mend, shown beside its field';
+const draftLinkMessage = { text: `Opened the trade from the link; ${draftNote}.`, kind: 'warning', topic: 'link' };
 const ownTrade = (own) => ({ doc: own.trade, figures: own.figures });
 
 /**
@@ -179,7 +205,7 @@ export function fileActions({ state, work, live, refill, changed }) {
     }
     const checked = await checkTradeText(text, live, 'file');
     if (checked.why) return refuse(checked.why);
-    adopt(checked.doc, `Opened “${file.name}”.`);
+    adopt(checked.doc, checked.draft ? `Opened “${file.name}”; ${draftNote}.` : `Opened “${file.name}”.`);
   }
 
   async function copyLink() {
@@ -233,7 +259,12 @@ export function fileActions({ state, work, live, refill, changed }) {
     const link = linkInAddress();
     if (!link || (!link.why && link.text === state.link)) return;
     const checked = link.why ? link : await checkTradeText(link.text, live, 'link');
-    if (checked.doc) return adopt(checked.doc, 'Opened the trade from the link.', 'link');
+    if (checked.doc)
+      return adopt(
+        checked.doc,
+        checked.draft ? `Opened the trade from the link; ${draftNote}.` : 'Opened the trade from the link.',
+        'link',
+      );
     history.replaceState(null, '', state.link ? `${pageAddress()}#trade=${toBase64Url(state.link)}` : pageAddress());
     notice(`The trade in the link could not be read (${checked.why}). The current trade is unchanged.`, 'warning');
   }
