@@ -422,8 +422,17 @@ test('market snapshot: pasted once, priced in, its as_of on the result and the s
   const stale = await page.textContent('#market-stale');
   assert.match(stale, /older than your limit of 24 h/, 'more than a day old (the test runs after 2026-12-01)');
   assert.equal(await page.getAttribute('#market-stale', 'aria-live'), 'polite');
+  // a limit that is no number of hours is said beside the field; the last good one applies
+  await page.fill('#market-age-limit', 'abc');
+  assert.equal(
+    await page.textContent('#market-age-limit-error.shown'),
+    'The age limit must be a number of hours above 0, got “abc”; the last one, 24 h, applies.',
+  );
+  assert.equal(await page.getAttribute('#market-age-limit', 'aria-invalid'), 'true');
+  assert.match(await page.textContent('#market-stale'), /older than your limit of 24 h/);
   await page.fill('#market-age-limit', '100000');
   assert.equal(await page.textContent('#market-stale'), '');
+  assert.equal(await page.isVisible('#market-age-limit-error'), false);
   await page.reload();
   await settled(page);
   assert.equal(await page.inputValue('#market-age-limit'), '100,000', 'the limit is remembered');

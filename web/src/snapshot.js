@@ -60,7 +60,14 @@ function ageText(hours) {
  */
 export function snapshotTools({ state, live, refill, changed }) {
   const store = browserStore('localStorage');
-  const limitInput = make('input', { id: 'market-age-limit', inputMode: 'decimal', autocomplete: 'off' });
+  const limitInput = make('input', {
+    id: 'market-age-limit',
+    inputMode: 'decimal',
+    autocomplete: 'off',
+    'aria-describedby': 'market-age-limit-error',
+  });
+  // a page setting, not a trade field: its own message line (the trade's messages are messages.js's)
+  const limitError = make('span', { id: 'market-age-limit-error', className: 'field-error', role: 'alert' });
   const pasteBox = make('textarea', { id: 'snapshot-text', rows: 4, spellcheck: false });
   const fileInput = make('input', {
     type: 'file',
@@ -166,7 +173,8 @@ export function snapshotTools({ state, live, refill, changed }) {
   }
 
   function build() {
-    const limitField = field('Warn when the market is older than (hours)', limitInput);
+    // (the message beside the label, not in it: the label's text is the input's name)
+    const limitField = make('div', {}, [field('Warn when the market is older than (hours)', limitInput), limitError]);
     const pasteField = field('Or paste a market snapshot (JSON)', pasteBox, 'field wide');
     byId('snapshot-tools').replaceChildren(
       make('p', {
@@ -191,7 +199,15 @@ export function snapshotTools({ state, live, refill, changed }) {
     limitInput.value = formatNumber(limitHours(), limitHours() % 1 ? 1 : 0);
     limitInput.addEventListener('input', () => {
       const value = parseNumber(limitInput.value);
-      if (!(typeof value === 'number' && value > 0)) return; // what is typed stays; the last good limit applies
+      const good = typeof value === 'number' && value > 0;
+      // what is typed stays; the last good limit applies until it is mended, and the line says so
+      limitError.textContent = good
+        ? ''
+        : `The age limit must be a number of hours above 0, got “${limitInput.value.trim().slice(0, 40)}”; ` +
+          `the last one, ${formatNumber(limitHours(), limitHours() % 1 ? 1 : 0)} h, applies.`;
+      limitError.classList.toggle('shown', !good);
+      limitInput.setAttribute('aria-invalid', String(!good));
+      if (!good) return;
       try {
         store?.setItem(limitKey, String(value));
       } catch {
