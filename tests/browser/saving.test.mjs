@@ -112,6 +112,19 @@ test('a half-typed trade sent by link or saved to a file reopens as typed, the e
   assert.equal(await page.textContent('[data-error="quantity"].shown'), 'Quantity must be above 0, got −3');
   assert.match(await page.textContent('#notice'), /Opened the trade from the link; it still has an input to mend/);
 
+  // Text in two number fields, opened from a link: the page's own words beside each (the first
+  // price is asked for before the form holds them, and the engine names only its first refusal).
+  const texts = JSON.parse(withStrike(45));
+  texts.market.spot = 'abc';
+  texts.market.dividends[0].amount = 'x1';
+  const second = await openPage(context, linkToPage(JSON.stringify(texts)), problems);
+  await until(second, () => document.querySelectorAll('.field-error.shown').length === 2);
+  assert.deepEqual(
+    await second.evaluate(() => [...document.querySelectorAll('.field-error.shown')].map((n) => n.textContent)),
+    ['Spot is not a number (“abc”)', 'Dividend 1 cash per share is not a number (“x1”)'],
+  );
+  await second.close();
+
   const typed = JSON.parse(withStrike(46));
   typed.market.spot = 'abc';
   await page.setInputFiles('#import-file', {

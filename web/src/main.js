@@ -17,7 +17,7 @@ import { formatDate, formatNumber, formatStamp } from './format.js';
 import { hedgePanel } from './hedge.js';
 import { localePicker } from './locale.js';
 import { marketEditor } from './market-editor.js';
-import { clearErrors, notice, setStale, showError, syncErrorPaths } from './messages.js';
+import { clearErrors, notice, pageProblems, setStale, showError, syncErrorPaths } from './messages.js';
 import { fillProfileRange } from './profile.js';
 import { recomputeCycle } from './recompute.js';
 import { describeWork, recentMenu } from './recent.js';
@@ -175,6 +175,10 @@ async function start() {
   snapshot.showAge();
   fillProfileRange(state.doc);
   bindControls();
+  // A trade opened with text in a number field (a half-typed one, from a link, a file or this
+  // tab): the first price was asked for before the form held it, so the engine's first refusal
+  // is all it could say; once the form is drawn, the page's own words beside every such field.
+  if (pageProblems(scope).length) changed(0);
   // The browser's number and date formats take some 10-30 ms each to make the first time:
   // make those the first figures use (premium, expiry, the sheet's time stamp) while the
   // engine prices, in a task after this one so that the form is drawn first.
