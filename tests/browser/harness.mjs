@@ -205,3 +205,17 @@ export async function printMedia(tab, on, emulate = null) {
     }
   }, on);
 }
+
+/**
+ * In the page: paste `text` into the element at `selector` as a spreadsheet's copy arrives (a
+ * paste event with text/plain). Pass it to evaluate with [selector, text]. Firefox fills a made-up
+ * paste event's clipboardData from its own init members (dataType, data: Gecko's
+ * ClipboardEventInit, from memory) and ignores the DataTransfer given; Chromium and WebKit take
+ * the DataTransfer.
+ */
+export function pasteInPage([selector, text]) {
+  const data = new DataTransfer();
+  data.setData('text/plain', text);
+  const init = { clipboardData: data, dataType: 'text/plain', data: text, bubbles: true, cancelable: true };
+  document.querySelector(selector).dispatchEvent(new ClipboardEvent('paste', init));
+}

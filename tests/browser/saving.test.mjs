@@ -16,6 +16,7 @@ import {
   linkToPage,
   offlineContext,
   openPage,
+  pasteInPage,
   savedTrade,
   settled,
   until,
@@ -278,16 +279,7 @@ const pastedGrid = [
 
 /** Paste `text` into the input at `selector` as a spreadsheet's copy arrives (a paste event with text/plain). */
 function paste(page, selector, text) {
-  return page.evaluate(
-    ([where, block]) => {
-      const data = new DataTransfer();
-      data.setData('text/plain', block);
-      document
-        .querySelector(where)
-        .dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
-    },
-    [selector, text],
-  );
+  return page.evaluate(pasteInPage, [selector, text]);
 }
 
 const legMarket = (page) =>

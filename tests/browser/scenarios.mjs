@@ -22,7 +22,7 @@ import { after, before, describe, test } from 'node:test';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { inflateSync } from 'node:zlib';
 
-import { openBrowser, until } from './harness.mjs';
+import { openBrowser, pasteInPage, until } from './harness.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 const axeSource = readFileSync(join(root, 'web/node_modules/axe-core/axe.min.js'), 'utf8');
@@ -376,17 +376,7 @@ export function coreScenarios(name) {
         '6m\t29,8\t26,9\t24,2\t22,6\t22',
         '1y\t29\t26,5\t24,5\t23\t22,6',
       ].join('\n');
-      // A paste as a spreadsheet's copy arrives. Firefox fills a made-up paste event's clipboardData
-      // from its own init members (dataType, data: Gecko's ClipboardEventInit, from memory) and
-      // ignores the DataTransfer given; Chromium and WebKit take the DataTransfer.
-      await tab.evaluate((text) => {
-        const data = new DataTransfer();
-        data.setData('text/plain', text);
-        const init = { clipboardData: data, dataType: 'text/plain', data: text, bubbles: true, cancelable: true };
-        document
-          .querySelector('[data-path="market.volatility.vols[0][0]"]')
-          .dispatchEvent(new ClipboardEvent('paste', init));
-      }, block);
+      await tab.evaluate(pasteInPage, ['[data-path="market.volatility.vols[0][0]"]', block]);
       await until(tab, () => document.querySelector('[data-path="market.volatility.vols[0][0]"]').value === '30.5');
       const premium = await premiumOf(tab);
       // The legs expire on the 6m row's date at the grid's strikes 90 and 110: each takes that
