@@ -40,6 +40,10 @@ double market_data::carry_average(double from_years, double to_years) const {
     return carry_yield.average(from_years, to_years) + borrow.average(from_years, to_years);
 }
 
+double market_data::carry_forward_at(double years) const {
+    return carry_yield.forward_at(years) + borrow.forward_at(years);
+}
+
 double market_data::forward_growth(double from_years, double to_years) const {
     if (flat_rates())
         return std::exp((rate.first_rate() - carry_yield.first_rate() - borrow.first_rate()) * (to_years - from_years));

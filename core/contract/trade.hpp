@@ -57,6 +57,8 @@ struct market_data {
     /// Average of carry_yield + borrow over (from, to]: what holding the share earns
     /// instead of the rate (the q of the generalised Black-Scholes-Merton formula).
     double carry_average(double from_years, double to_years) const;
+    /// carry_yield + borrow as a forward rate at `years` (curve::forward_at of each).
+    double carry_forward_at(double years) const;
     /// What the share's forward (net of cash dividends) grows by over (from, to]:
     /// exp of the integral of rate - carry_yield - borrow.
     double forward_growth(double from_years, double to_years) const;

@@ -80,7 +80,7 @@ valuation closed_form(const market_data& m, const option_leg& leg) {
     // flat rates, where they are equal): dV/dR = V - delta S', dV/dY = -delta S', and the
     // dividends' present value grows at r0. The difference, added here, is zero for flat rates.
     const double r0 = m.rate.forward_at(0);
-    const double q0 = m.carry_yield.forward_at(0) + m.borrow.forward_at(0);
+    const double q0 = m.carry_forward_at(0);
     if (r0 != r || q0 != q) g.theta += (r0 - r) * (v.premium - g.delta * m.spot) + (q0 - q) * g.delta * S;
     return v;
 }
