@@ -47,6 +47,31 @@ test('changing the scenario move after a custom range leaves settings the engine
   await page.close();
 });
 
+test('a quiet market’s volatility ladder names the ends the engine used in its empty fields', async () => {
+  // The default volatility axis is ±5 points, stopped on its step's grid where the volatility's
+  // lower limit comes first (common practice: a volatility cannot go below the engine's floor):
+  // at 4 % the axis starts 3 points down, and the empty "from" field says so.
+  const quiet = exampleTrade();
+  quiet.market.volatility = 0.04;
+  quiet.ladder = { kind: 'volatility' };
+  const page = await openPage(context, linkToPage(JSON.stringify(quiet)), problems);
+  await page.click('#ladder-card summary');
+  await until(page, () => document.querySelector('table[data-result="ladder"] tbody tr'));
+  const placeholders = () =>
+    page.evaluate(() =>
+      ['ladder.vol_from', 'ladder.vol_to'].map((p) => document.querySelector(`[data-path="${p}"]`).placeholder),
+    );
+  assert.deepEqual(await placeholders(), ['−3', '5']);
+  const first = await page.evaluate(
+    () => document.querySelector('table[data-result="ladder"] tbody tr > :first-child').textContent,
+  );
+  assert.match(first, /^1(\.0)? ?%$/, 'the first row is the 1 % the placeholder names');
+  await fill(page, '[data-path="market.volatility"]', '30');
+  await until(page, () => document.querySelector('[data-path="ladder.vol_from"]').placeholder === '−5');
+  assert.deepEqual(await placeholders(), ['−5', '5']);
+  await page.close();
+});
+
 test('a greyed solve result cannot be applied to the trade', async () => {
   const page = await openPage(context, linkToPage(), problems);
   await page.click('#solve-card summary');

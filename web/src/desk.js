@@ -19,7 +19,7 @@ import {
   setText,
 } from './dom.js';
 import { EngineError } from './engine.js';
-import { formatNumber, formatPercent, inputText } from './format.js';
+import { formatNumber, formatPercent, inputText, percentText } from './format.js';
 import { contractKey } from './form.js';
 import { setPath } from './paths.js';
 import { methodName, priceDigits, priceText } from './render.js';
@@ -142,9 +142,29 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
     else if (rangesOf[kind]) parts.push(fieldRow(boundFields(rangesOf[kind])));
     parts.push(errorLine('ladder'));
     showControls(controls, parts, state.doc, bindControls);
+    showVolEnds();
+  }
+
+  // The volatility axis's ends last used ([from, to], in decimals): the engine's default axis
+  // stops at the volatility's limits (a 4 % volatility goes down 3 points, not 5), so the empty
+  // fields' placeholders show the ends it used rather than the usual ±5.
+  let volEnds = null;
+  function showVolEnds() {
+    if (!volEnds) return;
+    const paths = ['ladder.vol_from', 'ladder.vol_to'];
+    paths.forEach((path, i) => {
+      const input = controls.querySelector(`[data-path="${path}"]`);
+      if (input) input.placeholder = percentText(volEnds[i]).replace(/^-/, '−');
+    });
   }
 
   function draw(r, price) {
+    const shifts =
+      r.kind === 'grid' ? r.grid.vol_shifts : r.kind === 'volatility' ? r.rows.map((row) => row.vol_shift) : [];
+    if (shifts.length) {
+      volEnds = [shifts[0], shifts.at(-1)];
+      showVolEnds();
+    }
     const ccy = typeof state.doc.quote?.currency === 'string' ? ` ${state.doc.quote.currency}` : '';
     const client = clientView(r, price);
     const per = (row) => [
