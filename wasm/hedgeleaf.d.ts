@@ -161,7 +161,7 @@ export type Underlying =
   | { kind: "currency_pair";
       base: string; quote: string;       // ISO 4217 codes (three capital letters); base = foreign, quote = domestic
       pip_size?: number;                 // > 0, <= 1; default 0.01 for a JPY quote, else 0.0001
-      spot_lag_days?: number;            // 0..5 business days (weekends only), default 2
+      spot_lag_days?: number;            // 0..5 business days (weekends only), default 2, 1 for USD/CAD
     };
 
 /** A currency pair's market: the two currencies' rates instead of rate, carry_yield, borrow, dividends. */

@@ -172,7 +172,8 @@ std::optional<currency_terms> read_underlying_kind(const json& document, const s
     terms.pair.pip_size = r.number_or("pip_size", default_pip_size(terms.pair.quote));
     require_positive(terms.pair.pip_size, r.child("pip_size"));
     require_at_most(terms.pair.pip_size, max_pip_size, r.child("pip_size"));
-    terms.spot_lag_days = static_cast<int>(r.integer_or("spot_lag_days", default_spot_lag_days, 0, max_spot_lag_days));
+    terms.spot_lag_days = static_cast<int>(
+        r.integer_or("spot_lag_days", default_spot_lag(terms.pair.base, terms.pair.quote), 0, max_spot_lag_days));
     r.finish();
     if (!valuation_date)
         fail("valuation_date",
@@ -292,6 +293,13 @@ void settle_currency_trade(const json& document, std::optional<date> premium_dat
         fail("notional.currency",
              "must be " + terms.pair.base + " or " + terms.pair.quote + ", got " + terms.notional_currency);
     }
+    // These two are per unit of the quote-currency notional, which converts at the strike.
+    const bool needs_strike =
+        terms.premium == premium_convention::percent_of_domestic || terms.premium == premium_convention::foreign_pips;
+    if (needs_strike && common_strike(t) == 0)
+        fail("conventions.premium", to_string(terms.premium) + " is per unit of the " + terms.pair.quote +
+                                        " notional, which converts at the strike, and these legs have several; "
+                                        "use domestic_per_foreign, domestic_pips or percent_of_foreign");
 }
 
 json write_currency_section(const trade& t, const trade_result& r) {

@@ -181,6 +181,12 @@ std::optional<quote_terms> read_quote_terms(const json& document, const trade& t
     field_reader r(*section, "quote");
     quote_terms q;
     q.currency = read_currency(r);
+    // A pair's client price is in its quote currency (per unit of the base, and in total).
+    if (t.currency && !q.currency.empty() && q.currency != t.currency->pair.quote)
+        fail(r.child("currency"),
+             "the client price of a " + t.currency->pair.name() + " trade is in " + t.currency->pair.quote + " (per " +
+                 t.currency->pair.base + " and in total), got " + q.currency + "; give " + t.currency->pair.quote +
+                 " or leave it out (the premium in " + t.currency->pair.base + " is conventions.premium_currency's)");
     q.margin_type = enum_of<margin_kind>(margin_types, r.choice_or("margin_type", margin_types, "absolute"));
     const std::string margin_path = r.child("margin");
     q.margin = r.number_or("margin", 0.0);

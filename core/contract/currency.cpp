@@ -16,6 +16,11 @@ bool is_currency_code(const std::string& code) {
 
 double default_pip_size(const std::string& quote_currency) { return quote_currency == "JPY" ? 0.01 : 0.0001; }
 
+int default_spot_lag(const std::string& base, const std::string& quote) {
+    const bool usd_cad = (base == "USD" && quote == "CAD") || (base == "CAD" && quote == "USD");
+    return usd_cad ? 1 : default_spot_lag_days;
+}
+
 date add_business_days(const date& d, int count) {
     date out = d;
     for (int moved = 0; moved < count;) {

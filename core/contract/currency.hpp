@@ -31,6 +31,9 @@ struct currency_pair {
 bool is_currency_code(const std::string& code);
 /// The pip by common practice: 0.01 when the quote currency is JPY, else 0.0001.
 double default_pip_size(const std::string& quote_currency);
+/// Business days from trade to spot by common practice: 1 for USD/CAD (either way round), else
+/// default_spot_lag_days (2).
+int default_spot_lag(const std::string& base, const std::string& quote);
 
 /// `d` moved by `count` business days (Monday to Friday), forward for count > 0; count 0 is `d`.
 date add_business_days(const date& d, int count);

@@ -56,6 +56,30 @@ TEST_CASE("the treasurer's put: dates, forward, premium and delta in every conve
     CHECK_FALSE(r["replication"].contains("shares"));
 }
 
+TEST_CASE("USD/CAD settles one business day after the trade unless told otherwise", "[currency]") {
+    // Common practice (from memory): USD/CAD spot is T+1, most other pairs T+2 (docs/currency.md).
+    for (const auto& [base, quote] : {std::pair{"USD", "CAD"}, std::pair{"CAD", "USD"}}) {
+        json doc = treasurer();
+        doc["underlying"]["base"] = base;
+        doc["underlying"]["quote"] = quote;
+        doc["market"]["spot"] = std::string(base) == "USD" ? 1.38 : 1 / 1.38;
+        doc["option"]["strike"] = std::string(base) == "USD" ? 1.38 : 1 / 1.38;
+        doc["option"]["expiry_date"] = "2027-03-05";  // a Friday
+        doc["notional"]["currency"] = base;
+        const json c = run_command("price", doc).at("currency");
+        CHECK(c["spot_lag_days"] == 1);
+        CHECK(c["dates"]["spot"] == "2026-12-04");      // Thursday -> Friday
+        CHECK(c["dates"]["delivery"] == "2027-03-08");  // Friday -> Monday
+    }
+    json given = treasurer();
+    given["underlying"] = {{"kind", "currency_pair"}, {"base", "USD"}, {"quote", "CAD"}, {"spot_lag_days", 2}};
+    given["market"]["spot"] = 1.38;
+    given["option"]["strike"] = 1.38;
+    given["notional"]["currency"] = "USD";
+    CHECK(run_command("price", given).at("currency")["dates"]["spot"] == "2026-12-07");  // as given
+    CHECK(run_command("price", treasurer()).at("currency")["spot_lag_days"] == 2);       // EUR/USD: T+2
+}
+
 TEST_CASE("a pair's notional in the quote currency and a premium paid in the base currency", "[currency]") {
     json doc = treasurer();
     doc["notional"] = {{"amount", 5300000}, {"currency", "USD"}};  // 5,000,000 EUR at 1.06
@@ -109,4 +133,24 @@ TEST_CASE("a pair's document is refused field by field", "[currency]") {
     json equity = treasurer();
     equity.erase("underlying");
     CHECK(message_of(equity).rfind("market.rate: ", 0) == 0);
+    // The client price's amounts are in the quote currency: a label in another one was printed
+    // beside USD figures (a EUR premium is conventions.premium_currency's, not the quote's).
+    json labelled = treasurer();
+    labelled["quote"] = {{"currency", "EUR"}, {"margin", 0.0005}};
+    CHECK_THROWS_WITH(run_command("price", labelled),
+                      "quote.currency: the client price of a EUR/USD trade is in USD (per EUR and in total), got "
+                      "EUR; give USD or leave it out (the premium in EUR is conventions.premium_currency's)");
+    labelled["quote"]["currency"] = "USD";
+    CHECK(run_command("price", labelled).at("client_price")["currency"] == "USD");
+    // Percent of the quote-currency notional converts at the strike: a risk reversal has two
+    // (it printed null for the premium in that convention, exit 0).
+    for (const char* convention : {"percent_of_domestic", "foreign_pips"}) {
+        json rr = treasurer();
+        rr.erase("option");
+        rr["structure"] = {{"shape", "risk-reversal"}, {"strikes", {1.05, 1.15}}, {"expiry_date", "2027-09-03"}};
+        rr["conventions"]["premium"] = convention;
+        CHECK(message_of(rr) == "conventions.premium: " + std::string(convention) +
+                                    " is per unit of the USD notional, which converts at the strike, and these legs "
+                                    "have several; use domestic_per_foreign, domestic_pips or percent_of_foreign");
+    }
 }
