@@ -25,7 +25,8 @@ double unsigned_zero(double x) { return x + 0.0; }
 struct aged_trade {
     market_data market;
     std::vector<option_leg> alive;
-    double settled = 0;  // per unit: payoffs of legs expired by the horizon
+    double settled = 0;        // per unit: payoffs of legs expired by the horizon
+    double settled_delta = 0;  // and their slopes in spot: the shares they deliver
 };
 
 aged_trade age(const trade& t, const market_data& m, double h) {
@@ -39,6 +40,7 @@ aged_trade age(const trade& t, const market_data& m, double h) {
     for (option_leg leg : with_fixed_volatilities(m, t.legs)) {
         if (leg.type != payoff_kind::stock && leg.expiry_years <= h + expiry_epsilon) {
             out.settled += leg.quantity * exercise_value(leg, m.spot);
+            out.settled_delta += leg.quantity * exercise_slope(leg, m.spot);
             continue;
         }
         if (leg.type != payoff_kind::stock) {
@@ -118,6 +120,7 @@ scenario_value value_scenario(const trade& t, const scenario& s, int steps, smil
     fast.extrapolate = true;
     scenario_value out;
     out.value = aged.settled;
+    out.delta = aged.settled_delta;
     for (const auto& leg : aged.alive) {
         const market_data lm = leg_market(aged.market, leg);
         if (!(lm.volatility > 0))

@@ -275,4 +275,15 @@ double exercise_value(const option_leg& leg, double s) {
     return 0;
 }
 
+double exercise_slope(const option_leg& leg, double s) {
+    switch (leg.type) {
+        case payoff_kind::call: return s > leg.strike ? 1.0 : (s == leg.strike ? 0.5 : 0.0);
+        case payoff_kind::put: return s < leg.strike ? -1.0 : (s == leg.strike ? -0.5 : 0.0);
+        case payoff_kind::digital_call:
+        case payoff_kind::digital_put: return 0.0;
+        case payoff_kind::stock: return 1.0;
+    }
+    return 0;
+}
+
 }  // namespace hedgeleaf

@@ -83,6 +83,11 @@ bool early_exercise_can_pay(const market_data& market, const option_leg& leg);
 /// Value of a leg if exercised (or paid) at full spot s.
 double exercise_value(const option_leg& leg, double s);
 
+/// The slope of exercise_value in s: the delta of a leg at its expiry (a call 1 in the money,
+/// 0 out of it, 1/2 at the strike, the limit of its delta there as the time left goes to 0; a
+/// digital 0, its jump has no slope).
+double exercise_slope(const option_leg& leg, double s);
+
 /// Value and lattice Greeks (delta, gamma, theta; vega and rho left 0) from one backward induction.
 struct induction_result {
     double value = 0;

@@ -81,7 +81,12 @@ TEST_CASE("time ladder: value at future dates, paid at payoff on expiry", "[ladd
     CHECK(rows[1]["date"] == "2027-02-13");
     CHECK(rows.back()["days"] == 365);
     CHECK(rows.back()["value"].get<double>() == Approx(5.0).margin(1e-12));
-    CHECK(rows.back()["delta"] == 0.0);
+    // On expiry the delta is the payoff's slope: the share an in-the-money call delivers (it was
+    // printed 0); the limit of the closed-form delta as the time left goes to 0 (Hull, Options,
+    // Futures, and Other Derivatives, the delta of a call, from memory).
+    CHECK(rows.back()["delta"] == 1.0);
+    CHECK(rows.back()["position_delta"] == 1000.0);
+    CHECK(rows.back()["gamma"] == 0.0);
     for (std::size_t i = 0; i + 1 < rows.size(); ++i) {
         const double ahead = rows[i]["years"];
         CHECK(rows[i]["value"].get<double>() == Approx(reference(doc, 110, 0.25, ahead).premium).margin(2e-4));
@@ -104,6 +109,14 @@ TEST_CASE("time ladder with legs of different expiries settles the short leg fir
     option_leg call = t.legs[1];
     call.expiry_years -= 200.0 / 365.0;
     CHECK(later["value"].get<double>() == Approx(10.0 - closed_form(t.market, call).premium).margin(2e-4));
+    // The expired put, in the money, counts -1 share (its payoff's slope), the short call its delta.
+    CHECK(later["delta"].get<double>() == Approx(-1.0 - closed_form(t.market, call).sensitivities.delta).margin(2e-3));
+    // At the strike the slope is 1/2 (the limit of N(d1) as the time left goes to 0, from memory).
+    doc["market"]["spot"] = 110;
+    const json at_strike = run_command("ladder", doc);
+    t.market.spot = 110;
+    CHECK(at_strike["rows"][1]["delta"].get<double>() ==
+          Approx(-0.5 - closed_form(t.market, call).sensitivities.delta).margin(2e-3));
 }
 
 TEST_CASE("spot x vol grid: 21 x 11 by default, matrix matches rows", "[ladder]") {
