@@ -44,12 +44,29 @@ void choose_window(const tree_spec& tree, int steps, tree_result& out) {
     out.to_step = to;
 }
 
+/// The tree's lattice. Its steps are hedge.tree.steps, not lattice.steps: a lattice that breaks
+/// no-arbitrage at so few steps is refused naming the tree's (the price's lattice may be fine).
+trade_lattice tree_lattice(const trade& t, int steps) {
+    try {
+        return trade_lattice(t, steps);
+    } catch (const input_error& e) {
+        const std::string text = e.what();
+        const std::string prefix = e.field() + ": ";
+        if (text.find("breaks no-arbitrage") == std::string::npos || text.rfind(prefix, 0) != 0) throw;
+        std::string problem = text.substr(prefix.size());
+        for (std::size_t at = problem.find("lattice.steps"); at != std::string::npos;
+             at = problem.find("lattice.steps", at + 16))
+            problem.replace(at, 13, "hedge.tree.steps");
+        throw input_error("hedge.tree.steps", problem);
+    }
+}
+
 }  // namespace
 
 tree_result run_tree(const trade& t, const tree_settings& settings) {
     tree_result out;
     out.steps = tree_steps(settings);
-    const trade_lattice lat(t, out.steps);
+    const trade_lattice lat = tree_lattice(t, out.steps);
     out.geometry = lat.geometry;
     out.notes = lat.notes;
     choose_window(settings.tree, out.steps, out);

@@ -222,4 +222,15 @@ TEST_CASE("tree command: nodes, the highlighted path, caps and messages", "[repl
           "hedge.path.moves: has 4 moves, more than hedge.tree.steps 3");
     CHECK(message(R"(, "hedge": {"tree": {"steps": 6000}}})") ==
           "hedge.tree.steps: must be between 1 and 5000, got 6000");
+    // One step of a year at 5 % volatility and a 30 % rate: growth e^0.3 is above up e^0.05, so the
+    // tree breaks d < growth < u (common practice) where the price's 1,601 steps do not; the
+    // refusal names the tree's steps, which the user can raise, not lattice.steps (it did).
+    const std::string quiet = R"({"market": {"spot": 48, "volatility": 0.05, "rate": 0.3},
+        "option": {"type": "put", "strike": 50, "expiry_years": 1}, "lattice": {"method": "crr"},
+        "hedge": {"tree": {"steps": 1}}})";
+    CHECK_NOTHROW(run_command("price", parse_json_text(quiet)));
+    CHECK_THROWS_WITH(run_command("tree", parse_json_text(quiet)),
+                      Catch::Matchers::StartsWith("hedge.tree.steps: the crr lattice breaks no-arbitrage") &&
+                          Catch::Matchers::EndsWith("and hedge.tree.steps 1 over 1 years; raise the volatility or "
+                                                    "hedge.tree.steps, or narrow the rate-carry gap"));
 }
