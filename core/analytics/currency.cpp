@@ -93,12 +93,26 @@ double strike_for_currency_delta(const market_data& m, option_leg leg, delta_con
     if (adjusted && leg.type == payoff_kind::call) {
         // The falling branch starts at the highest delta: find it on a fine grid of strikes.
         constexpr int points = 2000;
+        const double spacing = (hi - lo) / points;
         double best = lo, best_gap = gap(lo);
         for (int i = 1; i <= points; ++i) {
             const double x = lo + (hi - lo) * i / points;
             const double g = gap(x);
             if (g > best_gap) best = x, best_gap = g;
         }
+        // ... then between the grid's neighbours by golden sections (the delta is smooth there),
+        // so that a delta just below the true highest is not refused as out of reach.
+        const double step = (std::sqrt(5.0) - 1) / 2;
+        double a = std::max(lo, best - spacing), b = std::min(hi, best + spacing);
+        double c = b - step * (b - a), d = a + step * (b - a), gc = gap(c), gd = gap(d);
+        for (int i = 0; i < 100 && b - a > 1e-15; ++i) {
+            if (gc > gd) {
+                b = d, d = c, gd = gc, c = b - step * (b - a), gc = gap(c);
+            } else {
+                a = c, c = d, gc = gd, d = a + step * (b - a), gd = gap(d);
+            }
+        }
+        if (std::max(gc, gd) > best_gap) best_gap = std::max(gc, gd), best = gc > gd ? c : d;
         if (best_gap < 0)
             fail(path, "a premium-adjusted call delta of " + format_number(delta) +
                            " is out of reach: the highest on this market is " + format_number(best_gap + delta));
