@@ -122,3 +122,46 @@ test('a currency pair: its fields, forward points, premium as quoted, client she
   assert.deepEqual(problems, []);
   await context.close();
 });
+
+/** The engine's (CLI's) premium per unit for a trade document, the reference the page must show. */
+function cliPremium(doc) {
+  const out = execFileSync(join(root, 'build/native/hedgeleaf'), ['price', '-'], { input: JSON.stringify(doc) });
+  return JSON.parse(out).premium;
+}
+
+test('strikes written as a delta or a percent open as written, price as the CLI, and are typed back', async () => {
+  // A risk reversal struck by 25 delta (docs/currency.md): the strike fields showed
+  // "[object Object]" and the trade could not be priced again after an edit.
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const rr = JSON.parse(exampleText);
+  delete rr.option;
+  rr.structure = { shape: 'risk-reversal', strikes: [{ delta: -0.25 }, { delta: 0.25 }], expiry_date: '2027-09-03' };
+  rr.conventions = { premium: 'domestic_pips', delta: 'spot' };
+  const page = await openPage(context, linkToPage(JSON.stringify(rr)), problems);
+  const strikes = '[data-path^="structure.strikes["]';
+  assert.deepEqual(await page.locator(strikes).evaluateAll((nodes) => nodes.map((n) => n.value)), [
+    '-25 delta',
+    '25 delta',
+  ]);
+  const premium = () => page.getAttribute('[data-result="premium"]', 'data-value').then(Number);
+  assert.ok(Math.abs((await premium()) - cliPremium(rr)) < 1e-12, 'the page prices the deltas as the CLI');
+  // an edit elsewhere prices again, the deltas kept
+  await page.fill('[data-path="market.spot"]', '1.09');
+  await settled(page);
+  rr.market.spot = 1.09;
+  assert.ok(Math.abs((await premium()) - cliPremium(rr)) < 1e-12, 'priced again after an edit');
+  // typed forms: a percent of the forward and of spot, a delta; a word is refused beside the field
+  await page.fill('[data-path="structure.strikes[0]"]', '97 % fwd');
+  await page.fill('[data-path="structure.strikes[1]"]', '10 delta');
+  await settled(page);
+  const { trade } = await savedTrade(page);
+  assert.deepEqual(trade.structure.strikes, [{ percent_of_forward: 97 }, { delta: 0.1 }]);
+  assert.ok(Math.abs((await premium()) - cliPremium(trade)) < 1e-12);
+  await page.fill('[data-path="structure.strikes[0]"]', 'atm');
+  await settled(page);
+  const error = await page.textContent('[data-error="structure.strikes[0]"]');
+  assert.match(error, /is not a strike: write a price \(105\), a percent of spot \(95 % spot\)/);
+  assert.deepEqual(problems, []);
+  await context.close();
+});

@@ -4,7 +4,7 @@
 // longer than a field takes (refused beside the field, never cut short). While any stands,
 // nothing is priced and the last good figures stay, greyed. Warnings: a value that reads but
 // is probably not what was meant (0.28 in a percent field where 28 % is likely); it is priced.
-import { charLimit } from './form.js';
+import { charLimit, strikeNumberText } from './form.js';
 import { formatNumber } from './format.js';
 import { readNumber } from './numbers.js';
 
@@ -17,6 +17,14 @@ export function inputProblem(input) {
     return `is too long (${formatNumber(length, 0)} characters; ${unit} at most ${formatNumber(charLimit(input), 0)})`;
   }
   if (kind === 'number' || kind === 'percent' || kind === 'index') return readNumber(input.value).problem ?? null;
+  if (kind === 'strike') {
+    const number = strikeNumberText(input.value);
+    const problem = readNumber(number).problem;
+    if (!problem) return null;
+    if (number === input.value.trim() && /[A-Za-z]/.test(number))
+      return 'is not a strike: write a price (105), a percent of spot (95 % spot) or of the forward (100 % fwd), or a delta in points (−25 delta)';
+    return problem;
+  }
   return null;
 }
 
@@ -25,6 +33,7 @@ const usualFloor = [
   [/volatility$/, 1], // a volatility of under 1 % a year
   [/^hedge\.path\.change$/, 1], // a stress of under 1 %
   [/(^market\.(rate|carry_yield)|drift|^quote\.margin)$/, 0.1], // a rate under 0.1 % (0.25 % is a real rate)
+  [/^market\.(domestic|foreign)_rate(\.rate)?$/, 0.1], // a currency pair's rate, as a number or a money-market quote
   [/^market\.volatility\.vols\[\d+\]\[\d+\]$/, 1], // a grid's cell, as the volatility
   [/^market\.(rate|carry_yield)\.points\[\d+\]\.rate$/, 0.1], // a curve's point, as the rate
 ];

@@ -35,7 +35,55 @@ export const maxTextChars = 10000;
 
 /** The most characters `input` takes: longer text is refused beside it and never reaches the document. */
 export function charLimit(input) {
-  return ['number', 'percent', 'index', 'tenor', 'time'].includes(input.dataset.kind) ? maxNumberChars : maxTextChars;
+  return ['number', 'percent', 'index', 'tenor', 'time', 'strike'].includes(input.dataset.kind)
+    ? maxNumberChars
+    : maxTextChars;
+}
+
+// A strike as the trade file writes it (docs/trade-file.md): a price, or a percent of spot or of
+// the forward, or a delta in points: "105", "95 % spot", "100 % fwd", "−25 delta".
+const strikeForms = [
+  ['percent_of_spot', /^(.+?)\s*%\s*(?:of\s+)?spot$/i, (x) => x],
+  ['percent_of_forward', /^(.+?)\s*%\s*(?:of\s+(?:the\s+)?)?(?:fwd|forward)$/i, (x) => x],
+  ['delta', /^(.+?)\s*(?:delta|Δ)$/i, (x) => Number((x / 100).toPrecision(15))],
+];
+
+/**
+ * A strike field's text -> a price (a number), {percent_of_spot}, {percent_of_forward} or {delta};
+ * null when empty; text the page cannot read stays as typed (checks.js says why).
+ */
+export function readStrike(text) {
+  const trimmed = String(text).trim();
+  for (const [key, pattern, scale] of strikeForms) {
+    const found = pattern.exec(trimmed);
+    if (!found) continue;
+    const value = parseNumber(found[1]);
+    return typeof value === 'number' ? { [key]: scale(value) } : trimmed;
+  }
+  return parseNumber(trimmed);
+}
+
+/** The number a strike field's text holds, and how it is written (for checks.js). */
+export function strikeNumberText(text) {
+  const trimmed = String(text).trim();
+  for (const [, pattern] of strikeForms) {
+    const found = pattern.exec(trimmed);
+    if (found) return found[1];
+  }
+  return trimmed;
+}
+
+/** A strike as its field shows it: 105 -> "105", {delta: -0.25} -> "-25 delta" (see readStrike). */
+export function strikeText(value) {
+  if (!value || typeof value !== 'object' || Array.isArray(value)) return inputText(value);
+  const keys = Object.keys(value);
+  const number = value[keys[0]];
+  if (keys.length === 1 && typeof number === 'number') {
+    if (keys[0] === 'percent_of_spot') return `${decimalText(number)} % spot`;
+    if (keys[0] === 'percent_of_forward') return `${decimalText(number)} % fwd`;
+    if (keys[0] === 'delta') return `${decimalText(Number((number * 100).toPrecision(12)))} delta`;
+  }
+  return JSON.stringify(value); // a form the page does not know: shown as written, kept unless edited
 }
 
 /** Read an input's value as the document stores it (undefined = remove the field). */
@@ -51,6 +99,7 @@ export function readInput(input) {
   if (kind === 'choice') return text === '' ? undefined : text;
   if (kind === 'date') return text === '' ? undefined : text;
   if (kind === 'time') return readTime(text).value;
+  if (kind === 'strike') return readStrike(text) ?? undefined;
   // a number the page cannot read goes into the document as typed (it stays on screen and in the
   // autosave); the page says why beside the field and prices nothing (checks.js)
   const value = kind === 'percent' ? parsePercent(text) : kind === 'tenor' ? parseTenor(text) : parseNumber(text);
@@ -66,6 +115,7 @@ export function showInput(input, value) {
     input.checked = value === undefined ? input.dataset.default === 'true' : value === input.value;
   else if (kind === 'percent') input.value = value === undefined ? '' : percentText(value);
   else if (kind === 'number') input.value = value === undefined ? '' : inputText(value);
+  else if (kind === 'strike') input.value = value === undefined ? '' : strikeText(value);
   else if (kind === 'index') input.value = typeof value === 'number' ? inputText(value + 1) : (value ?? '');
   else if (kind === 'tenor' || kind === 'time') input.value = value === undefined ? '' : tenorText(value);
   else if (kind === 'choice')

@@ -127,7 +127,7 @@ export function termsForm({ form, state, refill, changed }) {
       const strikes = Array.isArray(state.doc.structure?.strikes) ? state.doc.structure.strikes : [];
       const names = strikeNames[strikes.length] ?? strikes.map((_, i) => `Strike ${i + 1}`);
       byId('structure-strikes').replaceChildren(
-        ...strikes.map((_, i) => field(names[i], bound(`structure.strikes[${i}]`, 'number'))),
+        ...strikes.map((_, i) => field(names[i], bound(`structure.strikes[${i}]`, 'strike'))),
       );
     } else byId('structure-strikes').replaceChildren();
     if (key === 'legs') renderLegs();
@@ -145,7 +145,7 @@ export function termsForm({ form, state, refill, changed }) {
         ];
         if (leg && leg.type !== 'stock') {
           cells.push(
-            field('Strike', bound(`${base}.strike`, 'number')),
+            field('Strike', bound(`${base}.strike`, 'strike')),
             field('Expiry', whenInput(base, 'expiry_date,expiry_years', whenHint)),
             field('Exercise', select({ role: 'exercise', base }, exerciseStyles)),
           );
