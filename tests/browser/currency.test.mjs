@@ -162,6 +162,13 @@ test('strikes written as a delta or a percent open as written, price as the CLI,
   await settled(page);
   const error = await page.textContent('[data-error="structure.strikes[0]"]');
   assert.match(error, /is not a strike: write a price \(105\), a percent of spot \(95 % spot\)/);
+  // a single option's strike too (an equity trade, 95 % of spot)
+  const put = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
+  put.option.strike = { percent_of_spot: 95 };
+  await page.goto(linkToPage(JSON.stringify(put)));
+  await settled(page);
+  assert.equal(await page.inputValue('[data-path="option.strike"]'), '95 % spot');
+  assert.ok(Math.abs((await premium()) - cliPremium(put)) < 1e-12);
   assert.deepEqual(problems, []);
   await context.close();
 });
