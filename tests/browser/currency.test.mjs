@@ -172,3 +172,27 @@ test('strikes written as a delta or a percent open as written, price as the CLI,
   assert.deepEqual(problems, []);
   await context.close();
 });
+
+test('the notional a budget buys, put into a pair trade, goes into the notional', async () => {
+  // (it was written as a quantity, which a pair refuses beside a field the pair does not show)
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const page = await openPage(context, linkToPage(exampleText), problems);
+  await page.click('#solve-card summary');
+  await page.selectOption('#solve-for', 'quantity');
+  await settled(page);
+  const answer = await until(page, () => document.querySelector('[data-result="solve-solution"]')?.textContent);
+  assert.match(answer, /^Notional, EUR, /);
+  await page.click('#solve-card button[data-uses-result]');
+  await settled(page);
+  const { trade } = await savedTrade(page);
+  assert.equal(trade.quantity, undefined);
+  assert.equal(trade.notional.currency, 'EUR');
+  assert.ok(trade.notional.amount > 0 && trade.notional.amount !== 5000000, `${trade.notional.amount}`);
+  assert.equal(await page.locator('.headline.stale').count(), 0, 'priced, not greyed');
+  assert.ok(
+    Math.abs(Number(await page.getAttribute('[data-result="premium"]', 'data-value')) - cliPremium(trade)) < 1e-12,
+  );
+  assert.deepEqual(problems, []);
+  await context.close();
+});

@@ -70,6 +70,13 @@ function foldedCard({
   };
 }
 
+/** A currency pair's base currency (its notional's, as the engine solves quantities), or null. */
+function pairBase(doc) {
+  return doc.underlying?.kind === 'currency_pair' && typeof doc.underlying.base === 'string'
+    ? doc.underlying.base
+    : null;
+}
+
 // What a ladder moves, by kind: [label, path, kind, input properties] of each field.
 const spotRange = [
   ['Spot from %', 'ladder.spot_from', 'percent', { placeholder: '−20' }],
@@ -316,8 +323,16 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
       state.doc.market.volatility = Number(r.solution.toPrecision(6));
       done = `volatility ${formatPercent(state.doc.market.volatility, 2)}`;
     } else if (unknown === 'quantity') {
-      state.doc.quantity = r.quantity_in_lots ?? Number(r.solution.toPrecision(8));
-      done = `quantity ${inputText(state.doc.quantity)}`;
+      const amount = r.quantity_in_lots ?? Number(r.solution.toPrecision(8));
+      const base = pairBase(state.doc);
+      if (base) {
+        // a pair's size is its notional, in its base currency here (the engine solves base units)
+        state.doc.notional = { ...state.doc.notional, amount, currency: base };
+        done = `notional ${inputText(amount)} ${base}`;
+      } else {
+        state.doc.quantity = amount;
+        done = `quantity ${inputText(amount)}`;
+      }
     } else if (unknown === 'strike') {
       const path = strikePath(state.doc, r.leg, price?.legs?.[r.leg]?.strike);
       if (!path) return;
@@ -337,7 +352,7 @@ export function solvePanel({ live, state, showError, setStale, changed, bindCont
       unknown === 'volatility'
         ? `Volatility ${formatPercent(r.solution, 3)}`
         : unknown === 'quantity'
-          ? `Quantity ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
+          ? `${pairBase(state.doc) ? `Notional, ${pairBase(state.doc)},` : 'Quantity'} ${formatNumber(r.solution, 2)}${r.quantity_in_lots !== undefined ? ` (${inputText(r.quantity_in_lots)} in whole lots, ${formatNumber(r.budget_left, 2)} of the budget left)` : ''}`
           : `Strike of leg ${r.leg + 1} ${formatNumber(r.solution, Math.max(4, priceDigits(state.doc)))}`;
     // greyed with the card (messages.js setStale): a stale answer cannot be put into the trade
     const use = button('Use it in the trade', () => apply(r, price), {
