@@ -196,3 +196,15 @@ test('the notional a budget buys, put into a pair trade, goes into the notional'
   assert.deepEqual(problems, []);
   await context.close();
 });
+
+test('a pair without a client-price currency labels its amounts in its quote currency', async () => {
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const unlabelled = JSON.parse(exampleText);
+  delete unlabelled.quote.currency;
+  const page = await openPage(context, linkToPage(JSON.stringify(unlabelled)), problems);
+  const labels = await page.locator('.ccy').evaluateAll((nodes) => [...new Set(nodes.map((n) => n.textContent))]);
+  assert.deepEqual(labels, ['USD'], 'the totals are USD amounts (docs/currency.md)');
+  assert.deepEqual(problems, []);
+  await context.close();
+});

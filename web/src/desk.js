@@ -22,7 +22,7 @@ import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText, percentText } from './format.js';
 import { contractKey } from './form.js';
 import { setPath } from './paths.js';
-import { methodName, priceDigits, priceText } from './render.js';
+import { amountCurrency, methodName, priceDigits, priceText } from './render.js';
 import { screenNote } from './wording.js';
 
 /**
@@ -172,7 +172,7 @@ export function ladderPanel({ live, state, showError, setStale, changed, bindCon
       volEnds = [shifts[0], shifts.at(-1)];
       showVolEnds();
     }
-    const ccy = typeof state.doc.quote?.currency === 'string' ? ` ${state.doc.quote.currency}` : '';
+    const ccy = amountCurrency(state.doc) ? ` ${amountCurrency(state.doc)}` : '';
     const client = clientView(r, price);
     const per = (row) => [
       formatNumber(row.value, 4),

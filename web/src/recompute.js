@@ -13,7 +13,7 @@ import { Cancelled, delay, readyTime, started } from './compute.js';
 import { EngineError } from './engine.js';
 import { clearErrors, pageProblems, setStale, showError, showFailure, showPageProblems } from './messages.js';
 import { drawProfile, missedBreakEvens, profileRequest } from './profile.js';
-import { renderPrice, setResult } from './render.js';
+import { amountCurrency, renderPrice, setResult } from './render.js';
 import { renderSheet } from './sheet.js';
 import { fingerprint } from './share.js';
 import { formatStamp } from './format.js';
@@ -239,7 +239,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
 }
 
 function renderCurrency(doc) {
-  const ccy = typeof doc.quote?.currency === 'string' ? doc.quote.currency : '';
+  const ccy = amountCurrency(doc);
   for (const node of document.querySelectorAll('.ccy')) node.textContent = ccy;
 }
 
@@ -254,7 +254,7 @@ async function refreshSheet(doc, price, fingerprinting = fingerprint(doc).catch(
   renderSheet(doc, price, {
     fingerprint: code,
     valuedAt,
-    currency: typeof doc.quote?.currency === 'string' ? doc.quote.currency : '',
+    currency: amountCurrency(doc),
     internal: document.getElementById('sheet-internal')?.checked === true,
   });
   setResult('fingerprint', code ?? '–');

@@ -112,6 +112,16 @@ function perUnitDigitsOf(x) {
   return Math.abs(x) < 100 ? 4 : 2;
 }
 
+/**
+ * The currency the trade's amounts are in, for their labels: the client price's (`quote.currency`)
+ * when given, else a currency pair's quote currency (its amounts are in it), else none ('').
+ */
+export function amountCurrency(doc) {
+  if (typeof doc.quote?.currency === 'string') return doc.quote.currency;
+  const pair = doc.underlying?.kind === 'currency_pair' ? doc.underlying.quote : null;
+  return typeof pair === 'string' && /^[A-Z]{3}$/.test(pair) ? pair : '';
+}
+
 /** Fill every price figure from a `price` result. */
 export function renderPrice(doc, r) {
   // some thirty figures: find them all with one query of the page, not one query each
