@@ -34,6 +34,18 @@ TEST_CASE("a grid built from one Black-Scholes-Merton volatility passes every ch
     REQUIRE(t.market.smile);
     CHECK(t.market.smile->grid().expiries[1] == Approx(90.0 / 365.0));  // 2026-12-02 + 3 months = 2027-03-02
     CHECK(t.market.volatility == 0.24);
+    // ... also where a far forward makes calls worth some 4e10 times spot's scale (20 years, rate
+    // 1, carry yield -1, the limits): rounding in the prices is not arbitrage (it was refused,
+    // "short by 0"); the grid prices as its one volatility (an outside audit).
+    json far = with_market(grid({"20y"}, {1, 2, 5, 10}, {{0.05, 0.05, 0.05, 0.05}}));
+    far["market"]["volatility"]["strike_basis"] = "percent_of_forward";
+    far["market"]["rate"] = 1.0;
+    far["market"]["carry_yield"] = -1.0;
+    far["option"]["expiry_years"] = 20;
+    const json on_grid = run_command("price", far);
+    far["market"]["volatility"] = 0.05;
+    CHECK(on_grid["premium"].get<double>() ==
+          Approx(run_command("price", far)["premium"].get<double>()).epsilon(1e-12));
 }
 
 TEST_CASE("a grid that breaks no-arbitrage is refused at the cell, with both values and a fix", "[market]") {
