@@ -208,3 +208,18 @@ test('a pair without a client-price currency labels its amounts in its quote cur
   assert.deepEqual(problems, []);
   await context.close();
 });
+
+test('a trade switched to a pair before it is priced shows no other pair’s figures', async () => {
+  // (after a EUR/USD trade in the tab, New and "a currency pair" showed the old pair's premium)
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const page = await openPage(context, linkToPage(exampleText), problems);
+  assert.match(await page.textContent('#pair-premium'), /pips/);
+  await page.click('#action-new');
+  await settled(page);
+  await page.selectOption('#underlying-kind', 'currency_pair');
+  await settled(page);
+  assert.equal(await page.textContent('#pair-premium'), '–');
+  assert.equal(await page.textContent('#pair-name'), '–');
+  await context.close();
+});

@@ -52,14 +52,32 @@ function forwardRows(c, digits) {
 
 const deltaWords = (key) => deltaConventions.find(([k]) => k === key)?.[1] ?? key;
 
-/** Fill the pair's figures on screen from a price result with a `currency` section. */
+const pairFigureIds = [
+  'pair-name',
+  'pair-forward',
+  'pair-forward-points',
+  'pair-premium',
+  'pair-premium-amount',
+  'pair-delta',
+  'pair-delta-position',
+  'pair-date-line',
+];
+
+/** Fill the pair's figures on screen from a price result with a `currency` section (none: cleared). */
 export function renderPairFigures(r, digits) {
   const c = r.currency;
-  if (!c) return;
   const set = (id, text) => {
     const node = byId(id);
     if (node.textContent !== text) node.textContent = text;
   };
+  if (!c) {
+    // a share's figures: the pair's, from an earlier trade, must not wait to be shown beside them
+    // (a trade switched to a pair and not priced yet would show another pair's figures)
+    for (const id of pairFigureIds) set(id, '–');
+    for (const id of ['pair-premium', 'pair-forward-points']) delete byId(id).dataset.value;
+    for (const id of ['pair-conventions', 'pair-dates']) byId(id).replaceChildren();
+    return;
+  }
   set('pair-name', `${c.pair}, spot ${formatNumber(r.spot, digits)}`);
   const [forward, points] = forwardRows(c, digits);
   set('pair-forward', forward[1]);
