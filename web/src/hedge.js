@@ -237,6 +237,7 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const digits = priceDigits(state.doc);
     // a pair's hedge holds foreign currency (docs/currency.md): its words name it
     const held = isPair(state.doc) ? `${pairCodes(state.doc).base}` : 'Shares';
+    const heldWord = isPair(state.doc) ? held : 'shares'; // in a sentence: a currency code keeps its capitals
     const head = [
       'Date',
       'Event',
@@ -267,15 +268,15 @@ export function hedgePanel({ live, state, showError, setStale, changed, bindCont
     const desk = result.desk;
     byId('hedge-totals').textContent =
       `Per unit: the premium ${formatNumber(t.premium, 4)} grew into a portfolio of ${formatNumber(t.portfolio_value, 4)} against ${formatNumber(t.payoff, 4)} owed at the end (${t.end_event}); ` +
-      `replication error ${formatSmart(t.replication_error, 2, 4)}, ${held.toLowerCase()} traded ${formatNumber(t.total_shares_traded ?? t.total_foreign_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
-      `The desk holds ${formatNumber(desk.shares_at_start ?? desk.foreign_at_start, 0)} ${held.toLowerCase()} at the start and ${formatNumber(desk.shares_at_end ?? desk.foreign_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
+      `replication error ${formatSmart(t.replication_error, 2, 4)}, ${heldWord} traded ${formatNumber(t.total_shares_traded ?? t.total_foreign_traded, 4)}, costs ${formatNumber(t.total_costs, 4)}. ` +
+      `The desk holds ${formatNumber(desk.shares_at_start ?? desk.foreign_at_start, 0)} ${heldWord} at the start and ${formatNumber(desk.shares_at_end ?? desk.foreign_at_end, 0)} at the end; its hedged P&L is ${formatNumber(desk.pnl, 2)}.` +
       (result.notes?.length ? ` Note: ${result.notes.map(screenNote).join('; ')}.` : '');
     const xs = (row) => row.years;
     drawChart(byId('hedge-chart'), {
       series: [
         {
           kind: 'portfolio',
-          label: `Hedge portfolio (${held.toLowerCase()} + cash)`,
+          label: `Hedge portfolio (${heldWord} + cash)`,
           dots: true,
           points: result.rows.map((r) => [xs(r), r.portfolio_value]),
         },
