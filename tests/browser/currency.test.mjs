@@ -165,10 +165,10 @@ test('strikes written as a delta or a percent open as written, price as the CLI,
   // a single option's strike too (an equity trade, 95 % of spot)
   const put = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
   put.option.strike = { percent_of_spot: 95 };
-  await page.goto(linkToPage(JSON.stringify(put)));
-  await settled(page);
-  assert.equal(await page.inputValue('[data-path="option.strike"]'), '95 % spot');
-  assert.ok(Math.abs((await premium()) - cliPremium(put)) < 1e-12);
+  const single = await openPage(context, linkToPage(JSON.stringify(put)), problems);
+  assert.equal(await single.inputValue('[data-path="option.strike"]'), '95 % spot');
+  const singlePremium = Number(await single.getAttribute('[data-result="premium"]', 'data-value'));
+  assert.ok(Math.abs(singlePremium - cliPremium(put)) < 1e-12);
   assert.deepEqual(problems, []);
   await context.close();
 });
@@ -221,5 +221,19 @@ test('a trade switched to a pair before it is priced shows no other pair’s fig
   await settled(page);
   assert.equal(await page.textContent('#pair-premium'), '–');
   assert.equal(await page.textContent('#pair-name'), '–');
+  await context.close();
+});
+
+test('a client who sells sees the premium with one sign on the pair’s figures and the totals', async () => {
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const sold = JSON.parse(exampleText);
+  sold.side = 'sell';
+  const page = await openPage(context, linkToPage(JSON.stringify(sold)), problems);
+  const amount = await page.textContent('#pair-premium-amount');
+  const total = await page.textContent('[data-result="premium-total"]');
+  assert.doesNotMatch(amount, /[−-]/, amount);
+  assert.doesNotMatch(total, /[−-]/, total);
+  assert.deepEqual(problems, []);
   await context.close();
 });

@@ -52,6 +52,10 @@ function forwardRows(c, digits) {
 
 const deltaWords = (key) => deltaConventions.find(([k]) => k === key)?.[1] ?? key;
 
+/** -1 for a sale: the engine's premium amount is the position's (signed by the side), the page's
+ * totals are quantity × premium (signed by the premium alone: a structure can be a credit). */
+const sideSign = (r) => (r.position?.side === 'sell' ? -1 : 1);
+
 const pairFigureIds = [
   'pair-name',
   'pair-forward',
@@ -83,7 +87,8 @@ export function renderPairFigures(r, digits) {
   set('pair-forward', forward[1]);
   set('pair-forward-points', points[1]);
   set('pair-premium', premiumText(c, c.premium.convention));
-  set('pair-premium-amount', `${formatNumber(c.premium.amount, 2)} ${c.premium.currency}`);
+  // signed as the total premium beside it, by the premium and not by the side (see sideSign)
+  set('pair-premium-amount', `${formatNumber(c.premium.amount * sideSign(r), 2)} ${c.premium.currency}`);
   set('pair-delta', `${formatNumber(c.delta.value, 4)} (${deltaWords(c.delta.convention)})`);
   set('pair-delta-position', `${formatNumber(c.delta[`position_${c.base}`], 0)} ${c.base}`);
   const d = c.dates;
@@ -141,7 +146,9 @@ export function pairSheetPremium(r) {
     [`${label}, as quoted`, premiumText(c, c.premium.convention, scale), 'pair-premium'],
     [
       `${label} in ${c.premium.currency}`,
-      `${formatNumber(c.premium.amount * scale, 2)} ${c.premium.currency}, paid ${formatDate(c.dates.premium)}`,
+      // signed as the sheet's other totals, by the premium and not by the side (the side says who
+      // pays): the engine's amount is the position's, negative for a sale
+      `${formatNumber(c.premium.amount * scale * sideSign(r), 2)} ${c.premium.currency}, paid ${formatDate(c.dates.premium)}`,
     ],
   ];
 }
