@@ -237,3 +237,25 @@ test('a client who sells sees the premium with one sign on the pair’s figures 
   assert.deepEqual(problems, []);
   await context.close();
 });
+
+test('switching between a share and a pair keeps what was typed, through a reload and a new quantity', async () => {
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const share = JSON.parse(readFileSync(join(root, 'examples/american-put.json'), 'utf8'));
+  const page = await openPage(context, linkToPage(JSON.stringify(share)), problems);
+  await page.selectOption('#underlying-kind', 'currency_pair');
+  await settled(page);
+  await page.reload();
+  await settled(page);
+  await page.selectOption('#underlying-kind', 'equity');
+  await settled(page);
+  const back = (await savedTrade(page)).trade;
+  assert.deepEqual(back.market.dividends, share.market.dividends, 'the dividends come back after a reload');
+  // a quantity typed while a share's becomes the notional when the pair comes back
+  await page.fill('[data-path="quantity"]', '2000000');
+  await settled(page);
+  await page.selectOption('#underlying-kind', 'currency_pair');
+  await settled(page);
+  assert.equal((await savedTrade(page)).trade.notional.amount, 2000000);
+  await context.close();
+});

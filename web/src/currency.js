@@ -11,6 +11,7 @@
 import { byId, field, make, optionList } from './dom.js';
 import { switchExpiryMode } from './form.js';
 import { todayIso } from './dates.js';
+import { browserStore } from './state.js';
 
 /** True when the trade is on a currency pair. */
 export function isPair(doc) {
@@ -125,8 +126,12 @@ export function toPair(doc, aside) {
   const amount = doc.quantity;
   delete doc.quantity;
   doc.notional = aside.notional ?? { amount: amount ?? 1000000 };
+  // a quantity edited while the trade was a share's is the notional now (in its own currency)
+  if (aside.notional !== undefined && amount !== undefined && amount !== aside.quantity)
+    doc.notional = { ...aside.notional, amount };
   if (aside.notional === undefined && doc.underlying.base) doc.notional.currency = doc.underlying.base;
   delete aside.notional;
+  delete aside.quantity;
   if (aside.conventions !== undefined) doc.conventions = aside.conventions;
   delete aside.conventions;
   switchExpiryMode(doc, 'date', aside);
@@ -150,6 +155,7 @@ export function toEquity(doc, aside) {
   bringBack(aside, market, equityMarketKeys, 'market.');
   const amount = aside.notional?.amount;
   doc.quantity = typeof amount === 'number' ? amount : 1;
+  aside.quantity = doc.quantity; // the quantity as it came from the notional: edited if it differs
 }
 
 /**
@@ -157,7 +163,20 @@ export function toEquity(doc, aside) {
  * pair's currencies and the rate bases. `refill` draws the form again, `changed` recomputes.
  */
 export function pairForm({ state, refill, changed }) {
-  const aside = {}; // what the other kind holds, kept in this tab while the kind is switched
+  // What the other kind holds, kept in this tab (sessionStorage, so a reload keeps it too) while
+  // the kind is switched.
+  const tab = browserStore('sessionStorage');
+  const asideKey = 'hedgeleaf.pair.aside';
+  const aside = readAside();
+
+  function readAside() {
+    try {
+      const kept = JSON.parse(tab?.getItem(asideKey) ?? '{}');
+      return kept !== null && typeof kept === 'object' && !Array.isArray(kept) ? kept : {};
+    } catch {
+      return {};
+    }
+  }
   byId('pair-rates').replaceChildren(
     rateRow('domestic_rate', 'Domestic rate', "the quote currency's rate, percent a year"),
     rateRow('foreign_rate', 'Foreign rate', "the base currency's rate, percent a year"),
@@ -214,6 +233,11 @@ export function pairForm({ state, refill, changed }) {
   function switchKind(kind) {
     if (kind === 'currency_pair') toPair(state.doc, aside);
     else toEquity(state.doc, aside);
+    try {
+      tab?.setItem(asideKey, JSON.stringify(aside));
+    } catch {
+      // storage off or full: what was put aside comes back in this page visit only
+    }
     refill();
     changed(0);
   }
