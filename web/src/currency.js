@@ -11,7 +11,7 @@
 import { byId, field, make, optionList } from './dom.js';
 import { switchExpiryMode } from './form.js';
 import { todayIso } from './dates.js';
-import { browserStore } from './state.js';
+import { tabObject } from './state.js';
 
 /** True when the trade is on a currency pair. */
 export function isPair(doc) {
@@ -165,18 +165,7 @@ export function toEquity(doc, aside) {
 export function pairForm({ state, refill, changed }) {
   // What the other kind holds, kept in this tab (sessionStorage, so a reload keeps it too) while
   // the kind is switched.
-  const tab = browserStore('sessionStorage');
-  const asideKey = 'hedgeleaf.pair.aside';
-  const aside = readAside();
-
-  function readAside() {
-    try {
-      const kept = JSON.parse(tab?.getItem(asideKey) ?? '{}');
-      return kept !== null && typeof kept === 'object' && !Array.isArray(kept) ? kept : {};
-    } catch {
-      return {};
-    }
-  }
+  const { value: aside, keep: keepAside } = tabObject('hedgeleaf.pair.aside');
   byId('pair-rates').replaceChildren(
     rateRow('domestic_rate', 'Domestic rate', "the quote currency's rate, percent a year"),
     rateRow('foreign_rate', 'Foreign rate', "the base currency's rate, percent a year"),
@@ -233,11 +222,7 @@ export function pairForm({ state, refill, changed }) {
   function switchKind(kind) {
     if (kind === 'currency_pair') toPair(state.doc, aside);
     else toEquity(state.doc, aside);
-    try {
-      tab?.setItem(asideKey, JSON.stringify(aside));
-    } catch {
-      // storage off or full: what was put aside comes back in this page visit only
-    }
+    keepAside();
     refill();
     changed(0);
   }

@@ -11,7 +11,7 @@
 import { bound, byId, button, errorLine, field, make, removeButton, select } from './dom.js';
 import { setPath } from './paths.js';
 import { readCurveBlock, readGridBlock } from './paste-block.js';
-import { browserStore } from './state.js';
+import { tabObject } from './state.js';
 
 export const curveNames = {
   rate: 'Interest rate',
@@ -53,26 +53,7 @@ function nextStrike(strikes) {
 export function marketEditor({ state, refill, changed, announce }) {
   // Grids and curves put away by "Back to one ...", by field: kept in this tab (through reloads)
   // until opened again, so going back to one number never loses a grid that was typed.
-  const tab = browserStore('sessionStorage');
-  const asideKey = 'hedgeleaf.market.aside';
-  const aside = readAside();
-
-  function readAside() {
-    try {
-      const kept = JSON.parse(tab?.getItem(asideKey) ?? '{}');
-      return kept !== null && typeof kept === 'object' ? kept : {};
-    } catch {
-      return {};
-    }
-  }
-
-  function keepAside() {
-    try {
-      tab?.setItem(asideKey, JSON.stringify(aside));
-    } catch {
-      // storage off or full: the grid stays aside for this page visit only
-    }
-  }
+  const { value: aside, keep: keepAside } = tabObject('hedgeleaf.market.aside');
 
   const market = () => (state.doc.market ??= {});
 

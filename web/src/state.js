@@ -37,3 +37,27 @@ export function browserStore(name) {
     return null;
   }
 }
+
+/**
+ * An object kept in this tab (sessionStorage, through reloads) under `key`: `value` (empty where
+ * none was kept, it cannot be read or storage is off) and `keep()`, which writes it back (best
+ * effort: where storage is off or full it lasts this page visit only).
+ */
+export function tabObject(key) {
+  const tab = browserStore('sessionStorage');
+  let value = {};
+  try {
+    const kept = JSON.parse(tab?.getItem(key) ?? '{}');
+    if (kept !== null && typeof kept === 'object' && !Array.isArray(kept)) value = kept;
+  } catch {
+    // unreadable: start empty
+  }
+  const keep = () => {
+    try {
+      tab?.setItem(key, JSON.stringify(value));
+    } catch {
+      // storage off or full: kept for this page visit only
+    }
+  };
+  return { value, keep };
+}
