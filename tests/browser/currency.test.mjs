@@ -88,6 +88,7 @@ test('a currency pair: its fields, forward points, premium as quoted, client she
   // The client sheet: the pair, its dates and the price as quoted; no shares, no dividends.
   const sheet = await printedSheet(page);
   assert.match(sheet, /EUR\/USD/);
+  assert.match(sheet, /\bEuropean\b/, 'the exercise style as a name (it was "european")');
   for (const date of ['Spot date 12/07/2026', 'Expiry date 09/03/2027', 'Delivery date 09/07/2027'])
     assert.match(sheet, new RegExp(date), `${date} on the sheet`);
   assert.match(sheet, /Client price, as quoted 1\.\d{4} % of the EUR/);

@@ -8,7 +8,7 @@ import { byId, fillTable, make } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatStamp, formatWhen, inputText } from './format.js';
 import { alternativeLabel, drawComparison } from './compare-view.js';
 import { priceText } from './render.js';
-import { legTypeNames } from './sheet.js';
+import { exerciseNames, legTypeNames } from './sheet.js';
 
 /** The first alternative's value of a sheet field (client, prepared_by, …) that has one. */
 function firstOf(result, key) {
@@ -32,7 +32,7 @@ function legRows(result, doc) {
         : leg.expiry_years === undefined
           ? '–'
           : `${formatNumber(leg.expiry_years, 2)} y`,
-      leg.exercise ?? '–',
+      exerciseNames[leg.exercise] ?? leg.exercise ?? '–',
       inputText(leg.quantity),
     ]);
   });

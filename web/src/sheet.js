@@ -29,6 +29,9 @@ function grid(table, head, body) {
   table.replaceChildren(headRow, ...body.map((cells) => tableRow(cells)));
 }
 
+/** Exercise styles as the sheets name them. */
+export const exerciseNames = { european: 'European', american: 'American', bermudan: 'Bermudan' };
+
 /** Leg types as the sheets name them. */
 export const legTypeNames = {
   call: 'Call',
@@ -51,7 +54,7 @@ function legRows(doc, r) {
       legTypeNames[leg.type] ?? leg.type,
       strike,
       leg.type === 'stock' ? '–' : expiryText(doc, { expiry_years: leg.expiry_years }),
-      leg.exercise ?? '–',
+      exerciseNames[leg.exercise] ?? leg.exercise ?? '–',
       inputText(Math.abs(signed)),
       formatNumber(Math.abs(signed) * r.spot, 0),
     ];
