@@ -260,3 +260,19 @@ test('switching between a share and a pair keeps what was typed, through a reloa
   assert.equal((await savedTrade(page)).trade.notional.amount, 2000000);
   await context.close();
 });
+
+test('an engine refusal that names another field says it by its name on screen', async () => {
+  // (beside the expiry: "must be after valuation_date ..." where the pair's field is "Trade date")
+  const context = await offlineContext(await run.ready());
+  const problems = [];
+  const page = await openPage(context, linkToPage(exampleText), problems);
+  await page.fill('[data-path="valuation_date"] >> visible=true', '2027-12-01');
+  await settled(page);
+  const errors = await page.evaluate(() =>
+    [...document.querySelectorAll('[data-error]')].map((n) => n.textContent).filter(Boolean),
+  );
+  assert.equal(errors.length, 1, errors.join(' | '));
+  assert.match(errors[0], /Trade date/);
+  assert.doesNotMatch(errors[0], /valuation_date/);
+  await context.close();
+});

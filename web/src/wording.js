@@ -82,7 +82,21 @@ export function screenMessage(input, field, message, detail) {
     return `${name} must be between ${unit.show(Number(low))} and ${unit.show(Number(high))}${tail}, got ${unit.show(Number(value))}`;
   }
   if (isMarketTablePath(field)) return `${name}: ${gridWords(rest)}`;
-  return `${name}: ${input.dataset.kind === 'index' ? screenNote(rest).replace(fromZero, fromOne) : rest}`;
+  const words = pathsAsNames(rest);
+  return `${name}: ${input.dataset.kind === 'index' ? screenNote(words).replace(fromZero, fromOne) : words}`;
+}
+
+/**
+ * The trade file's paths in engine text that name a field shown on the page, as that field's
+ * name ("must be after valuation_date 2026-12-03" -> "must be after Trade date 2026-12-03" for a
+ * pair, "Valuation date" for a share); other words, and paths of fields not on screen, stay.
+ */
+function pathsAsNames(text) {
+  return text.replace(/\b[a-z][a-z_]*(?:\.[a-z][a-z_]*)*\b/g, (path) => {
+    if (!/[._]/.test(path)) return path; // a plain word, not a path
+    const shown = [...document.querySelectorAll(`[data-path="${path}"]`)].find((node) => node.getClientRects().length);
+    return shown ? fieldName(shown) : path;
+  });
 }
 
 // "(0 to 2, in the order of the legs...)": the engine's count of legs from 0, on screen from 1
