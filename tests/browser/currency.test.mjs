@@ -89,6 +89,8 @@ test('a currency pair: its fields, forward points, premium as quoted, client she
   const sheet = await printedSheet(page);
   assert.match(sheet, /EUR\/USD/);
   assert.match(sheet, /\bEuropean\b/, 'the exercise style as a name (it was "european")');
+  // the sensitivities' delta is the plain spot delta: said so beside the pair's own convention
+  assert.equal(await page.textContent('th:has(+ [data-result="delta"])'), 'Delta (spot, not premium-adjusted)');
   for (const date of ['Spot date 12/07/2026', 'Expiry date 09/03/2027', 'Delivery date 09/07/2027'])
     assert.match(sheet, new RegExp(date), `${date} on the sheet`);
   assert.match(sheet, /Client price, as quoted 1\.\d{4} % of the EUR/);
