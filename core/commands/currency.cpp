@@ -104,15 +104,19 @@ json quoted_json(const std::optional<quoted_rate>& q) {
     return {{"rate", q->rate}, {"day_count", to_string(q->basis)}, {"compounding", to_string(q->compounds)}};
 }
 
+/// The conventions per unit of the quote-currency notional, which converts at the strike: they
+/// need one strike shared by the legs.
+bool per_quote_notional(premium_convention convention) {
+    return convention == premium_convention::percent_of_domestic || convention == premium_convention::foreign_pips;
+}
+
 json premium_json(const trade& t, double value) {
     const currency_terms& c = *t.currency;
     const double strike = common_strike(t), spot = t.market.spot;
     json all = json::object();
     for (std::size_t i = 0; i < premium_conventions.size(); ++i) {
         const auto convention = static_cast<premium_convention>(i);
-        const bool needs_strike =
-            convention == premium_convention::percent_of_domestic || convention == premium_convention::foreign_pips;
-        all[premium_conventions[i]] = needs_strike && strike == 0
+        all[premium_conventions[i]] = per_quote_notional(convention) && strike == 0
                                           ? json(nullptr)
                                           : json(premium_in(convention, value, spot, strike, c.pair.pip_size));
     }
@@ -293,10 +297,7 @@ void settle_currency_trade(const json& document, std::optional<date> premium_dat
         fail("notional.currency",
              "must be " + terms.pair.base + " or " + terms.pair.quote + ", got " + terms.notional_currency);
     }
-    // These two are per unit of the quote-currency notional, which converts at the strike.
-    const bool needs_strike =
-        terms.premium == premium_convention::percent_of_domestic || terms.premium == premium_convention::foreign_pips;
-    if (needs_strike && common_strike(t) == 0)
+    if (per_quote_notional(terms.premium) && common_strike(t) == 0)
         fail("conventions.premium", to_string(terms.premium) + " is per unit of the " + terms.pair.quote +
                                         " notional, which converts at the strike, and these legs have several; "
                                         "use domestic_per_foreign, domestic_pips or percent_of_foreign");
