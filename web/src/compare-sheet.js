@@ -8,7 +8,8 @@ import { byId, fillTable, make } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatStamp, formatWhen, inputText } from './format.js';
 import { alternativeLabel, drawComparison } from './compare-view.js';
 import { priceText } from './render.js';
-import { exerciseNames, legTypeNames } from './sheet.js';
+import { exerciseNames } from './form.js';
+import { legTypeNames } from './sheet.js';
 
 /** The first alternative's value of a sheet field (client, prepared_by, …) that has one. */
 function firstOf(result, key) {

@@ -18,6 +18,7 @@ import {
   select,
   setText,
 } from './dom.js';
+import { isPair } from './currency.js';
 import { EngineError } from './engine.js';
 import { formatNumber, formatPercent, inputText, percentText } from './format.js';
 import { contractKey } from './form.js';
@@ -72,9 +73,7 @@ function foldedCard({
 
 /** A currency pair's base currency (its notional's, as the engine solves quantities), or null. */
 function pairBase(doc) {
-  return doc.underlying?.kind === 'currency_pair' && typeof doc.underlying.base === 'string'
-    ? doc.underlying.base
-    : null;
+  return isPair(doc) && typeof doc.underlying.base === 'string' ? doc.underlying.base : null;
 }
 
 // What a ladder moves, by kind: [label, path, kind, input properties] of each field.

@@ -24,6 +24,9 @@ export const shapes = {
 };
 
 /** Which key holds the contract: "option", "structure" or "legs". */
+/** Exercise styles as the page names them, in the order the form offers them. */
+export const exerciseNames = { european: 'European', american: 'American', bermudan: 'Bermudan' };
+
 export function contractKey(doc) {
   if (doc.legs !== undefined) return 'legs';
   if (doc.structure !== undefined) return 'structure';
@@ -48,29 +51,31 @@ const strikeForms = [
   ['delta', /^(.+?)\s*(?:delta|Δ)$/i, (x) => Number((x / 100).toPrecision(15))],
 ];
 
+/** The written form `text` (trimmed) takes, as {key, scale, number: its number's text}, or null. */
+function strikeForm(text) {
+  for (const [key, pattern, scale] of strikeForms) {
+    const found = pattern.exec(text);
+    if (found) return { key, scale, number: found[1] };
+  }
+  return null;
+}
+
 /**
  * A strike field's text -> a price (a number), {percent_of_spot}, {percent_of_forward} or {delta};
  * null when empty; text the page cannot read stays as typed (checks.js says why).
  */
 export function readStrike(text) {
   const trimmed = String(text).trim();
-  for (const [key, pattern, scale] of strikeForms) {
-    const found = pattern.exec(trimmed);
-    if (!found) continue;
-    const value = parseNumber(found[1]);
-    return typeof value === 'number' ? { [key]: scale(value) } : trimmed;
-  }
-  return parseNumber(trimmed);
+  const form = strikeForm(trimmed);
+  if (!form) return parseNumber(trimmed);
+  const value = parseNumber(form.number);
+  return typeof value === 'number' ? { [form.key]: form.scale(value) } : trimmed;
 }
 
 /** The number a strike field's text holds, and how it is written (for checks.js). */
 export function strikeNumberText(text) {
   const trimmed = String(text).trim();
-  for (const [, pattern] of strikeForms) {
-    const found = pattern.exec(trimmed);
-    if (found) return found[1];
-  }
-  return trimmed;
+  return strikeForm(trimmed)?.number ?? trimmed;
 }
 
 /** A strike as its field shows it: 105 -> "105", {delta: -0.25} -> "-25 delta" (see readStrike). */

@@ -6,6 +6,7 @@
 import { byId } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatSmart, inputText } from './format.js';
 import { contractExpiry, contractKey } from './form.js';
+import { isPair } from './currency.js';
 import { renderPairFigures } from './currency-figures.js';
 
 function writeFigure(nodes, text, value) {
@@ -118,7 +119,7 @@ function perUnitDigitsOf(x) {
  */
 export function amountCurrency(doc) {
   if (typeof doc.quote?.currency === 'string') return doc.quote.currency;
-  const pair = doc.underlying?.kind === 'currency_pair' ? doc.underlying.quote : null;
+  const pair = isPair(doc) ? doc.underlying.quote : null;
   return typeof pair === 'string' && /^[A-Z]{3}$/.test(pair) ? pair : '';
 }
 

@@ -7,6 +7,7 @@
 // figures are printed only on the internal sheet, which says so at its head.
 import { byId, tableRow } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatSmart, formatWhen, inputText } from './format.js';
+import { exerciseNames } from './form.js';
 import { describeContract, expiryText, methodName, priceDigits, priceText } from './render.js';
 import { pairSheetPremium, pairSheetTerms } from './currency-figures.js';
 import { marketAsOfText } from './snapshot.js';
@@ -28,9 +29,6 @@ function grid(table, head, body) {
   headRow.cells[0].removeAttribute('scope');
   table.replaceChildren(headRow, ...body.map((cells) => tableRow(cells)));
 }
-
-/** Exercise styles as the sheets name them. */
-export const exerciseNames = { european: 'European', american: 'American', bermudan: 'Bermudan' };
 
 /** Leg types as the sheets name them. */
 export const legTypeNames = {

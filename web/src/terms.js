@@ -6,7 +6,15 @@
 // inputs is form.js's job; this file decides what the form shows.
 import { addYears } from './dates.js';
 import { bound, byId, field, make, removeButton, select, whenInput } from './dom.js';
-import { changeShape, contractExpiry, contractKey, fillInput, shapes, switchExpiryMode } from './form.js';
+import {
+  changeShape,
+  contractExpiry,
+  contractKey,
+  exerciseNames,
+  fillInput,
+  shapes,
+  switchExpiryMode,
+} from './form.js';
 
 const strikeNames = {
   1: ['Strike'],
@@ -20,11 +28,7 @@ const legTypes = [
   ['digital-put', 'Digital put'],
   ['stock', 'Share'],
 ];
-const exerciseStyles = [
-  ['european', 'European'],
-  ['american', 'American'],
-  ['bermudan', 'Bermudan'],
-];
+const exerciseStyles = Object.entries(exerciseNames);
 const marginLabels = {
   absolute: 'Margin per unit',
   fraction_of_premium: 'Margin, % of premium',
