@@ -36,7 +36,8 @@ TEST_CASE("a grid built from one Black-Scholes-Merton volatility passes every ch
     CHECK(t.market.volatility == 0.24);
     // ... also where a far forward makes calls worth some 4e10 times spot's scale (20 years, rate
     // 1, carry yield -1, the limits): rounding in the prices is not arbitrage (it was refused,
-    // "short by 0"); the grid prices as its one volatility (an outside audit).
+    // "short by 0"); the grid prices as its one volatility (common practice: one volatility is
+    // one lognormal model, free of static arbitrage; the case came from an outside audit).
     json far = with_market(grid({"20y"}, {1, 2, 5, 10}, {{0.05, 0.05, 0.05, 0.05}}));
     far["market"]["volatility"]["strike_basis"] = "percent_of_forward";
     far["market"]["rate"] = 1.0;
