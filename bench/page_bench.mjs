@@ -1,6 +1,7 @@
 // Hedgeleaf benchmark: the one-file page in headless Chromium.
 //
-//   node bench/page_bench.mjs [PAGE] [--rates 1,4] [--contexts 5] [--trade FILE]   (default dist/hedgeleaf.html)
+//   node bench/page_bench.mjs [PAGE] [--rates 1,4] [--contexts 5] [--trade FILE] [--with-window]
+//   (default dist/hedgeleaf.html)
 //   node bench/page_bench.mjs [PAGE] --against OLD [--rates 1,4] [--contexts 10]
 //
 // With --against, only the cold open, of OLD and PAGE taken in turn in fresh contexts
@@ -11,7 +12,8 @@
 // through the DevTools protocol, Emulation.setCPUThrottlingRate, as a slow
 // laptop would run it; Chromium slows pages only, so the engine workers keep
 // their speed) it prints the cold open of the file to the first premium shown
-// (fresh browser context each time, offline, from file://), the time until the
+// (fresh browser context each time, offline, from file://; asked for once the browser's new
+// window is quiet, as in a browser already running, or at once with --with-window), the time until the
 // opened page settles, and the time of a full recompute after an edit of spot:
 // from the end of the page's 250 ms input debounce to the last change the
 // recompute makes to the page (premium, sensitivities, profit chart, hedge
@@ -39,6 +41,9 @@ const rates = flag('--rates', '1,4').split(',').map(Number);
 const againstPath = flag('--against', null);
 const contexts = Number(flag('--contexts', againstPath ? '10' : '5'));
 const tradePath = flag('--trade', null);
+const withWindow = process.argv.includes('--with-window');
+// how long each open waited for the browser's new window to be quiet (browserQuiet)
+const windowWaits = [];
 const budgets = { 1: { open: 500, recompute: 16 }, 4: { open: 1500, recompute: 50 } };
 const debounceMs = 250;
 const editsPerContext = 4; // web/src/recompute.js: changed(delay = 250)
@@ -74,6 +79,31 @@ function recorder() {
 }
 
 const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
+
+/**
+ * Wait until the browser's own processes are quiet, and return how long that took (ms). A
+ * new context in headless Chromium opens a new window, and the window's own interface (the
+ * address bar's pages, rendered by a process of their own) takes some 1.5 s of CPU in its first
+ * two seconds: opened at once, the page shares the two cores with it. A user opens the file in
+ * a browser already running, so the page is asked for once every process of the browser has
+ * used at most 10 ms of CPU in each of three 100 ms spells in a row (DevTools protocol,
+ * SystemInfo.getProcessInfo; its clock counts in 10 ms), at most 10 s. `--with-window` skips this.
+ */
+async function browserQuiet(browser) {
+  const session = (quietSession ??= await browser.newBrowserCDPSession());
+  const cpu = async () =>
+    (await session.send('SystemInfo.getProcessInfo')).processInfo.reduce((sum, p) => sum + p.cpuTime, 0);
+  const start = Date.now();
+  let before = await cpu();
+  for (let quiet = 0; quiet < 3 && Date.now() - start < 10000;) {
+    await sleep(100);
+    const now = await cpu();
+    quiet = now - before <= 0.0105 ? quiet + 1 : 0;
+    before = now;
+  }
+  return Date.now() - start;
+}
+let quietSession = null;
 
 async function settle(page, quietMs = 1500, timeoutMs = 60000) {
   const end = Date.now() + timeoutMs;
@@ -138,6 +168,7 @@ async function coldOpen(browser, url, rate) {
   await context.setOffline(true);
   await context.addInitScript(recorder);
   const page = await context.newPage();
+  if (!withWindow) windowWaits.push(await browserQuiet(browser)); // (before the slowing, which keeps a thread busy)
   if (rate !== 1) await (await context.newCDPSession(page)).send('Emulation.setCPUThrottlingRate', { rate });
   await page.goto(url);
   for (let i = 0; i < 1200; i++) {
@@ -255,6 +286,11 @@ function report(rate, figures) {
   console.log(
     `cold open from file:// to the first premium shown: median ${ms(median(opens))}, best ${ms(Math.min(...opens))}, ` +
       `worst ${ms(Math.max(...opens))} (${opens.length} fresh contexts${within(median(opens), budget?.open)})`,
+  );
+  console.log(
+    withWindow
+      ? '  (--with-window: each asked for at once, while the browser made its new window)'
+      : `  (each asked for in a new tab once the browser was quiet: waited a median ${ms(median(windowWaits))} for its new window)`,
   );
   console.log(
     `  ... and drawn (the frame that shows it done): median ${ms(median(opensDrawn))}, best ${ms(Math.min(...opensDrawn))}, ` +
