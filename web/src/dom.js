@@ -157,3 +157,19 @@ export function fillTable(table, head, rows, caption = '') {
   fillRows(body, rows);
   return table;
 }
+
+/**
+ * Whether each of `elements` is (partly) in the window, as an IntersectionObserver keeps it (asking
+ * costs no layout). Returns (element) => boolean: true for an element the browser has not reported
+ * on yet, and everywhere without an IntersectionObserver.
+ */
+export function inWindowWatch(elements) {
+  const seen = new Map();
+  if (typeof IntersectionObserver === 'function') {
+    const observer = new IntersectionObserver((entries) => {
+      for (const entry of entries) seen.set(entry.target, entry.isIntersecting);
+    });
+    for (const element of elements) if (element) observer.observe(element);
+  }
+  return (element) => seen.get(element) ?? true;
+}

@@ -11,7 +11,7 @@ import { comparisonPanel, openDocument } from './compare.js';
 import { pairForm } from './currency.js';
 import { EngineChannel, delay } from './compute.js';
 import { ladderPanel, solvePanel } from './desk.js';
-import { byId } from './dom.js';
+import { byId, inWindowWatch } from './dom.js';
 import { listenForEdits } from './edits.js';
 import { formatDate, formatNumber, formatStamp } from './format.js';
 import { hedgePanel } from './hedge.js';
@@ -68,6 +68,10 @@ const work = workStore({
   describe: describeWork,
   reloaded: performance.getEntriesByType('navigation')[0]?.type === 'reload',
 });
+// the cards whose figures the price waits for when they are in the window (recompute.js)
+const cardsInWindow = inWindowWatch(
+  ['profile', 'hedge', 'ladder'].map((panel) => document.querySelector(`.card[data-panel="${panel}"]`)),
+);
 const cycle = recomputeCycle({
   state,
   live,
@@ -76,6 +80,7 @@ const cycle = recomputeCycle({
   save: () => files.keep(),
   keepFigures: (figures) => work.keepFigures(figures),
   scope,
+  inWindow: (panel) => cardsInWindow(document.querySelector(`.card[data-panel="${panel}"]`)),
 });
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
 const pair = pairForm({ state, refill: fillForm, changed });

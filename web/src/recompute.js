@@ -25,10 +25,11 @@ const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate', '
  * The cycle over `live` and `desk` (EngineChannel) for the cards {hedge, ladder, solve,
  * simulate}; `save` keeps the edited trade (autosave) and `keepFigures` the last good
  * figures with it; `scope` holds the inputs the page checks itself before anything is
- * priced. Returns changed(delay) for edits, recompute() to run one now, showKept(figures)
+ * priced; `inWindow(panel)` says whether the card showing `panel` ('profile', 'hedge', 'ladder')
+ * is in the window now. Returns changed(delay) for edits, recompute() to run one now, showKept(figures)
  * to show figures kept from before a reload, and refreshSheet(doc, price) for the print view.
  */
-export function recomputeCycle({ state, live, desk, cards, save, keepFigures, scope }) {
+export function recomputeCycle({ state, live, desk, cards, save, keepFigures, scope, inWindow = () => true }) {
   const { hedge, ladder, solve, simulate, compare } = cards;
   let pending = false; // an edit waits for its recompute
   let timer = null;
@@ -98,9 +99,14 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
   }
 
   /** Post every call this edit needs at once: the engines work through them while this thread shows each result. */
-  function post(doc) {
+  function post(doc, hold) {
+    const pricing = live.call('price', doc);
+    if (hold) {
+      live.holdUntil(hold);
+      desk.holdUntil(hold);
+    }
     return {
-      pricing: live.call('price', doc),
+      pricing,
       profiling: state.commands.includes('profile') ? started(desk.call('profile', profileRequest(doc))) : null,
       hedging: hedge.request(doc),
       laddering: ladder.request(doc),
@@ -132,11 +138,18 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     // would make the browser restyle the page while the engines run.
     clearTimeout(busyTimer);
     busyTimer = setTimeout(() => document.body.classList.add('busy'), 120);
-    const calls = post(doc);
+    // With no card in the window, the cards' calls wait until the price is drawn (at most 50 ms):
+    // on a two-core laptop they would share the cores with the price and its drawing.
+    let priceDrawn = null;
+    const cardsSeen = ['profile', 'hedge', 'ladder'].some((panel) => inWindow(panel));
+    const hold = cardsSeen ? null : Promise.race([new Promise((resolve) => (priceDrawn = resolve)), delay(50)]);
+    const release = () => priceDrawn?.();
+    const calls = post(doc, hold);
     let price;
     try {
       price = await calls.pricing;
     } catch (err) {
+      release();
       if (!current() || err instanceof Cancelled) return;
       notBusy();
       clearErrors();
@@ -145,24 +158,31 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
       caughtUp();
       return;
     }
-    if (!current()) return;
-    // The cards below the price (profile, schedule, ladder: a few milliseconds behind it on
-    // their worker) are waited for, as long as they took last time if that was at most 8 ms
-    // and never past 10 ms into the recompute, so that the whole page changes in one go: one
-    // layout, one frame, no frame where the premium has moved and the chart has not. When they
-    // came later (a structure on a smile), when the price itself came late, or when the cards
-    // are held back until the price is in (on opening, main.js), the price is shown at once
-    // and the cards as they come.
-    const following = [calls.profiling, calls.hedging, calls.laddering].filter(Boolean);
+    if (!current()) return release();
+    // The cards below the price that are in the window (profile, schedule, ladder: a few
+    // milliseconds behind it on their worker) are waited for, as long as they took last time if
+    // that was at most 8 ms and never past 10 ms into the recompute, so that what the user sees
+    // changes in one go: one layout, one frame, no frame where the premium has moved and the
+    // chart has not. A card out of the window is not waited for (the price would only show
+    // later). When they came later (a structure on a smile), when the price itself came late,
+    // or when the cards are held back until the price is in (on opening, main.js), the price is
+    // shown at once and the cards as they come.
+    const cardCalls = [
+      [calls.profiling, 'profile'],
+      [calls.hedging, 'hedge'],
+      [calls.laddering, 'ladder'],
+    ].filter(([call]) => call);
+    const following = cardCalls.map(([call]) => call);
+    const seen = cardCalls.filter(([, panel]) => inWindow(panel)).map(([call]) => call);
     let cardsIn = false;
-    const cardsSettled = Promise.allSettled(following).then(() => {
+    Promise.allSettled(following).then(() => {
       cardsIn = true;
     });
     const held = desk.held !== null;
-    const wait = held ? 0 : cardsWait(performance.now() - began);
-    if (wait > 0) await Promise.race([Promise.allSettled([cardsSettled, calls.fingerprinting]), delay(wait)]);
-    if (!held) measureCards(price, following); // (held back, their lag says nothing about the next edit)
-    if (!current()) return;
+    const wait = held || !seen.length ? 0 : cardsWait(performance.now() - began);
+    if (wait > 0) await Promise.race([Promise.allSettled([...seen, calls.fingerprinting]), delay(wait)]);
+    if (!held) measureCards(price, seen); // (held back, their lag says nothing about the next edit)
+    if (!current()) return release();
     notBusy();
     clearErrors();
     state.price = price;
@@ -170,6 +190,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     showMarketFigures(doc, price);
     setStale(['price'], false);
     renderCurrency(doc);
+    release();
     // The print-only sheet (printing fills it again anyway): with the price when the cards are
     // in too (one frame), else in a task of its own after this frame, while the cards are
     // awaited (on opening, it is not drawn with the first figures).
