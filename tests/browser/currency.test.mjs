@@ -278,3 +278,24 @@ test('an engine refusal that names another field says it by its name on screen',
   assert.doesNotMatch(errors[0], /valuation_date/);
   await context.close();
 });
+
+test('a pair’s premium per unit is shown to a hundredth of a pip, as its pips are, on screen and on the sheet', async () => {
+  // 0.014491 USD per EUR is 144.91 pips (pip 0.0001): four decimals (0.0145) would be half a pip
+  // off the pips printed beside it (common practice: premiums quoted to a hundredth of a pip).
+  const context = await offlineContext(await run.ready());
+  const page = await openPage(context, linkToPage(exampleText));
+  const premium = cliPremium(JSON.parse(exampleText));
+  const text = premium.toFixed(6);
+  assert.equal(await page.textContent('[data-result="premium"]'), text);
+  assert.equal(await page.textContent('#pair-premium'), `${(premium / 0.0001).toFixed(2)} USD pips per EUR`);
+  const cp = Number(await page.getAttribute('[data-result="client-price"]', 'data-value'));
+  assert.equal(await page.textContent('[data-result="client-price"]'), `${cp.toFixed(6)} USD`);
+  await page.check('#sheet-internal');
+  const sheet = await printedSheet(page);
+  // (the sheet's two columns wrap in the text pdftotext reads: the figures, not their lines)
+  assert.match(sheet, /Model value per unit/);
+  assert.ok(sheet.includes(`${text} USD`), `the model value per unit ${text} USD on the sheet`);
+  assert.ok(sheet.includes(`${cp.toFixed(6)} USD`), `the client price per unit ${cp.toFixed(6)} USD on the sheet`);
+  assert.ok(!sheet.includes(`${premium.toFixed(4)} USD`), 'no per-unit figure to four decimals');
+  await context.close();
+});

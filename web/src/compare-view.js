@@ -7,7 +7,7 @@
 import { drawChart } from './chart.js';
 import { fillTable, make, setText } from './dom.js';
 import { formatDate, formatNumber, formatPercent } from './format.js';
-import { priceText } from './render.js';
+import { perUnitDigits, priceText } from './render.js';
 
 /** An alternative's name: its quote.label, else "Alternative n". */
 export function alternativeLabel(alt, i) {
@@ -16,7 +16,6 @@ export function alternativeLabel(alt, i) {
 }
 
 const money = (x) => (x === null ? null : formatNumber(x, 0));
-const perUnit = (x) => formatNumber(x, Math.abs(x) < 100 ? 4 : 2);
 
 /** The spot levels where the client breaks even, "none" when there are none. */
 function evensText(doc, row) {
@@ -40,6 +39,7 @@ function protectionText(doc, row) {
 export function comparisonRows(result, doc) {
   const rows = result.rows;
   const first = doc.comparison.alternatives[0]; // prices with its decimals (render.js priceDigits)
+  const perUnit = (x) => formatNumber(x, perUnitDigits(first, null, x));
   const ccy = result.currency ? ` ${result.currency}` : '';
   const held = rows.some((r) => r.holding_shares !== null && r.holding_shares !== 0);
   const withHolding = held ? ' †' : '';

@@ -114,6 +114,18 @@ function perUnitDigitsOf(x) {
 }
 
 /**
+ * Decimals for an amount per unit of the underlying `x` (a premium, a client price) of `doc` priced
+ * as `r`: 4 below 100, else 2, never fewer than the trade's prices have (priceDigits); for a
+ * currency pair two more than its pip has, so that the figure agrees with the pips beside it
+ * (EUR/USD: 0.014491 USD per EUR, 144.91 pips). The screen and both sheets use it.
+ */
+export function perUnitDigits(doc, r, x) {
+  const pip = r?.currency?.pip_size;
+  const pair = typeof pip === 'number' && pip > 0 ? decimalsIn(pip) + 2 : 0;
+  return Math.min(8, Math.max(perUnitDigitsOf(x), priceDigits(doc), pair));
+}
+
+/**
  * The currency the trade's amounts are in, for their labels: the client price's (`quote.currency`)
  * when given, else a currency pair's quote currency (its amounts are in it), else none ('').
  */
@@ -138,8 +150,8 @@ export function renderPrice(doc, r) {
 function writeFigures(doc, r, set) {
   const q = r.position.quantity;
   const sign = r.position.side === 'sell' ? -1 : 1;
-  const perUnitDigits = Math.max(perUnitDigitsOf(r.premium), priceDigits(doc));
-  set('premium', formatNumber(r.premium, perUnitDigits), r.premium);
+  const digits = perUnitDigits(doc, r, r.premium);
+  set('premium', formatNumber(r.premium, digits), r.premium);
   set('premium-total', formatNumber(q * r.premium, 2), q * r.premium);
   set('premium-percent-spot', formatPercent(r.premium / r.spot, 2), r.premium / r.spot);
   set('notional', formatNumber(q * r.spot, 2), q * r.spot);
@@ -149,13 +161,13 @@ function writeFigures(doc, r, set) {
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
   for (const node of document.querySelectorAll('.two-way')) node.hidden = !cp?.two_way;
   if (cp?.two_way) {
-    const side = (x) => formatNumber(x, perUnitDigitsOf(x));
+    const side = (x) => formatNumber(x, perUnitDigits(doc, r, x));
     set('bid-offer', `${side(cp.bid.per_unit)} / ${side(cp.offer.per_unit)}`, cp.offer.per_unit);
   }
   if (cp) {
     set(
       'client-price',
-      `${formatNumber(cp.per_unit, perUnitDigitsOf(cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`,
+      `${formatNumber(cp.per_unit, perUnitDigits(doc, r, cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`,
       cp.per_unit,
     );
     set('client-price-total', formatNumber(cp.total, 2), cp.total);
@@ -183,10 +195,10 @@ function writeFigures(doc, r, set) {
     'lattice',
     `${methodName(lattice.method)}, ${inputText(lattice.steps)} steps${lattice.extrapolated ? `, extrapolated with ${inputText(lattice.coarse_steps)}` : ''}`,
   );
-  set('closed-form-premium', formatNumber(r.closed_form.premium, perUnitDigits), r.closed_form.premium);
+  set('closed-form-premium', formatNumber(r.closed_form.premium, digits), r.closed_form.premium);
   set('error-estimate', `± ${formatSmart(lattice.error_estimate, 2, 4)}`, lattice.error_estimate);
   if (r.early_exercise_premium === null) set('early-exercise-premium', 'none (exercise only at expiry)');
-  else set('early-exercise-premium', formatNumber(r.early_exercise_premium, perUnitDigits), r.early_exercise_premium);
+  else set('early-exercise-premium', formatNumber(r.early_exercise_premium, digits), r.early_exercise_premium);
 
   // a pair's replication holds foreign currency where a share's holds shares (docs/currency.md)
   const rep = { ...r.replication, shares: r.replication.shares ?? r.replication.foreign };
@@ -194,11 +206,7 @@ function writeFigures(doc, r, set) {
   set('replication-cash', formatNumber(rep.cash, 4), rep.cash);
   set('replication-shares-position', formatNumber(sign * q * rep.shares, 2), sign * q * rep.shares);
   set('replication-cash-position', formatNumber(sign * q * rep.cash, 2), sign * q * rep.cash);
-  set(
-    'replication-check',
-    replicationLine(rep, priceDigits(doc), r.premium, perUnitDigits),
-    rep.shares * rep.spot + rep.cash,
-  );
+  set('replication-check', replicationLine(rep, priceDigits(doc), r.premium, digits), rep.shares * rep.spot + rep.cash);
   set('engine-version', r.engine_version);
 
   const side = r.position.side === 'sell' ? 'Client sells' : 'Client buys';

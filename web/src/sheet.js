@@ -8,7 +8,7 @@
 import { byId, tableRow } from './dom.js';
 import { formatDate, formatNumber, formatPercent, formatSmart, formatWhen, inputText } from './format.js';
 import { exerciseNames } from './form.js';
-import { describeContract, expiryText, methodName, priceDigits, priceText } from './render.js';
+import { describeContract, expiryText, methodName, perUnitDigits, priceDigits, priceText } from './render.js';
 import { pairSheetPremium, pairSheetTerms } from './currency-figures.js';
 import { marketAsOfText } from './snapshot.js';
 
@@ -60,21 +60,22 @@ function legRows(doc, r) {
 }
 
 /** The client's price: the side dealt on, or both sides of a two-way quote; the model value without a quote. */
-function priceRows(r, ccy) {
+function priceRows(doc, r, ccy) {
+  const perUnit = (x) => `${formatNumber(x, perUnitDigits(doc, r, x))}${ccy}`;
   const cp = r.client_price;
   if (!cp) {
     const q = r.position.quantity;
     return [
-      ['Indicative price per unit', `${formatNumber(r.premium, 4)}${ccy}`],
+      ['Indicative price per unit', perUnit(r.premium)],
       ['Indicative price in total', `${formatNumber(q * r.premium, 2)}${ccy}`],
     ];
   }
   const out = [];
   if (cp.two_way) {
-    out.push(['Bid per unit (the client sells at)', `${formatNumber(cp.bid.per_unit, 4)}${ccy}`, 'bid']);
-    out.push(['Offer per unit (the client buys at)', `${formatNumber(cp.offer.per_unit, 4)}${ccy}`, 'offer']);
+    out.push(['Bid per unit (the client sells at)', perUnit(cp.bid.per_unit), 'bid']);
+    out.push(['Offer per unit (the client buys at)', perUnit(cp.offer.per_unit), 'offer']);
   }
-  out.push([`Client price per unit (${cp.client_side})`, `${formatNumber(cp.per_unit, 4)}${ccy}`, 'client-price']);
+  out.push([`Client price per unit (${cp.client_side})`, perUnit(cp.per_unit), 'client-price']);
   out.push(['Client price in total', `${formatNumber(cp.total, 2)}${ccy}`]);
   out.push(['Client price, % of notional', formatPercent(cp.fraction_of_notional, 2)]);
   return out;
@@ -108,10 +109,11 @@ function outcomeRows(doc, cp, ccy) {
 }
 
 /** What only the desk sees: the model value, the margin, the Greeks and the lattice. */
-function deskRows(r, ccy) {
+function deskRows(doc, r, ccy) {
+  const perUnit = (x) => formatNumber(x, perUnitDigits(doc, r, x));
   const q = r.position.quantity;
   const out = [
-    ['Model value per unit', `${formatNumber(r.premium, 4)}${ccy}`],
+    ['Model value per unit', `${perUnit(r.premium)}${ccy}`],
     ['Model value in total', `${formatNumber(q * r.premium, 2)}${ccy}`],
   ];
   if (r.client_price) out.push(['Desk margin in total', `${formatNumber(r.client_price.desk_margin_total, 2)}${ccy}`]);
@@ -119,9 +121,8 @@ function deskRows(r, ccy) {
   out.push([`Position delta (${r.currency ? r.currency.base : 'shares'})`, formatNumber(r.position.greeks.delta, 2)]);
   out.push(['Vega per vol point, position', `${formatNumber(r.position.greeks.vega / 100, 2)}${ccy}`]);
   out.push(['Theta per day, position', `${formatNumber(r.position.greeks.theta / 365, 2)}${ccy}`]);
-  out.push(['European closed-form value', formatNumber(r.closed_form.premium, 4)]);
-  if (r.early_exercise_premium !== null)
-    out.push(['Early-exercise premium', formatNumber(r.early_exercise_premium, 4)]);
+  out.push(['European closed-form value', perUnit(r.closed_form.premium)]);
+  if (r.early_exercise_premium !== null) out.push(['Early-exercise premium', perUnit(r.early_exercise_premium)]);
   out.push(['Lattice error estimate', `± ${formatSmart(r.lattice.error_estimate, 2, 4)}`]);
   out.push([
     'Engine',
@@ -156,7 +157,7 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
 
   const cp = r.client_price;
   const quoted = r.currency ? pairSheetPremium(r) : [];
-  rows(byId('sheet-figures'), [...quoted, ...priceRows(r, ccy), ...(cp ? expiryRows(doc, cp) : [])]);
+  rows(byId('sheet-figures'), [...quoted, ...priceRows(doc, r, ccy), ...(cp ? expiryRows(doc, cp) : [])]);
   const outcomes = byId('sheet-outcomes');
   if (cp) grid(outcomes, ...outcomeRows(doc, cp, ccy));
   else outcomes.replaceChildren();
@@ -183,6 +184,6 @@ export function renderSheet(doc, r, { fingerprint, valuedAt, currency, internal 
   sheet.classList.toggle('internal', internal);
   byId('sheet-title').textContent = internal ? 'INTERNAL – desk copy, not for the client' : 'Indicative option quote';
   const desk = byId('sheet-desk');
-  if (internal) rows(desk, deskRows(r, ccy));
+  if (internal) rows(desk, deskRows(doc, r, ccy));
   else desk.replaceChildren(); // never left in the page to print by mistake
 }
