@@ -312,9 +312,14 @@ json write_comparison_result(const comparison_input& in, const comparison_result
         alternatives.push_back(alternative_json(in.alternatives[i], r.alternatives[i], i));
         if (currency.empty()) currency = r.alternatives[i].terms.currency;
     }
+    // a currency pair's pip, for per-unit figures to a hundredth of one (null for a share); a
+    // pair's amounts are in its quote currency when no quote section names one
+    const auto& pair = in.alternatives.front().t.currency;
+    if (currency.empty() && pair) currency = pair->pair.quote;
     return json{{"title", in.settings.title.empty() ? json(nullptr) : json(in.settings.title)},
                 {"spot", in.alternatives.front().t.market.spot},
                 {"currency", currency.empty() ? json(nullptr) : json(currency)},
+                {"pip_size", pair ? json(pair->pair.pip_size) : json(nullptr)},
                 {"rows", row_objects(row_columns(), rows)},
                 {"columns", column_names(row_columns())},
                 {"outcome_spots", r.outcome_spots},

@@ -297,5 +297,30 @@ test('a pair’s premium per unit is shown to a hundredth of a pip, as its pips 
   assert.ok(sheet.includes(`${text} USD`), `the model value per unit ${text} USD on the sheet`);
   assert.ok(sheet.includes(`${cp.toFixed(6)} USD`), `the client price per unit ${cp.toFixed(6)} USD on the sheet`);
   assert.ok(!sheet.includes(`${premium.toFixed(4)} USD`), 'no per-unit figure to four decimals');
+
+  // A comparison of two such puts: per unit to a hundredth of a pip too, and its delta named as
+  // the spot delta, not premium-adjusted (the pair's own convention is on the pair card).
+  const lower = { ...JSON.parse(exampleText), option: { ...JSON.parse(exampleText).option, strike: 1.04 } };
+  const comparison = { comparison: { title: 'Two floors', alternatives: [JSON.parse(exampleText), lower] } };
+  await page.setInputFiles('#import-file', {
+    name: 'floors.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from(JSON.stringify(comparison)),
+  });
+  const rows = await until(page, () => {
+    const t = document.getElementById('compare-figures');
+    if (!t?.tHead || t.tHead.rows[0].cells.length !== 3 || t.closest('.stale')) return null;
+    return [...t.tBodies[0].rows].map((r) => [...r.cells].map((c) => c.textContent));
+  });
+  assert.ok(
+    rows.some((r) => r[0] === 'Delta per unit (spot, not premium-adjusted)'),
+    rows.map((r) => r[0]).join('; '),
+  );
+  assert.match(rows.find((r) => r[0].startsWith('Client price per unit'))[1], /^0\.\d{6}$/);
+  // the totals in the pair's quote currency, as on the price card (no quote section names one)
+  assert.ok(
+    rows.some((r) => r[0] === 'Client price in total USD'),
+    rows.map((r) => r[0]).join('; '),
+  );
   await context.close();
 });

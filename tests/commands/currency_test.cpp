@@ -154,3 +154,21 @@ TEST_CASE("a pair's document is refused field by field", "[currency]") {
                                     "have several; use domestic_per_foreign, domestic_pips or percent_of_foreign");
     }
 }
+
+TEST_CASE("a comparison of currency options carries the pair's pip; one of shares carries none", "[currency]") {
+    // The pip by common practice: 0.0001 for EUR/USD, 0.01 when the quote currency is JPY.
+    const json eur = treasurer();
+    json jpy = treasurer();
+    jpy["underlying"]["quote"] = "JPY";
+    jpy["market"]["spot"] = 162.5;
+    jpy["option"]["strike"] = 158;
+    const auto compared = [](const json& alternative) {
+        return run_command("compare", json{{"comparison", {{"alternatives", {alternative, alternative}}}}});
+    };
+    CHECK(compared(eur)["pip_size"] == 0.0001);
+    CHECK(compared(jpy)["pip_size"] == 0.01);
+    CHECK(compared(eur)["currency"] == "USD");
+    const json shares = parse_json_text(R"({"market": {"spot": 40, "volatility": 0.25, "rate": 0.03},
+      "option": {"type": "put", "strike": 38, "expiry_years": 1}})");
+    CHECK(compared(shares)["pip_size"].is_null());
+}

@@ -7,6 +7,7 @@
 import { drawChart } from './chart.js';
 import { fillTable, make, setText } from './dom.js';
 import { formatDate, formatNumber, formatPercent } from './format.js';
+import { isPair } from './currency.js';
 import { perUnitDigits, priceText } from './render.js';
 
 /** An alternative's name: its quote.label, else "Alternative n". */
@@ -39,7 +40,8 @@ function protectionText(doc, row) {
 export function comparisonRows(result, doc) {
   const rows = result.rows;
   const first = doc.comparison.alternatives[0]; // prices with its decimals (render.js priceDigits)
-  const perUnit = (x) => formatNumber(x, perUnitDigits(first, null, x));
+  // to a hundredth of a pip for a pair, as on the price card (render.js perUnitDigits)
+  const perUnit = (x) => formatNumber(x, perUnitDigits(first, { currency: { pip_size: result.pip_size } }, x));
   const ccy = result.currency ? ` ${result.currency}` : '';
   const held = rows.some((r) => r.holding_shares !== null && r.holding_shares !== 0);
   const withHolding = held ? ' †' : '';
@@ -67,7 +69,11 @@ export function comparisonRows(result, doc) {
       `Maximum gain at expiry${withHolding}${ccy}`,
       rows.map((r) => (r.best_pnl === null ? 'unlimited' : money(r.best_pnl))),
     ],
-    ['Delta per unit', rows.map((r) => formatNumber(r.delta, 4))],
+    // a pair's delta here is the plain spot delta, as in Sensitivities (its own convention is on the pair card)
+    [
+      isPair(first) ? 'Delta per unit (spot, not premium-adjusted)' : 'Delta per unit',
+      rows.map((r) => formatNumber(r.delta, 4)),
+    ],
   );
   return out;
 }
