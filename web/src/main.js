@@ -69,9 +69,8 @@ const work = workStore({
   reloaded: performance.getEntriesByType('navigation')[0]?.type === 'reload',
 });
 // the cards whose figures the price waits for when they are in the window (recompute.js)
-const cardsInWindow = inWindowWatch(
-  ['profile', 'hedge', 'ladder'].map((panel) => document.querySelector(`.card[data-panel="${panel}"]`)),
-);
+const cardOf = (panel) => document.querySelector(`.card[data-panel="${panel}"]`);
+const cardsInWindow = inWindowWatch(['profile', 'hedge', 'ladder'].map(cardOf));
 const cycle = recomputeCycle({
   state,
   live,
@@ -80,7 +79,7 @@ const cycle = recomputeCycle({
   save: () => files.keep(),
   keepFigures: (figures) => work.keepFigures(figures),
   scope,
-  inWindow: (panel) => cardsInWindow(document.querySelector(`.card[data-panel="${panel}"]`)),
+  inWindow: (panel) => cardsInWindow(cardOf(panel)),
 });
 const terms = termsForm({ form: byId('terms'), state, refill: fillForm, changed });
 const pair = pairForm({ state, refill: fillForm, changed });

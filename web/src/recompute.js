@@ -20,6 +20,8 @@ import { formatStamp } from './format.js';
 import { showMarketFigures } from './smile-chart.js';
 
 const allPanels = ['price', 'profile', 'hedge', 'ladder', 'solve', 'simulate', 'compare'];
+// the cards drawn from calls that follow the price's (their order in `cardCalls` below)
+const followingPanels = ['profile', 'hedge', 'ladder'];
 
 /**
  * The cycle over `live` and `desk` (EngineChannel) for the cards {hedge, ladder, solve,
@@ -141,7 +143,7 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     // With no card in the window, the cards' calls wait until the price is drawn (at most 50 ms):
     // on a two-core laptop they would share the cores with the price and its drawing.
     let priceDrawn = null;
-    const cardsSeen = ['profile', 'hedge', 'ladder'].some((panel) => inWindow(panel));
+    const cardsSeen = followingPanels.some((panel) => inWindow(panel));
     const hold = cardsSeen ? null : Promise.race([new Promise((resolve) => (priceDrawn = resolve)), delay(50)]);
     const release = () => priceDrawn?.();
     const calls = post(doc, hold);
@@ -167,11 +169,9 @@ export function recomputeCycle({ state, live, desk, cards, save, keepFigures, sc
     // later). When they came later (a structure on a smile), when the price itself came late,
     // or when the cards are held back until the price is in (on opening, main.js), the price is
     // shown at once and the cards as they come.
-    const cardCalls = [
-      [calls.profiling, 'profile'],
-      [calls.hedging, 'hedge'],
-      [calls.laddering, 'ladder'],
-    ].filter(([call]) => call);
+    const cardCalls = [calls.profiling, calls.hedging, calls.laddering]
+      .map((call, i) => [call, followingPanels[i]])
+      .filter(([call]) => call);
     const following = cardCalls.map(([call]) => call);
     const seen = cardCalls.filter(([, panel]) => inWindow(panel)).map(([call]) => call);
     let cardsIn = false;
