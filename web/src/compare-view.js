@@ -41,7 +41,7 @@ export function comparisonRows(result, doc) {
   const rows = result.rows;
   const first = doc.comparison.alternatives[0]; // prices with its decimals (render.js priceDigits)
   // to a hundredth of a pip for a pair, as on the price card (render.js perUnitDigits)
-  const perUnit = (x) => formatNumber(x, perUnitDigits(first, { currency: { pip_size: result.pip_size } }, x));
+  const perUnit = (x) => formatNumber(x, perUnitDigits(first, result.pip_size ?? null, x));
   const ccy = result.currency ? ` ${result.currency}` : '';
   const held = rows.some((r) => r.holding_shares !== null && r.holding_shares !== 0);
   const withHolding = held ? ' †' : '';

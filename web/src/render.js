@@ -114,13 +114,13 @@ function perUnitDigitsOf(x) {
 }
 
 /**
- * Decimals for an amount per unit of the underlying `x` (a premium, a client price) of `doc` priced
- * as `r`: 4 below 100, else 2, never fewer than the trade's prices have (priceDigits); for a
- * currency pair two more than its pip has, so that the figure agrees with the pips beside it
- * (EUR/USD: 0.014491 USD per EUR, 144.91 pips). The screen and both sheets use it.
+ * Decimals for an amount per unit of the underlying `x` (a premium, a client price) of `doc`: 4
+ * below 100, else 2, never fewer than the trade's prices have (priceDigits); for a currency pair,
+ * whose pip the engine gives (`pip`, else null), two more than the pip has, so that the figure
+ * agrees with the pips beside it (EUR/USD: 0.014491 USD per EUR, 144.91 pips). The screen, both
+ * sheets and the comparison use it.
  */
-export function perUnitDigits(doc, r, x) {
-  const pip = r?.currency?.pip_size;
+export function perUnitDigits(doc, pip, x) {
   const pair = typeof pip === 'number' && pip > 0 ? decimalsIn(pip) + 2 : 0;
   return Math.min(8, Math.max(perUnitDigitsOf(x), priceDigits(doc), pair));
 }
@@ -150,7 +150,8 @@ export function renderPrice(doc, r) {
 function writeFigures(doc, r, set) {
   const q = r.position.quantity;
   const sign = r.position.side === 'sell' ? -1 : 1;
-  const digits = perUnitDigits(doc, r, r.premium);
+  const pip = r.currency?.pip_size ?? null;
+  const digits = perUnitDigits(doc, pip, r.premium);
   set('premium', formatNumber(r.premium, digits), r.premium);
   set('premium-total', formatNumber(q * r.premium, 2), q * r.premium);
   set('premium-percent-spot', formatPercent(r.premium / r.spot, 2), r.premium / r.spot);
@@ -161,13 +162,13 @@ function writeFigures(doc, r, set) {
   for (const node of document.querySelectorAll('.client-price')) node.hidden = !cp;
   for (const node of document.querySelectorAll('.two-way')) node.hidden = !cp?.two_way;
   if (cp?.two_way) {
-    const side = (x) => formatNumber(x, perUnitDigits(doc, r, x));
+    const side = (x) => formatNumber(x, perUnitDigits(doc, pip, x));
     set('bid-offer', `${side(cp.bid.per_unit)} / ${side(cp.offer.per_unit)}`, cp.offer.per_unit);
   }
   if (cp) {
     set(
       'client-price',
-      `${formatNumber(cp.per_unit, perUnitDigits(doc, r, cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`,
+      `${formatNumber(cp.per_unit, perUnitDigits(doc, pip, cp.per_unit))}${cp.currency ? ` ${cp.currency}` : ''}`,
       cp.per_unit,
     );
     set('client-price-total', formatNumber(cp.total, 2), cp.total);

@@ -61,7 +61,7 @@ function legRows(doc, r) {
 
 /** The client's price: the side dealt on, or both sides of a two-way quote; the model value without a quote. */
 function priceRows(doc, r, ccy) {
-  const perUnit = (x) => `${formatNumber(x, perUnitDigits(doc, r, x))}${ccy}`;
+  const perUnit = (x) => `${formatNumber(x, perUnitDigits(doc, r.currency?.pip_size ?? null, x))}${ccy}`;
   const cp = r.client_price;
   if (!cp) {
     const q = r.position.quantity;
@@ -110,7 +110,7 @@ function outcomeRows(doc, cp, ccy) {
 
 /** What only the desk sees: the model value, the margin, the Greeks and the lattice. */
 function deskRows(doc, r, ccy) {
-  const perUnit = (x) => formatNumber(x, perUnitDigits(doc, r, x));
+  const perUnit = (x) => formatNumber(x, perUnitDigits(doc, r.currency?.pip_size ?? null, x));
   const q = r.position.quantity;
   const out = [
     ['Model value per unit', `${perUnit(r.premium)}${ccy}`],
