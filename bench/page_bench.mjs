@@ -89,6 +89,7 @@ const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
  * used at most 10 ms of CPU in each of three 100 ms spells in a row (DevTools protocol,
  * SystemInfo.getProcessInfo; its clock counts in 10 ms), at most 10 s. `--with-window` skips this.
  */
+let quietSession = null; // (the browser's own DevTools session, made once)
 async function browserQuiet(browser) {
   const session = (quietSession ??= await browser.newBrowserCDPSession());
   const cpu = async () =>
@@ -103,7 +104,6 @@ async function browserQuiet(browser) {
   }
   return Date.now() - start;
 }
-let quietSession = null;
 
 async function settle(page, quietMs = 1500, timeoutMs = 60000) {
   const end = Date.now() + timeoutMs;
@@ -188,6 +188,7 @@ const rateHeading = (rate) =>
 
 /** Open the page in `contexts` fresh contexts at CPU `rate` and time the open and four spot edits in each. */
 async function measure(browser, url, rate) {
+  windowWaits.length = 0; // (this speed's opens only)
   const figures = {
     opens: [],
     opensDrawn: [],
