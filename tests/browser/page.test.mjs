@@ -441,8 +441,21 @@ test('after an edit, cards out of the window are asked for once the price is dra
   for (const command of ['profile', 'hedge'])
     assert.ok(order.indexOf(`post ${command}`) > shown, `${command} asked for before the price was drawn: ${order}`);
   // the profile card in the window: its call goes out with the price's
-  await page.evaluate(() => document.querySelector('.card[data-panel="profile"]').scrollIntoView());
-  await page.evaluate(() => new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve))));
+  // (once an observer of the test's own has seen it in the window, a turn later: the page's
+  // observer, made first, is told in the same rendering step)
+  await page.evaluate(
+    () =>
+      new Promise((resolve) => {
+        const card = document.querySelector('.card[data-panel="profile"]');
+        const observer = new IntersectionObserver((entries) => {
+          if (!entries.some((e) => e.isIntersecting)) return;
+          observer.disconnect();
+          setTimeout(resolve, 0);
+        });
+        observer.observe(card);
+        card.scrollIntoView();
+      }),
+  );
   order = await edit('102');
   assert.ok(order.indexOf('post profile') < order.indexOf('premium'), `profile waited for the price: ${order}`);
   await page.close();
